@@ -1,0 +1,7 @@
+import type { ActionState } from '@/lib/action';
+import { Notice } from './notice';
+
+export function FormMessage({ state }: { state: ActionState | undefined }) {
+  if (!state?.message) return null;
+  return <Notice tone={state.ok ? 'good' : 'bad'}>{state.message}</Notice>;
+}

@@ -1,0 +1,48 @@
+import 'server-only';
+import { drizzle } from 'drizzle-orm/libsql';
+import type { Client } from '@libsql/client';
+import { connect } from './connection';
+import * as schema from './schema';
+
+export type Db = ReturnType<typeof createDb>;
+
+export function createDb(client: Client) {
+  return drizzle(client, { schema, casing: 'snake_case' });
+}
+
+const globalForDb = globalThis as unknown as { ledgerClient?: Client; ledgerDb?: Db };
+
+function databaseUrl(): { url: string; authToken?: string } {
+  // Read directly (not through lib/env) so scripts that only touch the database need no auth settings.
+  return {
+    url: process.env.DATABASE_URL || 'file:./.data/ledger.db',
+    authToken: process.env.DATABASE_AUTH_TOKEN || undefined,
+  };
+}
+
+/** The process-wide client (kept on globalThis so dev reloads do not open a second one). */
+export function getClient(): Client {
+  globalForDb.ledgerClient ??= connect(databaseUrl());
+  return globalForDb.ledgerClient;
+}
+
+export function getDb(): Db {
+  globalForDb.ledgerDb ??= createDb(getClient());
+  return globalForDb.ledgerDb;
+}
+
+/** Drizzle instance; resolved on first use so importing this module opens nothing. */
+export const db: Db = new Proxy({} as Db, {
+  get(_target, prop) {
+    const real = getDb() as unknown as Record<string | symbol, unknown>;
+    const value = real[prop];
+    return typeof value === 'function' ? (value as (...a: unknown[]) => unknown).bind(real) : value;
+  },
+});
+
+/** Closes the shared client (tests and scripts). */
+export function closeDb(): void {
+  globalForDb.ledgerClient?.close();
+  globalForDb.ledgerClient = undefined;
+  globalForDb.ledgerDb = undefined;
+}

@@ -1,0 +1,27 @@
+import { fileURLToPath } from 'node:url';
+import { migrate } from 'drizzle-orm/libsql/migrator';
+import { drizzle } from 'drizzle-orm/libsql';
+import type { Client } from '@libsql/client';
+import { connect } from './connection';
+
+const migrationsFolder = fileURLToPath(new URL('../drizzle', import.meta.url));
+
+/** Applies every migration in drizzle/ to the given client (used by the script and by tests). */
+export async function migrateClient(client: Client): Promise<void> {
+  await migrate(drizzle(client), { migrationsFolder });
+}
+
+async function main() {
+  const url = process.env.DATABASE_URL || 'file:./.data/ledger.db';
+  const client = connect({ url, authToken: process.env.DATABASE_AUTH_TOKEN });
+  await migrateClient(client);
+  client.close();
+  console.log(`Migrations applied to ${url.startsWith('file:') ? url : url.replace(/\/\/.*@/, '//…@')}`);
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  main().catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });
+}

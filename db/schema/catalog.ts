@@ -1,0 +1,112 @@
+import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { sql } from 'drizzle-orm';
+import { organization, user } from './auth';
+import { createdAt, id, retraction, timestamp } from './columns';
+
+export const material = sqliteTable(
+  'material',
+  {
+    id: id(),
+    workspaceId: text()
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    /** Short unique handle used by imports and the API, e.g. "GaN-wz". */
+    name: text().notNull(),
+    displayName: text(),
+    formula: text().notNull(),
+    reducedFormula: text().notNull(),
+    atomsPerFormulaUnit: real().notNull(),
+    elementCounts: text({ mode: 'json' }).$type<Record<string, number>>().notNull(),
+    spaceGroup: integer(),
+    crystalSystem: text(),
+    atomsInCell: integer(),
+    externalId: text(),
+    createdBy: text().references(() => user.id),
+    createdAt: createdAt(),
+    updatedAt: timestamp(),
+    ...retraction(),
+  },
+  (t) => [
+    uniqueIndex('material_name_uq').on(t.workspaceId, t.name).where(sql`retracted_at is null`),
+    index('material_formula_idx').on(t.workspaceId, t.reducedFormula),
+  ],
+);
+
+export const materialTag = sqliteTable(
+  'material_tag',
+  {
+    materialId: text()
+      .notNull()
+      .references(() => material.id, { onDelete: 'cascade' }),
+    workspaceId: text()
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    tag: text().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.materialId, t.tag] }), index('material_tag_idx').on(t.workspaceId, t.tag)],
+);
+
+export const SOURCE_KINDS = ['journal-article', 'data-set', 'thesis', 'in-house-notebook', 'computed-data-set'] as const;
+
+export const source = sqliteTable(
+  'source',
+  {
+    id: id(),
+    workspaceId: text()
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    /** Citation key used by imports, e.g. "azuhata1995". */
+    citeKey: text().notNull(),
+    kind: text({ enum: SOURCE_KINDS }).notNull(),
+    doi: text(),
+    title: text(),
+    authors: text(),
+    year: integer(),
+    venue: text(),
+    url: text(),
+    notebookRef: text(),
+    instrument: text(),
+    operator: text(),
+    recordedOn: text(),
+    createdBy: text().references(() => user.id),
+    createdAt: createdAt(),
+    updatedAt: timestamp(),
+    ...retraction(),
+  },
+  (t) => [
+    uniqueIndex('source_cite_key_uq').on(t.workspaceId, t.citeKey),
+    index('source_doi_idx').on(t.workspaceId, t.doi),
+  ],
+);
+
+export const APPROACHES = ['perturbation', 'finite-displacement'] as const;
+
+export const method = sqliteTable(
+  'method',
+  {
+    id: id(),
+    workspaceId: text()
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    label: text().notNull(),
+    functional: text().notNull(),
+    dispersion: text(),
+    pseudopotential: text(),
+    cutoffEv: real(),
+    kGrid: text({ mode: 'json' }).$type<[number, number, number]>(),
+    qGrid: text({ mode: 'json' }).$type<[number, number, number]>(),
+    smearing: text(),
+    approach: text({ enum: APPROACHES }),
+    nonAnalyticCorrection: integer({ mode: 'boolean' }),
+    notes: text(),
+    createdBy: text().references(() => user.id),
+    createdAt: createdAt(),
+    updatedAt: timestamp(),
+    ...retraction(),
+  },
+  (t) => [uniqueIndex('method_label_uq').on(t.workspaceId, t.label)],
+);
+
+export type Material = typeof material.$inferSelect;
+export type Source = typeof source.$inferSelect;
+export type Method = typeof method.$inferSelect;

@@ -1,0 +1,7 @@
+export * from './auth';
+export * from './workspace';
+export * from './catalog';
+export * from './values';
+export * from './benchmarks';
+export * from './meeting';
+export * from './mail';

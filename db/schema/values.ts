@@ -1,0 +1,109 @@
+import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { organization, user } from './auth';
+import { apiToken } from './workspace';
+import { material, method, source } from './catalog';
+import { createdAt, id, retraction, timestamp } from './columns';
+
+export const QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static', 'born-charge'] as const;
+export const BRANCHES = ['TO', 'LO'] as const;
+export const ACTIVITIES = ['raman', 'ir', 'raman+ir', 'silent', 'acoustic'] as const;
+export const TECHNIQUES = ['raman', 'ir-reflectance', 'ir-absorption', 'ins', 'hyper-raman', 'calorimetry'] as const;
+export const SAMPLE_FORMS = ['single-crystal', 'powder', 'film'] as const;
+export const IMPORT_KINDS = ['measurements', 'calculations', 'dos'] as const;
+
+/** One upload batch; the file's SHA-256 is unique per workspace so a file cannot be imported twice. */
+export const importBatch = sqliteTable(
+  'import_batch',
+  {
+    id: id(),
+    workspaceId: text()
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    kind: text({ enum: IMPORT_KINDS }).notNull(),
+    fileName: text(),
+    sha256: text().notNull(),
+    byteCount: integer().notNull(),
+    rowCount: integer().notNull(),
+    insertedCount: integer().notNull(),
+    duplicateCount: integer().notNull().default(0),
+    status: text({ enum: ['committed', 'undone'] }).notNull().default('committed'),
+    via: text({ enum: ['wizard', 'api'] }).notNull(),
+    createdBy: text().references(() => user.id),
+    createdByToken: text().references(() => apiToken.id),
+    createdAt: createdAt(),
+    undoneAt: timestamp(),
+    undoneBy: text().references(() => user.id),
+    undoReason: text(),
+  },
+  (t) => [uniqueIndex('import_sha_uq').on(t.workspaceId, t.sha256), index('import_time_idx').on(t.workspaceId, t.createdAt)],
+);
+
+/** Columns shared by measured and computed values. */
+const valueColumns = () => ({
+  id: id(),
+  workspaceId: text()
+    .notNull()
+    .references(() => organization.id, { onDelete: 'cascade' }),
+  materialId: text()
+    .notNull()
+    .references(() => material.id),
+  sourceId: text()
+    .notNull()
+    .references(() => source.id),
+  importId: text().references(() => importBatch.id),
+  quantity: text({ enum: QUANTITIES }).notNull(),
+  /** Canonical value: cm⁻¹ for frequencies, J mol⁻¹ K⁻¹ per formula unit for entropies. */
+  value: real().notNull(),
+  /** The number exactly as entered ("1.50" stays "1.50"). */
+  valueText: text().notNull(),
+  unit: text().notNull(),
+  uncertainty: real(),
+  uncertaintyText: text(),
+  temperatureK: real(),
+  irrep: text(),
+  irrepNormalized: text(),
+  branch: text({ enum: BRANCHES }),
+  degeneracy: integer(),
+  activity: text({ enum: ACTIVITIES }),
+  notes: text(),
+  /** Hash of the identifying fields, to report rows identical to existing ones. */
+  rowHash: text().notNull(),
+  contributorId: text().references(() => user.id),
+  createdAt: createdAt(),
+  ...retraction(),
+});
+
+export const measurement = sqliteTable(
+  'measurement',
+  {
+    ...valueColumns(),
+    technique: text({ enum: TECHNIQUES }),
+    laserWavelengthNm: real(),
+    sampleForm: text({ enum: SAMPLE_FORMS }),
+  },
+  (t) => [
+    index('measurement_material_idx').on(t.workspaceId, t.materialId, t.quantity),
+    index('measurement_hash_idx').on(t.workspaceId, t.rowHash),
+    index('measurement_import_idx').on(t.importId),
+  ],
+);
+
+export const calculation = sqliteTable(
+  'calculation',
+  {
+    ...valueColumns(),
+    methodId: text()
+      .notNull()
+      .references(() => method.id),
+    modeIndex: integer(),
+  },
+  (t) => [
+    index('calculation_method_material_idx').on(t.workspaceId, t.methodId, t.materialId, t.quantity),
+    index('calculation_hash_idx').on(t.workspaceId, t.rowHash),
+    index('calculation_import_idx').on(t.importId),
+  ],
+);
+
+export type ImportBatch = typeof importBatch.$inferSelect;
+export type Measurement = typeof measurement.$inferSelect;
+export type Calculation = typeof calculation.$inferSelect;

@@ -1,0 +1,70 @@
+/**
+ * Demo seed (idempotent): an invented research group, its members in every role
+ * and a workspace. Everything here is invented demo data (see data/demo/group.json).
+ */
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { and, eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { getAuth } from '@/lib/auth';
+import { db, closeDb } from '@/db/client';
+import { member, organization, user } from '@/db/schema';
+import { ensureWorkspaceSettings } from '@/db/queries/workspaces';
+import { WORKSPACE_ROLES } from '@/lib/permissions';
+
+const groupSchema = z.object({
+  password: z.string().min(10),
+  workspace: z.object({ name: z.string(), slug: z.string() }),
+  members: z.array(z.object({ name: z.string(), email: z.email(), role: z.enum(WORKSPACE_ROLES) })).min(1),
+});
+
+export type DemoGroup = z.infer<typeof groupSchema>;
+
+export function loadDemoGroup(): DemoGroup {
+  const path = fileURLToPath(new URL('../data/demo/group.json', import.meta.url));
+  return groupSchema.parse(JSON.parse(readFileSync(path, 'utf8')));
+}
+
+async function ensureUser(name: string, email: string, password: string): Promise<string> {
+  const existing = await db.select({ id: user.id }).from(user).where(eq(user.email, email)).limit(1);
+  if (existing[0]) return existing[0].id;
+  const ctx = await getAuth().$context;
+  const created = await ctx.internalAdapter.createUser({ name, email, emailVerified: true });
+  await ctx.internalAdapter.linkAccount({ userId: created.id, providerId: 'credential', accountId: created.id, password: await ctx.password.hash(password) });
+  return created.id;
+}
+
+export async function seedDemo(): Promise<{ workspaceId: string; group: DemoGroup }> {
+  const group = loadDemoGroup();
+  const ids: string[] = [];
+  for (const m of group.members) ids.push(await ensureUser(m.name, m.email, group.password));
+
+  const owner = group.members.findIndex((m) => m.role === 'owner');
+  let workspace = (await db.select({ id: organization.id }).from(organization).where(eq(organization.slug, group.workspace.slug)).limit(1))[0];
+  if (!workspace) {
+    const created = await getAuth().api.createOrganization({ body: { name: group.workspace.name, slug: group.workspace.slug, userId: ids[owner] } });
+    workspace = { id: created.id };
+  }
+  await ensureWorkspaceSettings(workspace.id);
+  for (const [i, m] of group.members.entries()) {
+    const existing = await db
+      .select({ id: member.id })
+      .from(member)
+      .where(and(eq(member.organizationId, workspace.id), eq(member.userId, ids[i])))
+      .limit(1);
+    if (!existing[0]) await getAuth().api.addMember({ body: { userId: ids[i], role: m.role, organizationId: workspace.id } });
+  }
+  return { workspaceId: workspace.id, group };
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  seedDemo()
+    .then(({ group }) => {
+      console.log(`Demo workspace "${group.workspace.name}" ready (invented demo data).`);
+      closeDb();
+    })
+    .catch((e) => {
+      console.error(e);
+      process.exit(1);
+    });
+}

@@ -1,0 +1,34 @@
+import { fileURLToPath } from 'node:url';
+import { defineConfig } from 'vitest/config';
+
+const root = fileURLToPath(new URL('.', import.meta.url));
+
+export default defineConfig({
+  resolve: { alias: { '@': root } },
+  test: {
+    passWithNoTests: false,
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts', 'tests/reference/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
+        extends: true,
+        resolve: { alias: { 'server-only': fileURLToPath(new URL('./tests/support/server-only-stub.ts', import.meta.url)) } },
+        test: {
+          name: 'integration',
+          include: ['tests/integration/**/*.test.ts'],
+          environment: 'node',
+          setupFiles: ['tests/support/integration-env.ts'],
+          fileParallelism: false,
+          testTimeout: 30000,
+          hookTimeout: 60000,
+        },
+      },
+    ],
+  },
+});
