@@ -29,7 +29,7 @@ async function ensureUser(name: string, email: string, password: string): Promis
   const existing = await db.select({ id: user.id }).from(user).where(eq(user.email, email)).limit(1);
   if (existing[0]) return existing[0].id;
   const ctx = await getAuth().$context;
-  const created = await ctx.internalAdapter.createUser({ name, email, emailVerified: true });
+  const created = await ctx.internalAdapter.createUser({ name, email, emailVerified: true }, { method: 'admin' });
   await ctx.internalAdapter.linkAccount({ userId: created.id, providerId: 'credential', accountId: created.id, password: await ctx.password.hash(password) });
   return created.id;
 }

@@ -5,7 +5,7 @@ export default async function Page({ params }: { params: Promise<{ workspace: st
   await requirePageMember((await params).workspace, 'materials:read');
   return (
     <FeaturePlaceholder title="Materials">
-      Every crystal with its formula, space group and crystal system, atoms in the primitive cell and material classes; each material page sets measured peaks beside each method's computed modes.
+      Every crystal with its formula, space group and crystal system, atoms in the primitive cell and material classes; each material page sets measured peaks beside each method&apos;s computed modes.
     </FeaturePlaceholder>
   );
 }

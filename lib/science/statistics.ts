@@ -1,0 +1,200 @@
+/**
+ * Error statistics of one method over its pairs (error e = calculated − measured).
+ * RMSE divides by n, the standard deviation by n − 1; median and 95th percentile
+ * of |e| are Hyndman–Fan type-7 quantiles; Lin's concordance uses 1/N moments;
+ * Bland–Altman limits are bias ± 1.96 SD. All sums are two-pass and compensated.
+ */
+import { bootstrapErrorIntervals, type BootstrapIntervals } from './bootstrap';
+import { centredMoments, concordanceFromMoments, pearsonFromMoments, quantileOfSorted } from './descriptive';
+import { ScienceInputError, requireFinite, requireNonNegative } from './errors';
+import { compensatedSum } from './summation';
+
+/** One measured/calculated value pair with optional standard uncertainties (same unit). */
+export interface PairValue {
+  measured: number;
+  calculated: number;
+  measuredUncertainty?: number;
+  calculatedUncertainty?: number;
+}
+
+/** The statistics errorStatistics returns; all errors in the unit of the inputs. */
+export interface ErrorStatistics {
+  n: number;
+  meanSignedError: number;
+  meanAbsoluteError: number;
+  rootMeanSquareError: number;
+  /** Of the errors, n − 1 divisor. */
+  standardDeviation: number;
+  medianAbsoluteError: number;
+  p95AbsoluteError: number;
+  maxAbsoluteError: number;
+  /** Index into the input array of the first pair with the largest |e|. */
+  maxAbsoluteErrorIndex: number;
+  /** 100 × mean(|e| / |measured|). */
+  meanAbsolutePercentageError: number;
+  scaleFactor: number;
+  rmseAfterScaling: number;
+  pearsonR: number;
+  /** Lin's concordance correlation coefficient, 1/N moments. */
+  concordance: number;
+  /** bias ± 1.96 SD. */
+  blandAltman: { bias: number; lower: number; upper: number };
+  bootstrap?: BootstrapIntervals;
+  /** Fraction of the pairs with an uncertainty whose |e| ≤ combined σ; absent when no pair has one. */
+  withinOneSigma?: number;
+  withinTwoSigma?: number;
+}
+
+/** Options of errorStatistics. */
+export interface ErrorStatisticsOptions {
+  /** Bootstrap resamples; default 1000, 0 switches the bootstrap off. */
+  bootstrapSamples?: number;
+  /** Seed of the bootstrap generator; default 1. */
+  seed?: number;
+  /** Confidence level of the bootstrap intervals, 0 < c < 1; default 0.95. */
+  confidence?: number;
+}
+
+/** Default number of bootstrap resamples. */
+export const DEFAULT_BOOTSTRAP_SAMPLES = 1000;
+/** Default bootstrap seed. */
+export const DEFAULT_BOOTSTRAP_SEED = 1;
+/** Bland–Altman multiplier of the SD for the 95 % limits of agreement. */
+export const BLAND_ALTMAN_Z = 1.96;
+
+/** Checks pairs for finite values, a non-zero measured value and non-negative uncertainties. */
+export function validatePairs(pairs: readonly PairValue[], minLength: number): void {
+  if (!Array.isArray(pairs)) throw new ScienceInputError('pairs', 'must be an array');
+  if (pairs.length < minLength) {
+    throw new ScienceInputError('pairs', `needs at least ${minLength} pair${minLength === 1 ? '' : 's'}, got ${pairs.length}`);
+  }
+  for (let i = 0; i < pairs.length; i++) {
+    const p = pairs[i];
+    requireFinite(`pairs[${i}].measured`, p.measured);
+    requireFinite(`pairs[${i}].calculated`, p.calculated);
+    if (p.measured === 0) throw new ScienceInputError(`pairs[${i}].measured`, 'must not be 0 (relative errors divide by it)');
+    if (p.measuredUncertainty !== undefined) requireNonNegative(`pairs[${i}].measuredUncertainty`, p.measuredUncertainty);
+    if (p.calculatedUncertainty !== undefined) requireNonNegative(`pairs[${i}].calculatedUncertainty`, p.calculatedUncertainty);
+  }
+}
+
+/** Combined standard uncertainty √(u_m² + u_c²) of a pair, or undefined when neither side has one or it is 0. */
+export function combinedUncertainty(pair: PairValue): number | undefined {
+  if (pair.measuredUncertainty === undefined && pair.calculatedUncertainty === undefined) return undefined;
+  const sigma = Math.hypot(pair.measuredUncertainty ?? 0, pair.calculatedUncertainty ?? 0);
+  return sigma > 0 ? sigma : undefined;
+}
+
+function readOptions(options: ErrorStatisticsOptions): { samples: number; seed: number; confidence: number } {
+  const samples = options.bootstrapSamples ?? DEFAULT_BOOTSTRAP_SAMPLES;
+  const seed = options.seed ?? DEFAULT_BOOTSTRAP_SEED;
+  const confidence = options.confidence ?? 0.95;
+  if (!Number.isInteger(samples) || samples < 0) {
+    throw new ScienceInputError('options.bootstrapSamples', `must be a non-negative integer, got ${String(samples)}`);
+  }
+  if (!Number.isSafeInteger(seed)) throw new ScienceInputError('options.seed', `must be a safe integer, got ${String(seed)}`);
+  if (typeof confidence !== 'number' || !(confidence > 0 && confidence < 1)) {
+    throw new ScienceInputError('options.confidence', `must be between 0 and 1 (exclusive), got ${String(confidence)}`);
+  }
+  return { samples, seed, confidence };
+}
+
+/**
+ * Computes the error statistics of a method over its pairs (at least 2, since the
+ * SD, Pearson r and concordance need them). Deterministic: the bootstrap is seeded.
+ */
+export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOptions = {}): ErrorStatistics {
+  validatePairs(pairs, 2);
+  const { samples, seed, confidence } = readOptions(options);
+  const n = pairs.length;
+  const measured = new Float64Array(n);
+  const calculated = new Float64Array(n);
+  const errors = new Float64Array(n);
+  const absolute = new Float64Array(n);
+  const relative = new Float64Array(n);
+  let maxAbsoluteError = -1;
+  let maxAbsoluteErrorIndex = 0;
+  for (let i = 0; i < n; i++) {
+    const p = pairs[i];
+    measured[i] = p.measured;
+    calculated[i] = p.calculated;
+    const e = p.calculated - p.measured;
+    errors[i] = e;
+    absolute[i] = Math.abs(e);
+    relative[i] = Math.abs(e) / Math.abs(p.measured);
+    if (absolute[i] > maxAbsoluteError) {
+      maxAbsoluteError = absolute[i];
+      maxAbsoluteErrorIndex = i;
+    }
+  }
+
+  const meanSignedError = compensatedSum(errors) / n;
+  const meanAbsoluteError = compensatedSum(absolute) / n;
+  const squares = new Float64Array(n);
+  const deviations = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    squares[i] = errors[i] * errors[i];
+    const d = errors[i] - meanSignedError;
+    deviations[i] = d * d;
+  }
+  const rootMeanSquareError = Math.sqrt(compensatedSum(squares) / n);
+  const standardDeviation = Math.sqrt(compensatedSum(deviations) / (n - 1));
+
+  const sortedAbsolute = Float64Array.from(absolute).sort();
+  const moments = centredMoments(measured, calculated);
+
+  const products = new Float64Array(n);
+  const calculatedSquares = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    products[i] = calculated[i] * measured[i];
+    calculatedSquares[i] = calculated[i] * calculated[i];
+  }
+  const calculatedSquareSum = compensatedSum(calculatedSquares);
+  if (calculatedSquareSum === 0) throw new ScienceInputError('pairs', 'all calculated values are 0; the scale factor is undefined');
+  const lambda = compensatedSum(products) / calculatedSquareSum;
+  for (let i = 0; i < n; i++) {
+    const r = lambda * calculated[i] - measured[i];
+    squares[i] = r * r;
+  }
+  const rmseAfterScaling = Math.sqrt(compensatedSum(squares) / n);
+
+  const statistics: ErrorStatistics = {
+    n,
+    meanSignedError,
+    meanAbsoluteError,
+    rootMeanSquareError,
+    standardDeviation,
+    medianAbsoluteError: quantileOfSorted(sortedAbsolute, 0.5),
+    p95AbsoluteError: quantileOfSorted(sortedAbsolute, 0.95),
+    maxAbsoluteError,
+    maxAbsoluteErrorIndex,
+    meanAbsolutePercentageError: (100 * compensatedSum(relative)) / n,
+    scaleFactor: lambda,
+    rmseAfterScaling,
+    pearsonR: pearsonFromMoments(moments),
+    concordance: concordanceFromMoments(moments, n),
+    blandAltman: {
+      bias: meanSignedError,
+      lower: meanSignedError - BLAND_ALTMAN_Z * standardDeviation,
+      upper: meanSignedError + BLAND_ALTMAN_Z * standardDeviation,
+    },
+  };
+  // Resampling the sorted errors makes the intervals independent of the order of the pairs.
+  if (samples > 0) statistics.bootstrap = bootstrapErrorIntervals(Float64Array.from(errors).sort(), samples, seed, confidence);
+
+  let withUncertainty = 0;
+  let withinOne = 0;
+  let withinTwo = 0;
+  for (let i = 0; i < n; i++) {
+    const sigma = combinedUncertainty(pairs[i]);
+    if (sigma === undefined) continue;
+    withUncertainty++;
+    if (absolute[i] <= sigma) withinOne++;
+    if (absolute[i] <= 2 * sigma) withinTwo++;
+  }
+  if (withUncertainty > 0) {
+    statistics.withinOneSigma = withinOne / withUncertainty;
+    statistics.withinTwoSigma = withinTwo / withUncertainty;
+  }
+  return statistics;
+}

@@ -1,0 +1,2 @@
+// Integration tests run server modules outside Next.js; 'server-only' would throw there.
+export {};
