@@ -5,6 +5,8 @@ import { connect } from './connection';
 import * as schema from './schema';
 
 export type Db = ReturnType<typeof createDb>;
+/** The database or an open transaction: query functions accept either, so callers choose the transaction. */
+export type Executor = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export function createDb(client: Client) {
   return drizzle(client, { schema, casing: 'snake_case' });

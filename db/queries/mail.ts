@@ -1,10 +1,8 @@
 import 'server-only';
 import { and, asc, eq, inArray, lte, or, sql, desc } from 'drizzle-orm';
-import type { Db } from '@/db/client';
+import type { Executor } from '@/db/client';
 import { mailOutbox, type MailOutboxRow, type NewMail } from '@/db/schema/mail';
 
-// Accepts the db or an open transaction, so a mail is written with the change that causes it.
-export type Executor = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /** Writes one e-mail to the outbox; a repeated dedupeKey is ignored (the first one stands). */
 export async function enqueueMail(executor: Executor, mail: NewMail, workspaceId?: string | null): Promise<void> {
