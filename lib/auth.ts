@@ -8,7 +8,7 @@ import * as schema from '@/db/schema';
 import { env } from '@/lib/env';
 import { ac, roles } from '@/lib/permissions';
 import { enqueueMail } from '@/db/queries/mail';
-import { invitationMail, resetPasswordMail, verifyEmailMail } from '@/lib/mail/templates';
+import { existingAccountMail, invitationMail, resetPasswordMail, verifyEmailMail } from '@/lib/mail/templates';
 
 function createAuth() {
   const e = env();
@@ -25,6 +25,11 @@ function createAuth() {
       maxPasswordLength: 128,
       revokeSessionsOnPasswordReset: true,
       resetPasswordTokenExpiresIn: 60 * 60,
+      // A sign-up with a used address answers like a new one (no account enumeration);
+      // the owner of the address is told by e-mail instead.
+      onExistingUserSignUp: async ({ user }) => {
+        await enqueueMail(db, existingAccountMail({ to: user.email, name: user.name, signInUrl: `${e.BETTER_AUTH_URL}/sign-in`, resetUrl: `${e.BETTER_AUTH_URL}/forgot-password` }));
+      },
       sendResetPassword: async ({ user, url }) => {
         await enqueueMail(db, resetPasswordMail({ to: user.email, name: user.name, url }));
       },

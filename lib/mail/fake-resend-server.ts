@@ -97,7 +97,7 @@ export async function startFakeResend(port = 0, host = '127.0.0.1'): Promise<Fak
         return error(res, 422, 'validation_error', 'Body is not JSON.');
       }
       const to = typeof payload.to === 'string' ? [payload.to] : Array.isArray(payload.to) ? (payload.to as string[]) : [];
-      if (typeof payload.from !== 'string' || to.length === 0 || typeof payload.subject !== 'string') {
+      if (typeof payload.from !== 'string' || !payload.from || to.length === 0 || typeof payload.subject !== 'string' || !payload.subject) {
         return error(res, 422, 'validation_error', 'from, to and subject are required.');
       }
 

@@ -17,7 +17,7 @@ function text(paragraphs: string[], action?: { label: string; url: string }): st
   return [...paragraphs, ...(action ? [`${action.label}: ${action.url}`] : []), '', '— Lattice Ledger'].join('\n\n');
 }
 
-export function verifyEmailMail({ to, name, url }: { to: string; name: string; url: string }): NewMail & { toAddress: string } {
+export function verifyEmailMail({ to, name, url }: { to: string; name: string; url: string }): NewMail {
   const paragraphs = [`Hello ${name},`, 'Confirm your e-mail address to finish creating your Lattice Ledger account. The link is valid for 24 hours.'];
   const action = { label: 'Confirm e-mail address', url };
   return {
@@ -57,5 +57,20 @@ export function invitationMail(input: { to: string; workspaceName: string; invit
     subject: `Invitation to ${input.workspaceName}`,
     textBody: text(paragraphs, action),
     htmlBody: layout(`Join ${input.workspaceName}`, paragraphs, action),
+  };
+}
+
+export function existingAccountMail(input: { to: string; name: string; signInUrl: string; resetUrl: string }): NewMail {
+  const paragraphs = [
+    `Hello ${input.name},`,
+    'Someone tried to create a Lattice Ledger account with this e-mail address, which already has one. Nothing was changed.',
+    `If it was you, sign in (${input.signInUrl}) or reset your password (${input.resetUrl}).`,
+  ];
+  return {
+    kind: 'existing-account',
+    toAddress: input.to,
+    subject: 'You already have an account',
+    textBody: text(paragraphs),
+    htmlBody: layout('You already have an account', paragraphs, { label: 'Sign in', url: input.signInUrl }),
   };
 }

@@ -49,7 +49,8 @@ export function SignUpForm({ next, email }: { next?: string; email?: string }) {
       <div className="space-y-3">
         <h1>Check your e-mail</h1>
         <p className="text-sm text-ink-muted">
-          We sent a confirmation link to <strong className="text-ink">{sentTo}</strong>. Follow it to finish creating your account.
+          We sent a message to <strong className="text-ink">{sentTo}</strong>: a confirmation link to finish creating your account or, if
+          this address already has an account, a note on how to sign in or reset the password.
         </p>
       </div>
     );

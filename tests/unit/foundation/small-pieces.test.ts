@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import { safeNext } from '@/app/(auth)/safe-next';
+import { escapeHtml, invitationMail } from '@/lib/mail/templates';
+import { WriteLock } from '@/db/connection';
+
+describe('safeNext', () => {
+  it.each([
+    ['/w/lab', '/w/lab'],
+    ['//evil.example', '/w'],
+    ['/\\evil.example', '/w'],
+    ['https://evil.example', '/w'],
+    [undefined, '/w'],
+    ['', '/w'],
+  ])('%s → %s', (input, expected) => {
+    expect(safeNext(input)).toBe(expected);
+  });
+});
+
+describe('mail templates', () => {
+  it('escapes every interpolated value in HTML', () => {
+    expect(escapeHtml(`<img src=x onerror="a">&'`)).toBe('&lt;img src=x onerror=&quot;a&quot;&gt;&amp;&#39;');
+    const mail = invitationMail({ to: 'a@example.org', workspaceName: '<script>x</script>', inviterName: 'Eve', role: 'reviewer', url: 'http://localhost/invitations/1' });
+    expect(mail.htmlBody).not.toContain('<script>');
+    expect(mail.htmlBody).toContain('&lt;script&gt;');
+    expect(mail.textBody).toContain('http://localhost/invitations/1');
+  });
+});
+
+describe('WriteLock', () => {
+  it('runs holders one at a time, in arrival order', async () => {
+    const lock = new WriteLock();
+    const log: string[] = [];
+    const task = async (name: string, ms: number) => {
+      const release = await lock.acquire();
+      log.push(`start ${name}`);
+      await new Promise((r) => setTimeout(r, ms));
+      log.push(`end ${name}`);
+      release();
+    };
+    await Promise.all([task('a', 15), task('b', 1), task('c', 5)]);
+    expect(log).toEqual(['start a', 'end a', 'start b', 'end b', 'start c', 'end c']);
+  });
+
+  it('ignores a second release', async () => {
+    const lock = new WriteLock();
+    const release = await lock.acquire();
+    release();
+    release();
+    const again = await lock.acquire();
+    again();
+    expect(lock.queued).toBe(0);
+  });
+});
