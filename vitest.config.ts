@@ -29,6 +29,18 @@ export default defineConfig({
           hookTimeout: 60000,
         },
       },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.e2e.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/e2e/support/global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+        },
+      },
     ],
   },
 });

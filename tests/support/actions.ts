@@ -1,4 +1,4 @@
-type Action = (prev: unknown, formData: FormData) => Promise<unknown>;
+type Action = (prev: never, formData: FormData) => Promise<unknown>;
 
 export type ActionOutcome = { state?: { ok: boolean; code?: string; message?: string; fieldErrors?: Record<string, string[]> }; redirect?: string; notFound?: boolean };
 
@@ -7,7 +7,7 @@ export async function callAction(action: Action, fields: Record<string, string>)
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
   try {
-    return { state: (await action(undefined, form)) as ActionOutcome['state'] };
+    return { state: (await action(undefined as never, form)) as ActionOutcome['state'] };
   } catch (e) {
     const digest = (e as { digest?: string }).digest ?? '';
     if (digest.startsWith('NEXT_REDIRECT')) return { redirect: digest.split(';')[2] };

@@ -8,7 +8,7 @@ import { FormMessage } from '@/components/ui/form-message';
 export function InviteForm({ workspaceId, roles }: { workspaceId: string; roles: string[] }) {
   const [state, action] = useActionState(inviteMember, { ok: false });
   return (
-    <form action={action} className="space-y-3">
+    <form action={action} className="space-y-3" aria-label="Invite a member">
       <input type="hidden" name="workspaceId" value={workspaceId} />
       <TextField label="E-mail" name="email" type="email" errors={state.fieldErrors?.email} required />
       <SelectField label="Role" name="role" defaultValue="contributor" errors={state.fieldErrors?.role}>
