@@ -99,6 +99,8 @@ describe('sign-up, workspace, invitation, roles', () => {
 
     const other = await page.goto(`${base}/w/halden-phonons`);
     expect(other?.status()).toBe(404);
+    await page.getByText('Not found').waitFor();
+    await page.goto(`${base}/w/${slug}`);
     await signOut();
   });
 
