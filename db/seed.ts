@@ -11,6 +11,7 @@ import { db, closeDb } from '@/db/client';
 import { member, organization, user } from '@/db/schema';
 import { ensureWorkspaceSettings } from '@/db/queries/workspaces';
 import { WORKSPACE_ROLES } from '@/lib/permissions';
+import { loadDemoScenario } from '@/db/demo-data';
 
 const groupSchema = z.object({
   password: z.string().min(10),
@@ -54,6 +55,8 @@ export async function seedDemo(): Promise<{ workspaceId: string; group: DemoGrou
       .limit(1);
     if (!existing[0]) await getAuth().api.addMember({ body: { userId: ids[i], role: m.role, organizationId: workspace.id } });
   }
+  const curator = group.members.findIndex((m) => m.role === 'curator');
+  await db.transaction((tx) => loadDemoScenario(tx, workspace.id, ids[curator >= 0 ? curator : owner]));
   return { workspaceId: workspace.id, group };
 }
 

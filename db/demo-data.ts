@@ -1,0 +1,309 @@
+/**
+ * Loads the invented demo scenario of data/demo/ into a workspace: sources,
+ * materials, methods, measurements (published values where a real source is
+ * named, invented ones otherwise) and synthetic calculations generated per
+ * method from its bias and noise (seeded, so every seed run gives the same numbers).
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import Papa from 'papaparse';
+import { and, eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { crystalSystem, createRandom, normalizeIrrep, parseFormula } from '@/lib/science';
+import type { Executor } from '@/db/client';
+import { calculation, material, materialTag, measurement, method, source } from '@/db/schema';
+import { writeAudit } from '@/db/queries/audit';
+
+const dataDir = new URL('../data/demo/', import.meta.url);
+
+function readCsv<T extends z.ZodType>(file: string, schema: T): Array<z.infer<T>> {
+  const text = readFileSync(fileURLToPath(new URL(file, dataDir)), 'utf8');
+  const parsed = Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true });
+  if (parsed.errors.length) throw new Error(`${file}: ${parsed.errors[0].message} (row ${parsed.errors[0].row})`);
+  return parsed.data.map((row, i) => {
+    const r = schema.safeParse(row);
+    if (!r.success) throw new Error(`${file} row ${i + 2}: ${r.error.issues.map((x) => `${x.path.join('.')}: ${x.message}`).join('; ')}`);
+    return r.data;
+  });
+}
+
+const optionalNumber = z.string().transform((v, ctx) => {
+  if (v.trim() === '') return null;
+  const n = Number(v);
+  if (!Number.isFinite(n)) ctx.addIssue({ code: 'custom', message: `not a number: ${v}` });
+  return n;
+});
+
+const sourceRow = z.object({
+  cite_key: z.string().min(1),
+  kind: z.enum(['journal-article', 'data-set', 'thesis', 'in-house-notebook', 'computed-data-set']),
+  doi: z.string(),
+  title: z.string(),
+  authors: z.string(),
+  year: optionalNumber,
+  venue: z.string(),
+  invented: z.enum(['yes', 'no']),
+});
+const materialRow = z.object({
+  name: z.string().min(1),
+  display_name: z.string(),
+  formula: z.string().min(1),
+  space_group: optionalNumber,
+  atoms_in_cell: optionalNumber,
+  tags: z.string(),
+});
+const modeRow = z.object({
+  material: z.string(),
+  irrep: z.string(),
+  branch: z.enum(['', 'TO', 'LO']),
+  activity: z.enum(['raman', 'ir', 'raman+ir', 'silent']),
+  degeneracy: optionalNumber,
+  measured_cm1: z.string(),
+  uncertainty_cm1: z.string(),
+  temperature_K: optionalNumber,
+  technique: z.enum(['', 'raman', 'ir-reflectance', 'ir-absorption', 'ins', 'hyper-raman']),
+  source: z.string(),
+  reference_cm1: optionalNumber,
+});
+const entropyRow = z.object({
+  material: z.string(),
+  entropy_J_per_mol_K: z.string().min(1),
+  uncertainty: z.string(),
+  temperature_K: optionalNumber,
+  source: z.string(),
+});
+const methodsFile = z.object({
+  seed: z.number().int(),
+  methods: z.array(
+    z.object({
+      label: z.string(),
+      functional: z.string(),
+      pseudopotential: z.string(),
+      cutoffEv: z.number(),
+      kGrid: z.tuple([z.number(), z.number(), z.number()]),
+      qGrid: z.tuple([z.number(), z.number(), z.number()]),
+      smearing: z.string(),
+      approach: z.enum(['perturbation', 'finite-displacement']),
+      nonAnalyticCorrection: z.boolean(),
+      frequencyBias: z.number(),
+      frequencyNoise: z.number(),
+      entropyBias: z.number(),
+      entropyNoise: z.number(),
+      overrides: z
+        .array(z.object({ material: z.string(), irrep: z.string(), branch: z.string().optional(), nth: z.number().int(), valueCm1: z.number().optional(), scale: z.number().optional() }))
+        .default([]),
+      acousticOverrides: z.array(z.object({ material: z.string(), valueCm1: z.number() })).default([]),
+    }),
+  ),
+});
+
+/** The identity of a value row, to detect rows identical to existing ones. */
+export function demoRowHash(fields: Array<string | number | null | undefined>): string {
+  return createHash('sha256').update(JSON.stringify(fields)).digest('hex');
+}
+
+function gaussian(random: () => number): number {
+  const u = Math.max(random(), 1e-12);
+  return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * random());
+}
+
+const round = (value: number, digits: number) => Number(value.toFixed(digits));
+
+export async function loadDemoScenario(tx: Executor, workspaceId: string, userId: string): Promise<{ created: boolean }> {
+  const existing = await tx.select({ id: material.id }).from(material).where(and(eq(material.workspaceId, workspaceId), eq(material.name, 'Si'))).limit(1);
+  if (existing[0]) return { created: false };
+
+  const actor = { userId };
+  const sources = readCsv('sources.csv', sourceRow);
+  const materials = readCsv('materials.csv', materialRow);
+  const modes = readCsv('modes.csv', modeRow);
+  const entropies = readCsv('entropies.csv', entropyRow);
+  const methodsSpec = methodsFile.parse(JSON.parse(readFileSync(fileURLToPath(new URL('methods.json', dataDir)), 'utf8')));
+
+  const sourceIds = new Map<string, string>();
+  for (const s of sources) {
+    const [row] = await tx
+      .insert(source)
+      .values({
+        workspaceId,
+        citeKey: s.cite_key,
+        kind: s.kind,
+        doi: s.doi || null,
+        title: s.title || null,
+        authors: s.authors || null,
+        year: s.year,
+        venue: s.venue || null,
+        notebookRef: s.kind === 'in-house-notebook' ? s.venue : null,
+        createdBy: userId,
+      })
+      .returning({ id: source.id });
+    sourceIds.set(s.cite_key, row.id);
+    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: s, reason: 'demo seed' });
+  }
+
+  const materialIds = new Map<string, { id: string; atomsPerFormulaUnit: number }>();
+  for (const m of materials) {
+    const parsed = parseFormula(m.formula);
+    const [row] = await tx
+      .insert(material)
+      .values({
+        workspaceId,
+        name: m.name,
+        displayName: m.display_name || null,
+        formula: m.formula,
+        reducedFormula: parsed.reduced,
+        atomsPerFormulaUnit: parsed.atomsPerFormulaUnit,
+        elementCounts: parsed.counts,
+        spaceGroup: m.space_group,
+        crystalSystem: m.space_group ? crystalSystem(m.space_group) : null,
+        atomsInCell: m.atoms_in_cell,
+        createdBy: userId,
+      })
+      .returning({ id: material.id });
+    materialIds.set(m.name, { id: row.id, atomsPerFormulaUnit: parsed.atomsPerFormulaUnit });
+    const tags = m.tags.split(';').map((t) => t.trim()).filter(Boolean);
+    if (tags.length) await tx.insert(materialTag).values(tags.map((tag) => ({ materialId: row.id, workspaceId, tag })));
+    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after: m, reason: 'demo seed' });
+  }
+
+  const need = <K, V>(map: Map<K, V>, key: K, what: string): V => {
+    const v = map.get(key);
+    if (v === undefined) throw new Error(`demo data: unknown ${what} ${String(key)}`);
+    return v;
+  };
+
+  // Measurements: every mode row with a measured value, and the entropies.
+  for (const m of modes) {
+    if (!m.measured_cm1) continue;
+    const mat = need(materialIds, m.material, 'material');
+    const value = Number(m.measured_cm1);
+    await tx.insert(measurement).values({
+      workspaceId,
+      materialId: mat.id,
+      sourceId: need(sourceIds, m.source, 'source'),
+      quantity: 'frequency',
+      value,
+      valueText: m.measured_cm1,
+      unit: 'cm-1',
+      uncertainty: m.uncertainty_cm1 ? Number(m.uncertainty_cm1) : null,
+      uncertaintyText: m.uncertainty_cm1 || null,
+      temperatureK: m.temperature_K,
+      irrep: m.branch ? `${m.irrep}(${m.branch})` : m.irrep,
+      irrepNormalized: normalizeIrrep(m.branch ? `${m.irrep}(${m.branch})` : m.irrep),
+      branch: m.branch || null,
+      activity: m.activity,
+      technique: m.technique || null,
+      sampleForm: 'single-crystal',
+      rowHash: demoRowHash(['measurement', m.material, 'frequency', m.measured_cm1, 'cm-1', m.irrep, m.branch, m.temperature_K, m.source]),
+      contributorId: userId,
+    });
+  }
+  for (const e of entropies) {
+    const mat = need(materialIds, e.material, 'material');
+    await tx.insert(measurement).values({
+      workspaceId,
+      materialId: mat.id,
+      sourceId: need(sourceIds, e.source, 'source'),
+      quantity: 'entropy',
+      value: Number(e.entropy_J_per_mol_K),
+      valueText: e.entropy_J_per_mol_K,
+      unit: 'J/mol/K',
+      uncertainty: e.uncertainty ? Number(e.uncertainty) : null,
+      uncertaintyText: e.uncertainty || null,
+      temperatureK: e.temperature_K,
+      technique: 'calorimetry',
+      sampleForm: 'powder',
+      rowHash: demoRowHash(['measurement', e.material, 'entropy', e.entropy_J_per_mol_K, 'J/mol/K', e.temperature_K, e.source]),
+      contributorId: userId,
+    });
+  }
+
+  // Methods and their synthetic calculations.
+  const random = createRandom(methodsSpec.seed);
+  const synthetic = need(sourceIds, 'demo-synthetic-2026', 'source');
+  for (const spec of methodsSpec.methods) {
+    const [row] = await tx
+      .insert(method)
+      .values({
+        workspaceId,
+        label: spec.label,
+        functional: spec.functional,
+        pseudopotential: spec.pseudopotential,
+        cutoffEv: spec.cutoffEv,
+        kGrid: spec.kGrid,
+        qGrid: spec.qGrid,
+        smearing: spec.smearing,
+        approach: spec.approach,
+        nonAnalyticCorrection: spec.nonAnalyticCorrection,
+        notes: 'Invented demo recipe; its calculations are synthetic (generated by the demo seed).',
+        createdBy: userId,
+      })
+      .returning({ id: method.id });
+    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'method', entityId: row.id, after: spec, reason: 'demo seed' });
+
+    const values: Array<typeof calculation.$inferInsert> = [];
+    for (const m of materials) {
+      const mat = need(materialIds, m.name, 'material');
+      const acoustic = spec.acousticOverrides.find((o) => o.material === m.name)?.valueCm1;
+      let modeIndex = 0;
+      const push = (valueCm1: number, irrep: string | null, branch: '' | 'TO' | 'LO', activity: typeof calculation.$inferInsert.activity, degeneracy: number) => {
+        modeIndex++;
+        const text = valueCm1.toFixed(2);
+        values.push({
+          workspaceId,
+          materialId: mat.id,
+          methodId: row.id,
+          sourceId: synthetic,
+          quantity: 'frequency',
+          value: Number(text),
+          valueText: text,
+          unit: 'cm-1',
+          modeIndex,
+          irrep,
+          irrepNormalized: irrep ? normalizeIrrep(irrep) : null,
+          branch: branch || null,
+          degeneracy,
+          activity,
+          rowHash: demoRowHash(['calculation', m.name, spec.label, 'frequency', text, modeIndex]),
+          contributorId: userId,
+        });
+      };
+      for (let i = 0; i < 3; i++) push(i === 0 && acoustic !== undefined ? acoustic : round(gaussian(random) * 0.3, 2), null, '', 'acoustic', 1);
+      const seen = new Map<string, number>();
+      for (const mode of modes.filter((x) => x.material === m.name)) {
+        if (!mode.degeneracy) continue; // measured-only line (e.g. an LO peak of a calculation without that splitting)
+        const key = `${mode.irrep}|${mode.branch}`;
+        const nth = (seen.get(key) ?? 0) + 1;
+        seen.set(key, nth);
+        const reference = mode.measured_cm1 ? Number(mode.measured_cm1) : mode.reference_cm1!;
+        const override = spec.overrides.find((o) => o.material === m.name && o.irrep === mode.irrep && (o.branch ?? '') === mode.branch && o.nth === nth);
+        let value = reference * (1 + spec.frequencyBias + spec.frequencyNoise * gaussian(random));
+        if (override?.valueCm1 !== undefined) value = override.valueCm1;
+        else if (override?.scale !== undefined) value = reference * override.scale;
+        const label = mode.branch ? `${mode.irrep}(${mode.branch})` : mode.irrep;
+        push(value, label, mode.branch, mode.activity, mode.degeneracy);
+      }
+    }
+    for (const e of entropies) {
+      const mat = need(materialIds, e.material, 'material');
+      const s = Number(e.entropy_J_per_mol_K) * (1 + spec.entropyBias + spec.entropyNoise * gaussian(random));
+      const text = s.toFixed(2);
+      values.push({
+        workspaceId,
+        materialId: mat.id,
+        methodId: row.id,
+        sourceId: synthetic,
+        quantity: 'entropy',
+        value: Number(text),
+        valueText: text,
+        unit: 'J/mol/K',
+        temperatureK: e.temperature_K,
+        rowHash: demoRowHash(['calculation', e.material, spec.label, 'entropy', text, e.temperature_K]),
+        contributorId: userId,
+      });
+    }
+    for (let i = 0; i < values.length; i += 200) await tx.insert(calculation).values(values.slice(i, i + 200));
+  }
+  return { created: true };
+}
