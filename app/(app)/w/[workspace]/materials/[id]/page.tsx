@@ -1,0 +1,82 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { requirePageMember } from '@/lib/session';
+import { roleCan } from '@/lib/permissions';
+import { getMaterial } from '@/db/queries/materials';
+import { getMaterialValues } from '@/db/queries/material-values';
+import { buttonClass } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { Panel } from '@/components/ui/panel';
+import { RetractionForm } from '../../history/_components/retraction-form';
+import { restoreMaterialAction, retractMaterialAction } from '../actions';
+import { MaterialValuesSection } from '../_components/material-values';
+
+export const metadata: Metadata = { title: 'Material' };
+
+const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+
+export default async function MaterialPage({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ method?: string }> }) {
+  const { workspace, id } = await params;
+  const ctx = await requirePageMember(workspace, 'materials:read');
+  const m = await getMaterial(ctx.workspace.id, id);
+  if (!m) notFound();
+  const values = await getMaterialValues(ctx.workspace.id, m.id);
+  const slug = ctx.workspace.slug;
+  const fields: Array<[string, React.ReactNode]> = [
+    ['Formula', m.formula],
+    ['Reduced formula', m.reducedFormula],
+    ['Atoms per formula unit', <span key="a" className="num">{m.atomsPerFormulaUnit}</span>],
+    ['Space group', m.spaceGroup ?? '–'],
+    ['Crystal system', m.crystalSystem ?? (m.spaceGroup ? '–' : 'unknown (no space group)')],
+    ['Atoms in the primitive cell', m.atomsInCell != null ? <span key="c" className="num">{m.atomsInCell} ({3 * m.atomsInCell} modes at Γ)</span> : '–'],
+    ['External id', m.externalId ?? '–'],
+    ['Material classes', m.tags.length ? m.tags.join(', ') : '–'],
+  ];
+  return (
+    <div className="space-y-5">
+      <p className="text-sm">
+        <Link href={`/w/${slug}/materials`}>← Materials</Link>
+      </p>
+      <header className="flex flex-wrap items-start justify-between gap-3">
+        <div>
+          <h1>
+            {m.name} {m.displayName && <span className="font-normal text-ink-muted">· {m.displayName}</span>}
+          </h1>
+          <p className="text-xs text-ink-faint">Added {dateFormat.format(m.createdAt)}{m.updatedAt ? ` · edited ${dateFormat.format(m.updatedAt)}` : ''}</p>
+        </div>
+        <div className="flex gap-2">
+          {!m.retractedAt && roleCan(ctx.role, 'materials:update') && (
+            <Link href={`/w/${slug}/materials/${m.id}/edit`} className={buttonClass('secondary', 'no-underline')}>
+              Edit
+            </Link>
+          )}
+          <Link href={`/w/${slug}/history/material/${m.id}`} className={buttonClass('ghost', 'no-underline')}>
+            History
+          </Link>
+        </div>
+      </header>
+      {m.retractedAt && (
+        <Notice tone="warn">
+          Retracted {dateFormat.format(m.retractedAt)}: {m.retractionReason}
+        </Notice>
+      )}
+      <Panel title="Material">
+        <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2 lg:grid-cols-4">
+          {fields.map(([label, value]) => (
+            <div key={label}>
+              <dt className="text-xs text-ink-muted">{label}</dt>
+              <dd>{value}</dd>
+            </div>
+          ))}
+        </dl>
+      </Panel>
+      <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} selectedMethodId={(await searchParams).method} />
+      {roleCan(ctx.role, 'materials:retract') && (
+        <Panel title={m.retractedAt ? 'Restore' : 'Retract'} className="max-w-xl">
+          <RetractionForm workspaceId={ctx.workspace.id} id={m.id} mode={m.retractedAt ? 'restore' : 'retract'} action={m.retractedAt ? restoreMaterialAction : retractMaterialAction} noun="material" />
+        </Panel>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,94 @@
+'use client';
+import { startTransition, useActionState, useEffect, useMemo, useState } from 'react';
+import { useRouter } from 'next/navigation';
+import { crystalSystem, parseFormula } from '@/lib/science';
+import type { ActionState } from '@/lib/action';
+import { TextField } from '@/components/ui/field';
+import { Button } from '@/components/ui/button';
+import { FormMessage } from '@/components/ui/form-message';
+import { createMaterialAction, updateMaterialAction } from '../actions';
+
+export interface MaterialFormValues {
+  id?: string;
+  name: string;
+  displayName: string;
+  formula: string;
+  spaceGroup: string;
+  atomsInCell: string;
+  externalId: string;
+  tags: string;
+}
+
+/** What the formula and space group give, shown while typing (the server re-derives it on save). */
+function preview(formula: string, spaceGroup: string): { text: string; bad: boolean } | null {
+  const parts: string[] = [];
+  if (formula.trim()) {
+    try {
+      const p = parseFormula(formula);
+      parts.push(`reduced formula ${p.reduced}`, `${p.atomsPerFormulaUnit} atoms per formula unit`);
+    } catch (e) {
+      return { text: (e as Error).message.replace(/^formula: /, 'Formula '), bad: true };
+    }
+  }
+  const sg = Number(spaceGroup);
+  if (spaceGroup.trim() && Number.isInteger(sg) && sg >= 1 && sg <= 230) parts.push(`${crystalSystem(sg)} crystal system`);
+  return parts.length ? { text: parts.join(' · '), bad: false } : null;
+}
+
+export function MaterialForm({ workspaceId, slug, initial }: { workspaceId: string; slug: string; initial: MaterialFormValues }) {
+  const router = useRouter();
+  const editing = Boolean(initial.id);
+  const [state, action, pending] = useActionState<ActionState, FormData>(editing ? updateMaterialAction : createMaterialAction, { ok: false });
+  const [formula, setFormula] = useState(initial.formula);
+  const [spaceGroup, setSpaceGroup] = useState(initial.spaceGroup);
+  const derived = useMemo(() => preview(formula, spaceGroup), [formula, spaceGroup]);
+  const errors = state.fieldErrors ?? {};
+
+  useEffect(() => {
+    if (state.ok) router.push(`/w/${slug}/materials/${(state.data as { id: string }).id}`);
+  }, [state, router, slug]);
+
+  return (
+    <form
+      className="grid max-w-2xl gap-4 sm:grid-cols-2"
+      noValidate
+      onSubmit={(e) => {
+        // Submitting through startTransition keeps what was typed when the server refuses it.
+        e.preventDefault();
+        const data = new FormData(e.currentTarget);
+        startTransition(() => action(data));
+      }}
+    >
+      <input type="hidden" name="workspaceId" value={workspaceId} />
+      {initial.id && <input type="hidden" name="id" value={initial.id} />}
+      <TextField label="Name (unique handle)" name="name" defaultValue={initial.name} errors={errors.name} hint='Used by imports and the API, e.g. "GaN-wz".' required />
+      <TextField label="Display name" name="displayName" defaultValue={initial.displayName} errors={errors.displayName} hint="Optional, e.g. GaN (wurtzite)." />
+      <div className="sm:col-span-2">
+        <TextField
+          label="Formula"
+          name="formula"
+          value={formula}
+          onChange={(e) => setFormula(e.target.value)}
+          errors={errors.formula}
+          hint="Element symbols with counts; parentheses, hydrates (·) and fractional occupancies are understood."
+          required
+        />
+        {derived && (
+          <p className={`mt-1 text-xs ${derived.bad ? 'text-warn' : 'text-ink-muted'}`} aria-live="polite">
+            {derived.text}
+          </p>
+        )}
+      </div>
+      <TextField label="Space group (1–230)" name="spaceGroup" inputMode="numeric" value={spaceGroup} onChange={(e) => setSpaceGroup(e.target.value)} errors={errors.spaceGroup} />
+      <TextField label="Atoms in the primitive cell" name="atomsInCell" inputMode="numeric" defaultValue={initial.atomsInCell} errors={errors.atomsInCell} hint="3N modes at Γ." />
+      <TextField label="External structure id" name="externalId" defaultValue={initial.externalId} errors={errors.externalId} hint="Free text, e.g. a database id." />
+      <TextField label="Material classes (tags)" name="tags" defaultValue={initial.tags} errors={errors.tags} hint="Comma-separated, e.g. semiconductor, nitride." />
+      <div className="flex items-center gap-3 sm:col-span-2">
+        <Button type="submit" disabled={pending} aria-disabled={pending}>
+          {pending ? 'Saving…' : editing ? 'Save material' : 'Create material'}
+        </Button>
+        {!state.ok && <FormMessage state={state} />}
+      </div>
+    </form>
+  );
+}

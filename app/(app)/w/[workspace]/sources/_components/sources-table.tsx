@@ -1,0 +1,77 @@
+'use client';
+import { useMemo } from 'react';
+import Link from 'next/link';
+import { DataTable, type DataTableState } from '@/components/data-table/data-table';
+import { DataTableToolbar } from '@/components/data-table/data-table-toolbar';
+import { createDataColumnHelper } from '@/components/data-table/features';
+
+export interface SourceRow {
+  id: string;
+  citeKey: string;
+  kind: string;
+  kindLabel: string;
+  doi: string | null;
+  doiHref: string | null;
+  title: string | null;
+  authors: string | null;
+  year: number | null;
+  venue: string | null;
+  notebookRef: string | null;
+  valueCount: number;
+  retracted: boolean;
+}
+
+const helper = createDataColumnHelper<SourceRow>();
+
+function columnsFor(slug: string) {
+  return helper.columns([
+    helper.accessor('citeKey', {
+      header: 'Cite key',
+      cell: (c) => (
+        <Link href={`/w/${slug}/sources/${c.row.original.id}`} className="font-medium">
+          {c.getValue()}
+        </Link>
+      ),
+    }),
+    helper.accessor('kind', { header: 'Kind', cell: (c) => c.row.original.kindLabel }),
+    helper.accessor('year', { header: 'Year', meta: { numeric: true }, cell: (c) => c.getValue() ?? '–' }),
+    helper.accessor('title', {
+      header: 'Title',
+      meta: { className: 'max-w-md truncate' },
+      cell: (c) => <span title={c.getValue() ?? undefined}>{c.getValue() ?? c.row.original.notebookRef ?? ''}</span>,
+    }),
+    helper.accessor('authors', { header: 'Authors', meta: { className: 'max-w-xs truncate' }, cell: (c) => <span title={c.getValue() ?? undefined}>{c.getValue() ?? ''}</span> }),
+    helper.accessor('venue', { header: 'Venue', cell: (c) => c.getValue() ?? '' }),
+    helper.accessor('doi', {
+      header: 'DOI',
+      enableSorting: false,
+      cell: (c) =>
+        c.row.original.doiHref ? (
+          <a href={c.row.original.doiHref} target="_blank" rel="noreferrer noopener">
+            {c.getValue()}
+          </a>
+        ) : (
+          ''
+        ),
+    }),
+    helper.accessor('valueCount', { header: 'Values', enableSorting: false, meta: { numeric: true } }),
+  ]);
+}
+
+export function SourcesTable({ slug, rows, rowCount, state }: { slug: string; rows: SourceRow[]; rowCount: number; state: DataTableState }) {
+  const columns = useMemo(() => columnsFor(slug), [slug]);
+  return (
+    <div className="space-y-3">
+      <DataTableToolbar placeholder="Filter by cite key, title, author, DOI or notebook…" />
+      <DataTable
+        caption="Sources"
+        columns={columns}
+        data={rows}
+        rowCount={rowCount}
+        state={state}
+        rowClassName={(r) => (r.retracted ? 'text-ink-faint line-through decoration-ink-faint/40' : '')}
+        emptyMessage="No sources match. Add one, or import a .bib file."
+      />
+    </div>
+  );
+}

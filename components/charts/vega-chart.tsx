@@ -1,0 +1,49 @@
+'use client';
+import { useRef, useState } from 'react';
+import { useVegaEmbed } from 'react-vega';
+import type { EmbedOptions, VisualizationSpec } from 'vega-embed';
+
+export interface VegaChartProps {
+  spec: VisualizationSpec;
+  /** SVG by default; use canvas above ~10k marks. */
+  renderer?: 'svg' | 'canvas';
+  /** When set, SVG and PNG download buttons save "<downloadName>.svg|png". */
+  downloadName?: string;
+  /** Describes the chart for screen readers. */
+  ariaLabel: string;
+  className?: string;
+}
+
+/** The one client wrapper around react-vega: embeds a Vega-Lite spec and offers figure downloads. */
+export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, className = '' }: VegaChartProps) {
+  const ref = useRef<HTMLDivElement>(null);
+  const [options] = useState<EmbedOptions>(() => ({ renderer, actions: false, tooltip: { theme: 'light' } }));
+  const [failed, setFailed] = useState<string | null>(null);
+  const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
+
+  async function download(type: 'svg' | 'png') {
+    if (!result || !downloadName) return;
+    const url = await result.view.toImageURL(type, type === 'png' ? 2 : 1);
+    const a = document.createElement('a');
+    a.href = url;
+    a.download = `${downloadName}.${type}`;
+    a.click();
+  }
+
+  return (
+    <figure className={`space-y-1 ${className}`}>
+      <div ref={ref} role="img" aria-label={ariaLabel} className="w-full" />
+      {failed && <p className="text-xs text-bad">The chart could not be drawn: {failed}</p>}
+      {downloadName && (
+        <figcaption className="flex justify-end gap-2 text-xs">
+          <button type="button" className="text-accent hover:underline disabled:opacity-50" disabled={!result} onClick={() => download('svg')}>
+            Download SVG
+          </button>
+          <button type="button" className="text-accent hover:underline disabled:opacity-50" disabled={!result} onClick={() => download('png')}>
+            Download PNG
+          </button>
+        </figcaption>
+      )}
+    </figure>
+  );
+}

@@ -1,0 +1,14 @@
+import { isAppError } from '@/lib/errors';
+import type { ActionState } from '@/lib/action';
+
+/**
+ * Query functions report a taken name as AppError('conflict', …, { field }) so the
+ * form can show it beside the field; other refusals pass through unchanged.
+ */
+export function conflictAsFieldError(e: unknown): ActionState {
+  if (isAppError(e) && e.code === 'conflict') {
+    const field = (e.details as { field?: string } | undefined)?.field;
+    return { ok: false, code: 'conflict', message: e.message, fieldErrors: field ? { [field]: [e.message] } : undefined };
+  }
+  throw e;
+}

@@ -1,0 +1,39 @@
+import { z } from 'zod';
+
+/** Form fields arrive as strings; an empty one means "not given". JSON callers may send null. */
+function blankToUndefined(value: unknown): unknown {
+  if (value === null) return undefined;
+  if (typeof value === 'string' && value.trim() === '') return undefined;
+  return typeof value === 'string' ? value.trim() : value;
+}
+
+export const optionalText = (max = 500) => z.preprocess(blankToUndefined, z.string().max(max, `At most ${max} characters.`).optional());
+
+export const requiredText = (label: string, max = 200) =>
+  z.preprocess((v) => (typeof v === 'string' ? v.trim() : v), z.string(`${label} is required.`).min(1, `${label} is required.`).max(max, `At most ${max} characters.`));
+
+export const optionalInteger = (label: string, min: number, max: number) =>
+  z.preprocess(
+    blankToUndefined,
+    z.coerce
+      .number(`${label} must be a whole number.`)
+      .int(`${label} must be a whole number.`)
+      .min(min, `${label} must be between ${min} and ${max}.`)
+      .max(max, `${label} must be between ${min} and ${max}.`)
+      .optional(),
+  );
+
+export const optionalPositiveNumber = (label: string) =>
+  z.preprocess(blankToUndefined, z.coerce.number(`${label} must be a number.`).positive(`${label} must be greater than 0.`).optional());
+
+/** Checkbox / select yes-no: "on", "yes", "true", true → true; "no", "false", false → false; blank → undefined. */
+export const optionalBoolean = z.preprocess((v) => {
+  const b = blankToUndefined(v);
+  if (b === undefined || typeof b === 'boolean') return b;
+  if (['on', 'yes', 'true', '1'].includes(String(b).toLowerCase())) return true;
+  if (['no', 'false', '0', 'off'].includes(String(b).toLowerCase())) return false;
+  return b;
+}, z.boolean('Choose yes or no.').optional());
+
+export const workspaceIdField = z.string().min(1);
+export const reasonField = requiredText('A reason', 500);

@@ -1,0 +1,96 @@
+import { describe, expect, it } from 'vitest';
+import { deriveMaterial, materialInputSchema, parseTags } from '@/lib/catalog/material-schema';
+import { sourceInputSchema } from '@/lib/catalog/source-schema';
+import { methodInputSchema } from '@/lib/catalog/method-schema';
+import { parseListParams } from '@/lib/catalog/list-params';
+
+function errorsOf(result: { success: boolean; error?: { issues: Array<{ path: PropertyKey[]; message: string }> } }) {
+  const out: Record<string, string> = {};
+  for (const i of result.error?.issues ?? []) out[i.path.join('.')] ??= i.message;
+  return out;
+}
+
+describe('materialInputSchema', () => {
+  it('accepts form strings and turns blanks into "not given"', () => {
+    const r = materialInputSchema.parse({ name: 'GaN-wz', displayName: '', formula: 'GaN', spaceGroup: '186', atomsInCell: '4', externalId: '', tags: 'Semiconductor, nitride, semiconductor' });
+    expect(r).toEqual({ name: 'GaN-wz', displayName: undefined, formula: 'GaN', spaceGroup: 186, atomsInCell: 4, externalId: undefined, tags: ['semiconductor', 'nitride'] });
+  });
+
+  it('names the position of an unknown element', () => {
+    const r = materialInputSchema.safeParse({ name: 'x', formula: 'GaXx', tags: '' });
+    expect(errorsOf(r).formula).toMatch(/unknown element symbol "Xx" at position 3/);
+  });
+
+  it('refuses a space group outside 1–230', () => {
+    expect(errorsOf(materialInputSchema.safeParse({ name: 'x', formula: 'Si', spaceGroup: '231', tags: '' })).spaceGroup).toMatch(/between 1 and 230/);
+    expect(errorsOf(materialInputSchema.safeParse({ name: 'x', formula: 'Si', spaceGroup: '0', tags: '' })).spaceGroup).toMatch(/between 1 and 230/);
+    expect(errorsOf(materialInputSchema.safeParse({ name: 'x', formula: 'Si', spaceGroup: '12.5', tags: '' })).spaceGroup).toMatch(/whole number/);
+  });
+
+  it('refuses a name with spaces', () => {
+    expect(errorsOf(materialInputSchema.safeParse({ name: 'Ga N', formula: 'GaN', tags: '' })).name).toMatch(/letters, digits/);
+  });
+
+  it('derives the reduced formula, atoms per formula unit and crystal system', () => {
+    // wurtzite GaN: P6_3mc, space group 186 (hexagonal; International Tables for Crystallography A)
+    expect(deriveMaterial({ formula: 'Ga2N2', spaceGroup: 186 })).toEqual({
+      reducedFormula: 'GaN',
+      atomsPerFormulaUnit: 4,
+      elementCounts: { Ga: 2, N: 2 },
+      crystalSystem: 'hexagonal',
+    });
+    expect(deriveMaterial({ formula: 'Al2O3', spaceGroup: undefined }).crystalSystem).toBeNull();
+  });
+
+  it('parses tags from a list or comma-separated text', () => {
+    expect(parseTags(['Oxide', ' halide '])).toEqual(['oxide', 'halide']);
+    expect(parseTags('')).toEqual([]);
+  });
+});
+
+describe('sourceInputSchema', () => {
+  it('strips a doi.org prefix', () => {
+    const r = sourceInputSchema.parse({ kind: 'journal-article', citeKey: 'parker1967', doi: 'https://doi.org/10.1103/PhysRev.155.712', year: '1967' });
+    expect(r.doi).toBe('10.1103/PhysRev.155.712');
+    expect(r.year).toBe(1967);
+  });
+
+  it('refuses a DOI that is not one', () => {
+    expect(errorsOf(sourceInputSchema.safeParse({ kind: 'journal-article', citeKey: 'k', doi: 'hello' })).doi).toMatch(/not a DOI/);
+  });
+
+  it('needs a notebook reference for an in-house notebook', () => {
+    expect(errorsOf(sourceInputSchema.safeParse({ kind: 'in-house-notebook', citeKey: 'nb1' })).notebookRef).toMatch(/notebook reference/);
+    expect(sourceInputSchema.safeParse({ kind: 'in-house-notebook', citeKey: 'nb1', notebookRef: 'LL-3 p.12', recordedOn: '2024-03-05' }).success).toBe(true);
+  });
+
+  it('needs a DOI, URL or title for the other kinds', () => {
+    expect(errorsOf(sourceInputSchema.safeParse({ kind: 'data-set', citeKey: 'ds' })).doi).toMatch(/DOI, a URL or a title/);
+    expect(sourceInputSchema.safeParse({ kind: 'data-set', citeKey: 'ds', url: 'https://zenodo.org/records/1' }).success).toBe(true);
+  });
+
+  it('refuses a date that is not YYYY-MM-DD and a URL that is not http(s)', () => {
+    expect(errorsOf(sourceInputSchema.safeParse({ kind: 'in-house-notebook', citeKey: 'n', notebookRef: 'a', recordedOn: '5/3/2024' })).recordedOn).toMatch(/YYYY-MM-DD/);
+    expect(errorsOf(sourceInputSchema.safeParse({ kind: 'data-set', citeKey: 'n', url: 'ftp://x.org/a' })).url).toMatch(/http/);
+  });
+});
+
+describe('methodInputSchema', () => {
+  it('reads grids and the LO–TO choice', () => {
+    const r = methodInputSchema.parse({ label: 'PBEsol-PAW', functional: 'PBEsol', kGrid: '8x8x6', qGrid: '4x4x3', cutoffEv: '520', approach: 'perturbation', nonAnalyticCorrection: 'yes' });
+    expect(r).toMatchObject({ kGrid: [8, 8, 6], qGrid: [4, 4, 3], cutoffEv: 520, approach: 'perturbation', nonAnalyticCorrection: true });
+  });
+
+  it('explains a malformed grid and a negative cutoff', () => {
+    const e = errorsOf(methodInputSchema.safeParse({ label: 'x', functional: 'PBE', kGrid: '8x8', cutoffEv: '-1' }));
+    expect(e.kGrid).toMatch(/three positive whole numbers like "8x8x8", got "8x8"/);
+    expect(e.cutoffEv).toMatch(/greater than 0/);
+  });
+});
+
+describe('parseListParams', () => {
+  it('falls back to defaults for junk and keeps the allowed page sizes', () => {
+    expect(parseListParams({ page: '-3', size: '7', dir: 'sideways' })).toMatchObject({ page: 1, size: 50, dir: 'asc', retracted: false });
+    expect(parseListParams({ page: '3', size: '1000', dir: 'desc', retracted: '1', q: ' GaN ' })).toMatchObject({ page: 3, size: 1000, dir: 'desc', retracted: true, q: 'GaN' });
+  });
+});
