@@ -1,0 +1,111 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { requirePageMember } from '@/lib/session';
+import { roleCan } from '@/lib/permissions';
+import { getImport, listImportHistory } from '@/db/queries/imports';
+import { listCalculations, listMeasurements } from '@/db/queries/values';
+import { Panel } from '@/components/ui/panel';
+import { UndoImportForm } from '../_components/undo-import-form';
+
+export const metadata: Metadata = { title: 'Import' };
+
+const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium' });
+const SAMPLE_ROWS = 100;
+
+export default async function ImportPage({ params }: { params: Promise<{ workspace: string; importId: string }> }) {
+  const { workspace, importId } = await params;
+  const ctx = await requirePageMember(workspace, 'imports:read');
+  const batch = await getImport(ctx.workspace.id, importId);
+  if (!batch) notFound();
+  const filter = { page: 1, size: SAMPLE_ROWS, importId: batch.id, retracted: true };
+  const [values, history] = await Promise.all([
+    batch.kind === 'measurements' ? listMeasurements(ctx.workspace.id, filter) : listCalculations(ctx.workspace.id, filter),
+    listImportHistory(ctx.workspace.id, batch.id),
+  ]);
+  const canUndo = batch.status === 'committed' && roleCan(ctx.role, 'imports:undo');
+
+  const facts: Array<[string, React.ReactNode]> = [
+    ['Kind', batch.kind],
+    ['File', batch.fileName ?? '—'],
+    ['By', `${batch.creatorName ?? '—'}${batch.via === 'api' ? ` via API${batch.tokenName ? ` (token “${batch.tokenName}”)` : ''}` : ' with the wizard'}`],
+    ['When', when.format(batch.createdAt)],
+    ['Bytes', batch.byteCount.toLocaleString('en')],
+    ['SHA-256', <code key="sha" className="break-all font-mono text-xs">{batch.sha256}</code>],
+    ['Rows in the file', batch.rowCount.toLocaleString('en')],
+    ['Inserted', batch.insertedCount.toLocaleString('en')],
+    ['Identical to existing rows (skipped)', batch.duplicateCount.toLocaleString('en')],
+    ['Status', batch.status === 'undone' ? `undone ${batch.undoneAt ? when.format(batch.undoneAt) : ''} by ${batch.undoneByName ?? '—'}: “${batch.undoReason}”` : 'committed'],
+  ];
+
+  return (
+    <div className="space-y-5">
+      <header className="space-y-1">
+        <p className="text-xs text-ink-muted">
+          <Link href={`/w/${ctx.workspace.slug}/imports`}>Imports</Link> /
+        </p>
+        <h1>Import of {batch.fileName ?? batch.kind}</h1>
+      </header>
+      <div className="grid gap-5 xl:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
+        <Panel title="Facts">
+          <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1.5 text-sm">
+            {facts.map(([k, v]) => (
+              <div key={k} className="contents">
+                <dt className="text-ink-muted">{k}</dt>
+                <dd className="num">{v}</dd>
+              </div>
+            ))}
+          </dl>
+        </Panel>
+        <div className="space-y-5">
+          {canUndo && (
+            <Panel title="Undo">
+              <UndoImportForm workspaceId={ctx.workspace.id} importId={batch.id} rowCount={batch.insertedCount} />
+            </Panel>
+          )}
+          <Panel title="History">
+            <ul className="space-y-1.5 text-sm">
+              {history.map((h) => (
+                <li key={h.id}>
+                  <span className="num text-ink-muted">{when.format(h.createdAt)}</span> · {h.action} by {h.actorName ?? '—'}
+                  {h.actorTokenId && <span className="text-ink-muted"> (API token)</span>}
+                  {h.reason && <span className="text-ink-muted"> — “{h.reason}”</span>}
+                </li>
+              ))}
+            </ul>
+          </Panel>
+        </div>
+      </div>
+      <Panel title={`Rows (${values.total.toLocaleString('en')}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
+        <div className="overflow-x-auto">
+          <table className="w-full text-sm" data-testid="import-rows">
+            <thead className="text-left text-xs text-ink-muted">
+              <tr>
+                <th className="pb-2 font-medium">Quantity</th>
+                <th className="pb-2 text-right font-medium">Value as entered</th>
+                <th className="pb-2 font-medium">Unit</th>
+                <th className="pb-2 text-right font-medium">Canonical</th>
+                <th className="pb-2 font-medium">Label</th>
+                <th className="pb-2 font-medium">Status</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-rule">
+              {values.rows.map((r) => (
+                <tr key={r.id} className={r.retractedAt ? 'text-ink-muted line-through decoration-ink-faint' : ''}>
+                  <td className="py-1.5 pr-3">{r.quantity}</td>
+                  <td className="num py-1.5 pr-3 text-right">{r.valueText}</td>
+                  <td className="py-1.5 pr-3">{r.unit}</td>
+                  <td className="num py-1.5 pr-3 text-right">
+                    {r.value.toPrecision(6)} {r.quantity === 'frequency' ? 'cm⁻¹' : 'J mol⁻¹ K⁻¹'}
+                  </td>
+                  <td className="py-1.5 pr-3">{r.irrepNormalized ?? '—'}</td>
+                  <td className="py-1.5">{r.retractedAt ? 'retracted' : 'live'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </Panel>
+    </div>
+  );
+}

@@ -1,0 +1,13 @@
+'use server';
+import { revalidatePath } from 'next/cache';
+import { workspaceAction } from '@/lib/action';
+import { undoImport } from '@/db/queries/imports';
+import { undoImportSchema } from './schemas';
+
+/** Retracts every row of an import with the reason, marks it undone, audits it — one transaction. */
+export const undoImportAction = workspaceAction('imports:undo', undoImportSchema, async (input, ctx) => {
+  const { retracted } = await undoImport(ctx.workspace.id, input.importId, ctx.user.id, input.reason);
+  revalidatePath(`/w/${ctx.workspace.slug}/imports`);
+  revalidatePath(`/w/${ctx.workspace.slug}/imports/${input.importId}`);
+  return { ok: true, message: `Import undone: ${retracted.toLocaleString('en')} rows retracted.` };
+});

@@ -1,0 +1,25 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { requirePageMember } from '@/lib/session';
+import { ImportWizard } from '@/components/import/import-wizard';
+
+export const metadata: Metadata = { title: 'New import' };
+
+export default async function NewImportPage({ params }: { params: Promise<{ workspace: string }> }) {
+  const ctx = await requirePageMember((await params).workspace, 'imports:create');
+  return (
+    <div className="space-y-5">
+      <header className="space-y-1">
+        <p className="text-xs text-ink-muted">
+          <Link href={`/w/${ctx.workspace.slug}/imports`}>Imports</Link> /
+        </p>
+        <h1>New import</h1>
+        <p className="max-w-3xl text-sm text-ink-muted">
+          Every row needs a material, a source and (for calculations) a method that already exist in this workspace. The file is checked in your browser, then
+          again on the server; it is imported completely or not at all.
+        </p>
+      </header>
+      <ImportWizard workspaceId={ctx.workspace.id} slug={ctx.workspace.slug} />
+    </div>
+  );
+}

@@ -1,0 +1,44 @@
+import { z } from 'zod';
+import { listImports } from '@/db/queries/imports';
+import { AppError } from '@/lib/errors';
+import { apiRoute } from '@/lib/api/handler';
+import { importMaxBytes } from '@/lib/api/import-limit';
+import { listRoute } from '@/lib/api/resources';
+import { importJsonBody, importCsvFile } from '@/lib/api/run-import';
+import { importKindQuerySchema, importSummarySchema } from '@/lib/api/schemas';
+import { limitedBody, readLimitedBody } from '@/lib/stream-limit';
+
+/**
+ * POST /api/v1/imports — a JSON body `{ kind, fileName?, units?, rows }`, or a
+ * CSV file (`Content-Type: text/csv`, `?kind=…&fileName=…`). 201 with the counts,
+ * 422 with every row error, 409 for a file already imported, 413 over IMPORT_MAX_BYTES.
+ */
+export const POST = apiRoute('imports:create', z.object({}), async (request, ctx) => {
+  const maxBytes = importMaxBytes();
+  const type = (request.headers.get('content-type') ?? '').split(';')[0].trim().toLowerCase();
+  const actor = { userId: ctx.createdBy, tokenId: ctx.tokenId };
+  let outcome;
+  if (type === 'application/json') {
+    outcome = await importJsonBody({ workspaceId: ctx.workspaceId, actor, bytes: await readLimitedBody(request, maxBytes) });
+  } else if (type === 'text/csv') {
+    const url = new URL(request.url);
+    const query = importKindQuerySchema.safeParse({ kind: url.searchParams.get('kind') ?? undefined, fileName: url.searchParams.get('fileName') ?? undefined });
+    if (!query.success) throw new AppError('bad-request', query.error.issues.map((i) => i.message).join(' '));
+    outcome = await importCsvFile({
+      workspaceId: ctx.workspaceId,
+      actor,
+      via: 'api',
+      kind: query.data.kind,
+      fileName: query.data.fileName ?? null,
+      body: limitedBody(request, maxBytes),
+    });
+  } else {
+    throw new AppError('bad-request', 'Send Content-Type: application/json (rows) or text/csv (a file, with ?kind=).');
+  }
+  return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
+});
+
+export const GET = listRoute('imports:read', importSummarySchema, async (workspaceId, page) => {
+  const { items, total } = await listImports(workspaceId, page);
+  return { rows: items, total };
+});

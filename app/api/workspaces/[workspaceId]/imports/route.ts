@@ -1,0 +1,35 @@
+import { z } from 'zod';
+import { AppError } from '@/lib/errors';
+import { workspaceRoute } from '@/lib/route';
+import { importMaxBytes } from '@/lib/api/import-limit';
+import { problemFromError } from '@/lib/api/problem';
+import { importCsvFile } from '@/lib/api/run-import';
+import { parseWizardQuery } from '@/lib/import/wizard-options';
+import type { DefaultUnits } from '@/lib/import/units';
+import { limitedBody } from '@/lib/stream-limit';
+
+/**
+ * The wizard's commit: the original file bytes as the body (not a server action,
+ * whose body limit is 1 MB), with the corrected mapping and units in the query.
+ * The server decodes, parses and validates everything again; it is the authority.
+ */
+export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.string().min(1) }), async (request, ctx) => {
+  const options = parseWizardQuery(new URL(request.url).searchParams);
+  if (!options.success) throw new AppError('bad-request', options.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
+  try {
+    const outcome = await importCsvFile({
+      workspaceId: ctx.workspace.id,
+      actor: { userId: ctx.user.id, tokenId: null },
+      via: 'wizard',
+      kind: options.data.kind,
+      fileName: options.data.fileName ?? null,
+      body: limitedBody(request, importMaxBytes()),
+      mapping: options.data.mapping,
+      units: options.data.units as DefaultUnits | undefined,
+    });
+    return Response.json(outcome, { status: 201 });
+  } catch (e) {
+    // Refused imports (422, 409, 413) answer with the same problem documents as the API.
+    return problemFromError(e);
+  }
+});

@@ -1,0 +1,239 @@
+'use client';
+import Link from 'next/link';
+import { useEffect, useMemo, useState } from 'react';
+import { columnsOf, type ImportableKind } from '@/lib/import/columns';
+import type { RowError } from '@/lib/import/errors';
+import type { ColumnMapping } from '@/lib/import/header';
+import type { ReferenceLists } from '@/lib/import/preview';
+import type { DefaultUnits } from '@/lib/import/units';
+import { wizardQuery } from '@/lib/import/wizard-options';
+import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
+import { Button, buttonClass } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { Panel } from '@/components/ui/panel';
+import { inputClass } from '@/components/ui/field';
+import { ColumnMappingForm } from './column-mapping';
+import { FileDrop } from './file-drop';
+import { ProgressBar } from './progress-bar';
+import { RowErrorTable } from './row-error-table';
+import { usePreviewWorker } from './use-preview-worker';
+
+type Outcome = { importId: string; rowCount: number; insertedCount: number; duplicateCount: number; duplicates: Array<{ row: number; reason: string }> };
+type CommitState =
+  | { status: 'idle' }
+  | { status: 'sending' }
+  | { status: 'done'; outcome: Outcome }
+  | { status: 'refused'; message: string; errors?: RowError[]; errorCount?: number; firstImportId?: string };
+
+const KIND_LABEL: Record<ImportableKind, string> = { measurements: 'Measurements (experiment)', calculations: 'Calculations (computed)' };
+
+export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug: string }) {
+  const [kind, setKind] = useState<ImportableKind>('measurements');
+  const [file, setFile] = useState<File | null>(null);
+  const [mapping, setMapping] = useState<ColumnMapping | undefined>(undefined);
+  const [units, setUnits] = useState<DefaultUnits>({});
+  const [references, setReferences] = useState<ReferenceLists | null>(null);
+  const [referenceError, setReferenceError] = useState<string | null>(null);
+  const [commit, setCommit] = useState<CommitState>({ status: 'idle' });
+
+  useEffect(() => {
+    let live = true;
+    fetch(`/api/workspaces/${workspaceId}/imports/references`)
+      .then(async (res) => {
+        if (!res.ok) throw new Error((await res.json()).detail ?? `HTTP ${res.status}`);
+        return (await res.json()) as ReferenceLists;
+      })
+      .then((r) => live && setReferences(r))
+      .catch((e: Error) => live && setReferenceError(e.message));
+    return () => {
+      live = false;
+    };
+  }, [workspaceId]);
+
+  const request = useMemo(() => (file && references ? { file, kind, mapping, units, references } : null), [file, kind, mapping, units, references]);
+  const preview = usePreviewWorker(request);
+  const result = preview.status === 'done' ? preview.result : null;
+  const columns = columnsOf(kind);
+  const noUnitColumn = result !== null && !result.mapping.unit;
+  const canCommit = result !== null && result.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
+
+  const reset = (next: Partial<{ kind: ImportableKind; file: File | null }>) => {
+    if (next.kind) setKind(next.kind);
+    if (next.file !== undefined) setFile(next.file);
+    setMapping(undefined);
+    setCommit({ status: 'idle' });
+  };
+
+  async function send() {
+    if (!file || !result) return;
+    setCommit({ status: 'sending' });
+    const query = wizardQuery({ kind, fileName: file.name, mapping: result.mapping, units: noUnitColumn ? units : undefined });
+    try {
+      const res = await fetch(`/api/workspaces/${workspaceId}/imports?${query}`, { method: 'POST', body: file, headers: { 'content-type': 'text/csv' } });
+      const body = await res.json();
+      if (res.status === 201) setCommit({ status: 'done', outcome: body as Outcome });
+      else setCommit({ status: 'refused', message: body.detail ?? `HTTP ${res.status}`, errors: body.errors, errorCount: body.errorCount, firstImportId: body.firstImportId });
+    } catch (e) {
+      setCommit({ status: 'refused', message: `The upload failed: ${(e as Error).message}` });
+    }
+  }
+
+  return (
+    <div className="space-y-5">
+      <Panel title="1 · What are you importing?">
+        <div className="flex flex-wrap items-end gap-4">
+          <fieldset className="flex gap-4 text-sm">
+            <legend className="sr-only">Kind of import</legend>
+            {(['measurements', 'calculations'] as const).map((k) => (
+              <label key={k} className="flex items-center gap-1.5">
+                <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => reset({ kind: k })} disabled={commit.status === 'sending'} />
+                {KIND_LABEL[k]}
+              </label>
+            ))}
+          </fieldset>
+          <a className={buttonClass('secondary')} href={`/api/workspaces/${workspaceId}/imports/templates/${kind}.csv`} download>
+            Download the {kind} template
+          </a>
+        </div>
+      </Panel>
+
+      <Panel title="2 · Choose the file">
+        <div className="space-y-3">
+          {referenceError && <Notice tone="bad">Could not load the workspace’s materials, sources and methods: {referenceError}</Notice>}
+          <FileDrop onFile={(f) => reset({ file: f })} disabled={commit.status === 'sending'} />
+          {file && (
+            <p className="text-sm text-ink-muted">
+              <span className="font-medium text-ink">{file.name}</span> · <span className="num">{file.size.toLocaleString('en')} bytes</span>
+            </p>
+          )}
+          {preview.status === 'working' && <ProgressBar label={preview.phase === 'reading' ? 'Reading the file (UTF-8)' : 'Parsing and checking rows'} fraction={preview.fraction} />}
+          {preview.status === 'failed' && <Notice tone="bad">{preview.message}</Notice>}
+          {preview.status === 'refused' && (
+            <div className="space-y-2">
+              <Notice tone="bad">{preview.message}</Notice>
+              <RowErrorTable errors={preview.errors} errorCount={preview.errors.length} />
+            </div>
+          )}
+        </div>
+      </Panel>
+
+      {result && (
+        <Panel title="3 · Columns and units">
+          <div className="space-y-4">
+            <p className="text-sm text-ink-muted">
+              {result.delimiterName}-separated, {result.headers.length} columns. Matched automatically — correct any column below.
+              {result.ignored.length > 0 && <> Ignored file columns: {result.ignored.map((h) => `“${h}”`).join(', ')}.</>}
+            </p>
+            <ColumnMappingForm columns={columns} headers={result.headers} mapping={result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
+            {noUnitColumn && (
+              <div className="flex flex-wrap gap-4">
+                <p className="w-full text-sm text-ink-muted">The file has no unit column: choose the unit of its values.</p>
+                <label className="space-y-0.5 text-xs font-medium">
+                  Frequency unit
+                  <select className={inputClass} value={units.frequency ?? ''} onChange={(e) => setUnits({ ...units, frequency: (e.target.value || undefined) as DefaultUnits['frequency'] })}>
+                    <option value="">— choose —</option>
+                    {FREQUENCY_UNITS.map((u) => (
+                      <option key={u}>{u}</option>
+                    ))}
+                  </select>
+                </label>
+                <label className="space-y-0.5 text-xs font-medium">
+                  Entropy unit
+                  <select className={inputClass} value={units.entropy ?? ''} onChange={(e) => setUnits({ ...units, entropy: (e.target.value || undefined) as DefaultUnits['entropy'] })}>
+                    <option value="">— choose —</option>
+                    {ENTROPY_UNITS.map((u) => (
+                      <option key={u}>{u}</option>
+                    ))}
+                  </select>
+                </label>
+              </div>
+            )}
+          </div>
+        </Panel>
+      )}
+
+      {result && (
+        <Panel title="4 · Preview and commit">
+          <div className="space-y-4">
+            <p className="text-sm">
+              <span className="num font-medium">{result.rowCount.toLocaleString('en')}</span> rows ·{' '}
+              <span className="num text-good">{result.validCount.toLocaleString('en')} valid</span> ·{' '}
+              <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{result.errorCount.toLocaleString('en')} errors</span>
+            </p>
+            {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
+            <PreviewTable headers={result.headers} rows={result.preview} />
+            <div className="flex items-center gap-3">
+              <Button type="button" onClick={send} disabled={!canCommit} aria-disabled={!canCommit}>
+                {commit.status === 'sending' ? 'Importing…' : `Import ${result.rowCount.toLocaleString('en')} rows`}
+              </Button>
+              {result.errorCount > 0 && <span className="text-xs text-ink-muted">Fix the errors in the file (or the mapping) first.</span>}
+            </div>
+            <CommitResult state={commit} slug={slug} />
+          </div>
+        </Panel>
+      )}
+    </div>
+  );
+}
+
+function PreviewTable({ headers, rows }: { headers: string[]; rows: Array<{ row: number; cells: string[]; ok: boolean }> }) {
+  return (
+    <div className="max-h-96 overflow-auto rounded-md border border-rule">
+      <table className="w-full text-xs" data-testid="import-preview">
+        <caption className="sr-only">First rows of the file</caption>
+        <thead className="sticky top-0 bg-panel text-left text-ink-muted">
+          <tr>
+            <th className="px-2 py-1.5 font-medium">Row</th>
+            {headers.map((h, i) => (
+              <th key={i} className="px-2 py-1.5 font-medium whitespace-nowrap">
+                {h}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody className="divide-y divide-rule">
+          {rows.map((r) => (
+            <tr key={r.row} className={r.ok ? '' : 'bg-bad-soft'}>
+              <td className="num px-2 py-1">{r.row}</td>
+              {r.cells.map((c, i) => (
+                <td key={i} className="px-2 py-1 whitespace-nowrap">
+                  {c}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
+  if (state.status === 'done') {
+    const o = state.outcome;
+    return (
+      <Notice tone="good">
+        Imported {o.insertedCount.toLocaleString('en')} of {o.rowCount.toLocaleString('en')} rows
+        {o.duplicateCount > 0 && <> ({o.duplicateCount.toLocaleString('en')} identical to existing rows, skipped)</>}.{' '}
+        <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link>
+      </Notice>
+    );
+  }
+  if (state.status === 'refused') {
+    return (
+      <div className="space-y-2">
+        <Notice tone="bad">
+          {state.message}
+          {state.firstImportId && (
+            <>
+              {' '}
+              <Link href={`/w/${slug}/imports/${state.firstImportId}`}>Open the first import</Link>
+            </>
+          )}
+        </Notice>
+        {state.errors && state.errors.length > 0 && <RowErrorTable errors={state.errors} errorCount={state.errorCount ?? state.errors.length} />}
+      </div>
+    );
+  }
+  return null;
+}

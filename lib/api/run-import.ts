@@ -1,0 +1,120 @@
+import 'server-only';
+import { createHash } from 'node:crypto';
+import { createReadStream, createWriteStream } from 'node:fs';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { once } from 'node:events';
+import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import type { ImportableKind } from '@/lib/import/columns';
+import { decodeUtf8Strict } from '@/lib/import/decode';
+import { ImportRefusal, type RowError } from '@/lib/import/errors';
+import type { ColumnMapping } from '@/lib/import/header';
+import { jsonTable, openCsvTable } from '@/lib/import/table';
+import type { DefaultUnits } from '@/lib/import/units';
+import { importRequestSchema } from './schemas';
+
+const READ_CHUNK_BYTES = 1 << 20;
+
+interface Spooled {
+  path: string;
+  sha256: string;
+  byteCount: number;
+  cleanup: () => Promise<void>;
+}
+
+/**
+ * Writes the upload to a temporary file while hashing it, so the database
+ * transaction that follows never waits on a slow client.
+ */
+async function spool(chunks: AsyncIterable<Uint8Array>): Promise<Spooled> {
+  const dir = await mkdtemp(join(tmpdir(), 'ledger-import-'));
+  const cleanup = () => rm(dir, { recursive: true, force: true });
+  const path = join(dir, 'upload.csv');
+  const out = createWriteStream(path);
+  const hash = createHash('sha256');
+  let byteCount = 0;
+  try {
+    for await (const chunk of chunks) {
+      hash.update(chunk);
+      byteCount += chunk.byteLength;
+      if (!out.write(chunk)) await once(out, 'drain');
+    }
+    out.end();
+    await once(out, 'close');
+  } catch (e) {
+    out.destroy();
+    await cleanup();
+    throw e;
+  }
+  return { path, sha256: hash.digest('hex'), byteCount, cleanup };
+}
+
+export interface CsvImportInput {
+  workspaceId: string;
+  actor: ImportActor;
+  via: 'wizard' | 'api';
+  kind: ImportableKind;
+  fileName: string | null;
+  /** The file's bytes as they arrive (already limited to IMPORT_MAX_BYTES by the caller). */
+  body: AsyncIterable<Uint8Array>;
+  mapping?: ColumnMapping;
+  units?: DefaultUnits;
+}
+
+/**
+ * The one server path for a CSV file, from the wizard and from the API alike:
+ * spool and hash the bytes, then validate and commit atomically.
+ */
+export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcome> {
+  const spooled = await spool(input.body);
+  try {
+    if (spooled.byteCount === 0) throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+    const stream = createReadStream(spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
+    const table = await openCsvTable(stream, input.kind, input.mapping);
+    return await commitImport({
+      workspaceId: input.workspaceId,
+      actor: input.actor,
+      file: { kind: input.kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, via: input.via },
+      table,
+      units: input.units,
+    });
+  } finally {
+    await spooled.cleanup();
+  }
+}
+
+/**
+ * A JSON import body `{ kind, fileName?, units?, rows }`: its bytes are hashed
+ * like a file (the same body twice is refused), the rows validated like CSV rows.
+ */
+export async function importJsonBody(input: { workspaceId: string; actor: ImportActor; bytes: Uint8Array }): Promise<ImportOutcome> {
+  const text = decodeUtf8Strict(input.bytes);
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    throw new ImportRefusal('The body is not valid JSON.', [{ row: 0, column: null, reason: `The body is not valid JSON: ${(e as Error).message}` }]);
+  }
+  const parsed = importRequestSchema.safeParse(json);
+  if (!parsed.success) {
+    const errors: RowError[] = parsed.error.issues.slice(0, 10_000).map((issue) => {
+      const [top, index, key] = issue.path;
+      if (top === 'rows' && typeof index === 'number') {
+        const column = typeof key === 'string' ? key : issue.code === 'unrecognized_keys' ? issue.keys.join(', ') : null;
+        return { row: index + 1, column, reason: issue.message };
+      }
+      return { row: 0, column: issue.path.join('.') || null, reason: issue.message };
+    });
+    throw new ImportRefusal('The request body does not match the import schema.', errors, parsed.error.issues.length);
+  }
+  const body = parsed.data;
+  const sha256 = createHash('sha256').update(input.bytes).digest('hex');
+  return commitImport({
+    workspaceId: input.workspaceId,
+    actor: input.actor,
+    file: { kind: body.kind, fileName: body.fileName ?? null, sha256, byteCount: input.bytes.byteLength, via: 'api' },
+    table: jsonTable(body.kind, body.rows),
+    units: body.units as DefaultUnits | undefined,
+  });
+}

@@ -1,0 +1,216 @@
+import { z } from 'zod';
+import { APPROACHES, SOURCE_KINDS } from '@/db/schema/catalog';
+import { CALCULATION_COLUMNS, MEASUREMENT_COLUMNS, type ColumnDef } from '@/lib/import/columns';
+import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
+import { ACTIVITY_VALUES, BRANCH_VALUES, SAMPLE_FORM_VALUES, TECHNIQUE_VALUES } from '@/lib/import/vocabulary';
+
+// Schemas of the public REST API: they parse requests and, through z.toJSONSchema, make the OpenAPI document.
+
+const cell = z.union([z.string(), z.number(), z.null()]);
+
+function rowSchema(columns: readonly ColumnDef[], title: string) {
+  const shape: Record<string, z.ZodOptional<typeof cell>> = {};
+  for (const c of columns) shape[c.key] = cell.optional().describe(`${c.required ? '(required) ' : ''}${c.description}`);
+  return z
+    .strictObject(shape)
+    .meta({ title, description: 'Cells as in the CSV template. Send numbers as strings to keep their text exactly ("1.50").' });
+}
+
+export const measurementRowSchema = rowSchema(MEASUREMENT_COLUMNS, 'MeasurementRow');
+export const calculationRowSchema = rowSchema(CALCULATION_COLUMNS, 'CalculationRow');
+
+const defaultUnitsSchema = z
+  .object({ frequency: z.enum(FREQUENCY_UNITS as [string, ...string[]]).optional(), entropy: z.enum(ENTROPY_UNITS as [string, ...string[]]).optional() })
+  .meta({ description: 'Unit for rows whose unit cell is empty.' });
+
+const MAX_JSON_ROWS = 1_000_000;
+
+export const importRequestSchema = z
+  .discriminatedUnion('kind', [
+    z.object({
+      kind: z.literal('measurements'),
+      fileName: z.string().max(255).optional(),
+      units: defaultUnitsSchema.optional(),
+      rows: z.array(measurementRowSchema).min(1).max(MAX_JSON_ROWS),
+    }),
+    z.object({
+      kind: z.literal('calculations'),
+      fileName: z.string().max(255).optional(),
+      units: defaultUnitsSchema.optional(),
+      rows: z.array(calculationRowSchema).min(1).max(MAX_JSON_ROWS),
+    }),
+  ])
+  .meta({ title: 'ImportRequest' });
+
+export const importKindQuerySchema = z.object({
+  kind: z.enum(['measurements', 'calculations'], 'Give ?kind=measurements or ?kind=calculations.'),
+  fileName: z.string().max(255).optional(),
+});
+
+export const rowErrorSchema = z
+  .object({
+    row: z.int().meta({ description: 'CSV: the header is row 1. JSON: row N is rows[N − 1]. 0: the file as a whole.' }),
+    column: z.string().nullable(),
+    reason: z.string(),
+    value: z.string().optional(),
+  })
+  .meta({ title: 'RowError' });
+
+export const importResultSchema = z
+  .object({
+    importId: z.string(),
+    rowCount: z.int(),
+    insertedCount: z.int(),
+    duplicateCount: z.int(),
+    duplicates: z.array(z.object({ row: z.int(), reason: z.string() })),
+  })
+  .meta({ title: 'ImportResult' });
+
+export const problemSchema = z
+  .object({
+    type: z.string(),
+    title: z.string(),
+    status: z.int(),
+    detail: z.string(),
+    errorCount: z.int().optional(),
+    errors: z.array(rowErrorSchema).optional(),
+    firstImportId: z.string().optional().meta({ description: 'On 409: the import that already holds this file.' }),
+  })
+  .meta({ title: 'Problem', description: 'RFC 9457 problem details (application/problem+json).' });
+
+export const pageQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  size: z.coerce.number().int().min(1).max(1000).default(100),
+});
+
+const timestamp = z.iso.datetime();
+const nullableText = z.string().nullable();
+
+export const materialSchema = z
+  .object({
+    id: z.string(),
+    name: z.string(),
+    displayName: nullableText,
+    formula: z.string(),
+    reducedFormula: z.string(),
+    atomsPerFormulaUnit: z.number(),
+    spaceGroup: z.int().nullable(),
+    crystalSystem: nullableText,
+    atomsInCell: z.int().nullable(),
+    externalId: nullableText,
+    tags: z.array(z.string()),
+    createdAt: timestamp,
+    retractedAt: timestamp.nullable(),
+  })
+  .meta({ title: 'Material' });
+
+export const sourceSchema = z
+  .object({
+    id: z.string(),
+    citeKey: z.string(),
+    kind: z.enum(SOURCE_KINDS),
+    doi: nullableText,
+    title: nullableText,
+    authors: nullableText,
+    year: z.int().nullable(),
+    venue: nullableText,
+    url: nullableText,
+    notebookRef: nullableText,
+    instrument: nullableText,
+    operator: nullableText,
+    recordedOn: nullableText,
+    createdAt: timestamp,
+    retractedAt: timestamp.nullable(),
+  })
+  .meta({ title: 'Source' });
+
+const grid = z.tuple([z.int(), z.int(), z.int()]).nullable();
+
+export const methodSchema = z
+  .object({
+    id: z.string(),
+    label: z.string(),
+    functional: z.string(),
+    dispersion: nullableText,
+    pseudopotential: nullableText,
+    cutoffEv: z.number().nullable(),
+    kGrid: grid,
+    qGrid: grid,
+    smearing: nullableText,
+    approach: z.enum(APPROACHES).nullable(),
+    nonAnalyticCorrection: z.boolean().nullable(),
+    notes: nullableText,
+    createdAt: timestamp,
+    retractedAt: timestamp.nullable(),
+  })
+  .meta({ title: 'Method' });
+
+const valueFields = {
+  id: z.string(),
+  materialId: z.string(),
+  sourceId: z.string(),
+  importId: z.string().nullable(),
+  quantity: z.string(),
+  value: z.number().meta({ description: 'Canonical: cm⁻¹ for frequencies, J mol⁻¹ K⁻¹ per formula unit for entropies.' }),
+  valueText: z.string().meta({ description: 'The number exactly as entered, in `unit`.' }),
+  unit: z.string(),
+  uncertainty: z.number().nullable(),
+  uncertaintyText: nullableText,
+  temperatureK: z.number().nullable(),
+  irrep: nullableText,
+  irrepNormalized: nullableText,
+  branch: z.enum(BRANCH_VALUES).nullable(),
+  degeneracy: z.int().nullable(),
+  activity: z.enum(ACTIVITY_VALUES).nullable(),
+  notes: nullableText,
+  createdAt: timestamp,
+  retractedAt: timestamp.nullable(),
+};
+
+export const measurementSchema = z
+  .object({
+    ...valueFields,
+    technique: z.enum(TECHNIQUE_VALUES).nullable(),
+    laserWavelengthNm: z.number().nullable(),
+    sampleForm: z.enum(SAMPLE_FORM_VALUES).nullable(),
+  })
+  .meta({ title: 'Measurement' });
+
+export const calculationSchema = z.object({ ...valueFields, methodId: z.string(), modeIndex: z.int().nullable() }).meta({ title: 'Calculation' });
+
+export function pageOf<T extends z.ZodType>(item: T, title: string) {
+  return z.object({ items: z.array(item), page: z.int(), size: z.int(), total: z.int() }).meta({ title });
+}
+
+const counts = { measurementCount: z.int(), calculationCount: z.int() };
+
+/** List items are summaries; GET by id gives the whole record. */
+export const materialSummarySchema = materialSchema
+  .pick({ id: true, name: true, displayName: true, formula: true, reducedFormula: true, atomsPerFormulaUnit: true, spaceGroup: true, crystalSystem: true, atomsInCell: true, tags: true, retractedAt: true })
+  .extend(counts)
+  .meta({ title: 'MaterialSummary' });
+
+export const sourceSummarySchema = sourceSchema
+  .pick({ id: true, citeKey: true, kind: true, doi: true, title: true, authors: true, year: true, venue: true, notebookRef: true, retractedAt: true })
+  .extend({ valueCount: z.int() })
+  .meta({ title: 'SourceSummary' });
+
+export const methodSummarySchema = methodSchema
+  .pick({ id: true, label: true, functional: true, dispersion: true, pseudopotential: true, cutoffEv: true, kGrid: true, qGrid: true, approach: true, nonAnalyticCorrection: true, retractedAt: true })
+  .extend({ calculationCount: z.int() })
+  .meta({ title: 'MethodSummary' });
+
+export const importSummarySchema = z
+  .object({
+    id: z.string(),
+    kind: z.string(),
+    fileName: nullableText,
+    byteCount: z.int(),
+    rowCount: z.int(),
+    insertedCount: z.int(),
+    duplicateCount: z.int(),
+    status: z.enum(['committed', 'undone']),
+    via: z.enum(['wizard', 'api']),
+    createdAt: timestamp,
+  })
+  .meta({ title: 'ImportSummary' });

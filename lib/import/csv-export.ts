@@ -1,0 +1,34 @@
+import { parseDecimal } from './numbers';
+
+export type CsvCell = string | number | null | undefined;
+
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/**
+ * One cell made safe for spreadsheets: text that starts with = + - @ tab or CR
+ * is prefixed with an apostrophe so it cannot run as a formula (OWASP "CSV
+ * injection"); numbers, and text that is exactly a decimal number such as a
+ * stored "-1.50", are written as numbers, untouched.
+ */
+export function neutraliseCell(cell: CsvCell): string {
+  if (cell === null || cell === undefined) return '';
+  if (typeof cell === 'number') return Number.isFinite(cell) ? String(cell) : '';
+  if (parseDecimal(cell) !== null) return cell;
+  return FORMULA_START.test(cell) ? `'${cell}` : cell;
+}
+
+function quote(text: string): string {
+  return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
+}
+
+/** A CSV line (comma-separated, RFC 4180 quoting) of neutralised cells. */
+export function csvLine(cells: readonly CsvCell[]): string {
+  return cells.map((c) => quote(neutraliseCell(c))).join(',');
+}
+
+/** A whole CSV document with a header, lines ended by CRLF as RFC 4180 says. */
+export function toCsv(header: readonly string[], rows: Iterable<readonly CsvCell[]>): string {
+  const lines = [csvLine(header)];
+  for (const row of rows) lines.push(csvLine(row));
+  return lines.join('\r\n') + '\r\n';
+}

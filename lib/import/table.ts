@@ -1,0 +1,132 @@
+import { columnsOf, type ImportableKind } from './columns';
+import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
+import { StrictUtf8Decoder } from './decode';
+import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
+import { ImportRefusal, type RowError } from './errors';
+import { resolveHeader, type ColumnMapping } from './header';
+import type { CellReader } from './validate-row';
+
+/** One data row of an import, or a problem that makes it unreadable. */
+export type TableRow = { row: number; read: CellReader; error?: undefined } | { row: number; error: RowError; read?: undefined };
+
+/** Rows of an import file, in batches, whatever the file format. */
+export interface ImportTable {
+  format: 'csv' | 'json';
+  columnName(key: string): string;
+  /** File columns that are not imported. */
+  ignored: string[];
+  delimiter?: Delimiter;
+  batches(): AsyncIterable<TableRow[]>;
+}
+
+const EMPTY_FILE: RowError = { row: 0, column: null, reason: 'The file is empty.' };
+
+/**
+ * Opens a CSV file given as byte chunks: strict UTF-8 (BOM dropped), delimiter
+ * detected from the header line, header checked and mapped. Refuses the file
+ * (ImportRefusal) when any of that fails; row problems come out with the rows.
+ */
+export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: ImportableKind, mapping?: ColumnMapping): Promise<ImportTable> {
+  const decoder = new StrictUtf8Decoder();
+  const iterator = chunks[Symbol.asyncIterator]();
+  let head = '';
+  let done = false;
+  // Read until the header line is complete, to detect the delimiter.
+  while (!done && !hasHeaderLine(head)) {
+    const next = await iterator.next();
+    if (next.done) {
+      head += decoder.decode(new Uint8Array(0), true);
+      done = true;
+    } else head += decoder.decode(next.value);
+  }
+  if (head.trim() === '') throw new ImportRefusal('The file is empty.', [EMPTY_FILE]);
+  const delimiter = detectDelimiter(head);
+  const reader = new CsvReader(delimiter);
+  const pending: CsvRecord[] = [];
+  reader.push(head, pending);
+  if (done) reader.end(pending);
+  while (pending.length > 0 && isBlankRecord(pending[0].fields)) pending.shift();
+  const headerRecord = pending.shift();
+  if (!headerRecord) throw new ImportRefusal('The file is empty.', [EMPTY_FILE]);
+  const headers = headerRecord.fields;
+  const resolved = resolveHeader(kind, headers, mapping);
+  if (resolved.errors.length) throw new ImportRefusal('The header row has problems.', resolved.errors);
+
+  const { indexByKey, nameByKey } = resolved;
+  const width = headers.length;
+  const columnName = (key: string) => nameByKey.get(key) ?? key;
+  let rowNumber = 1;
+
+  const toRows = (records: CsvRecord[]): TableRow[] => {
+    const rows: TableRow[] = [];
+    for (const record of records) {
+      rowNumber++;
+      const fields = record.fields;
+      if (isBlankRecord(fields)) continue;
+      if (record.malformed) {
+        rows.push({ row: rowNumber, error: { row: rowNumber, column: null, reason: 'Broken quoting: a quoted cell must end with a quote followed by a delimiter or a line break.' } });
+      } else if (fields.length !== width) {
+        rows.push({
+          row: rowNumber,
+          error: { row: rowNumber, column: null, reason: `This row has ${fields.length} cells; the header has ${width} (${delimiterName(delimiter)}-separated).` },
+        });
+      } else {
+        rows.push({ row: rowNumber, read: (key) => { const i = indexByKey.get(key); return i === undefined ? undefined : fields[i]; } });
+      }
+    }
+    return rows;
+  };
+
+  async function* batches(): AsyncGenerator<TableRow[]> {
+    let sawData = false;
+    const first = toRows(pending.splice(0));
+    if (first.length) {
+      sawData = true;
+      yield first;
+    }
+    while (!done) {
+      const next = await iterator.next();
+      const out: CsvRecord[] = [];
+      if (next.done) {
+        done = true;
+        reader.push(decoder.decode(new Uint8Array(0), true), out);
+        reader.end(out);
+      } else reader.push(decoder.decode(next.value), out);
+      const rows = toRows(out);
+      if (rows.length) {
+        sawData = true;
+        yield rows;
+      }
+    }
+    if (!sawData) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
+  }
+
+  return { format: 'csv', columnName, ignored: resolved.ignored, delimiter, batches };
+}
+
+/** A JSON value of one cell as the text a CSV file would hold. */
+function cellText(value: unknown): string | undefined {
+  if (value === null || value === undefined) return undefined;
+  if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'not-a-finite-number';
+  return String(value);
+}
+
+/** Rows given as JSON objects keyed by our column names (see the template README). */
+export function jsonTable(kind: ImportableKind, rows: ReadonlyArray<Record<string, unknown>>, batchSize = 1000): ImportTable {
+  if (rows.length === 0) throw new ImportRefusal('The request has no rows.', [{ row: 0, column: null, reason: 'The request has no rows.' }]);
+  const known = new Set(columnsOf(kind).map((c) => c.key));
+  async function* batches(): AsyncGenerator<TableRow[]> {
+    for (let start = 0; start < rows.length; start += batchSize) {
+      const out: TableRow[] = [];
+      for (let i = start; i < Math.min(rows.length, start + batchSize); i++) {
+        const record = rows[i];
+        const row = i + 1;
+        const unknown = Object.keys(record).find((k) => !known.has(k));
+        if (unknown) out.push({ row, error: { row, column: unknown, reason: `"${unknown}" is not a column of ${kind}.` } });
+        else out.push({ row, read: (key) => cellText(record[key]) });
+      }
+      yield out;
+    }
+  }
+  return { format: 'json', columnName: (key) => key, ignored: [], batches };
+}

@@ -1,0 +1,41 @@
+import { ENTROPY_UNITS, FREQUENCY_UNITS, type EntropyUnit, type FrequencyUnit } from '@/lib/science/units';
+import type { ImportQuantity } from './columns';
+
+const FREQUENCY_ALIASES: Record<string, FrequencyUnit> = {
+  'cm-1': 'cm-1',
+  'cm^-1': 'cm-1',
+  'cm⁻¹': 'cm-1',
+  '1/cm': 'cm-1',
+  '/cm': 'cm-1',
+  thz: 'THz',
+  mev: 'meV',
+};
+
+const ENTROPY_ALIASES: Record<string, EntropyUnit> = {
+  'j/mol/k': 'J/mol/K',
+  'j/(mol k)': 'J/mol/K',
+  'j/(mol*k)': 'J/mol/K',
+  'j mol-1 k-1': 'J/mol/K',
+  'j/mol-atom/k': 'J/mol-atom/K',
+  'kb/atom': 'kB/atom',
+  'kb/fu': 'kB/fu',
+  'cal/mol/k': 'cal/mol/K',
+};
+
+export type ImportUnit = FrequencyUnit | EntropyUnit;
+
+/** Units chosen for the whole file, used where a row has no unit. */
+export interface DefaultUnits {
+  frequency?: FrequencyUnit;
+  entropy?: EntropyUnit;
+}
+
+/** The unit code for a written unit, or null when it is not a unit of that quantity. */
+export function parseUnit(quantity: ImportQuantity, text: string): ImportUnit | null {
+  const key = text.trim().toLowerCase().replace(/\s+/g, ' ');
+  return quantity === 'frequency' ? (FREQUENCY_ALIASES[key] ?? null) : (ENTROPY_ALIASES[key] ?? null);
+}
+
+export function unitsOf(quantity: ImportQuantity): readonly string[] {
+  return quantity === 'frequency' ? FREQUENCY_UNITS : ENTROPY_UNITS;
+}

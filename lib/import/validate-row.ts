@@ -1,0 +1,252 @@
+import { convertEntropy, convertFrequency, type EntropyUnit, type FrequencyUnit } from '@/lib/science/units';
+import { irrepBranch, normalizeIrrep } from '@/lib/science/symmetry';
+import { IMPORT_QUANTITIES, type ImportableKind, type ImportQuantity } from './columns';
+import type { RowError } from './errors';
+import { notANumberReason, parseDecimal } from './numbers';
+import { parseUnit, unitsOf, type DefaultUnits, type ImportUnit } from './units';
+import {
+  ACTIVITY_VALUES,
+  BRANCH_VALUES,
+  SAMPLE_FORM_VALUES,
+  TECHNIQUE_VALUES,
+  type Activity,
+  type Branch,
+  type SampleForm,
+  type Technique,
+} from './vocabulary';
+
+/** What a row may refer to, by the handles people write in files. */
+export interface ImportReferences {
+  materials: Map<string, { id: string; atomsPerFormulaUnit: number }>;
+  sources: Map<string, string>;
+  methods: Map<string, string>;
+}
+
+/** One validated row, in canonical units, ready to store. */
+export interface ValidRow {
+  materialId: string;
+  sourceId: string;
+  methodId: string | null;
+  quantity: ImportQuantity;
+  value: number;
+  valueText: string;
+  unit: ImportUnit;
+  uncertainty: number | null;
+  uncertaintyText: string | null;
+  temperatureK: number | null;
+  irrep: string | null;
+  irrepNormalized: string | null;
+  branch: Branch | null;
+  degeneracy: number | null;
+  activity: Activity | null;
+  notes: string | null;
+  technique: Technique | null;
+  laserWavelengthNm: number | null;
+  sampleForm: SampleForm | null;
+  modeIndex: number | null;
+  /** The identifying fields joined; equal identities are "identical rows". */
+  identity: string;
+}
+
+export interface RowContext {
+  kind: ImportableKind;
+  references: ImportReferences;
+  units?: DefaultUnits;
+  /** Column key → the name to show in errors (the file's header text). */
+  columnName: (key: string) => string;
+}
+
+/** Reads one cell of the current row by column key; undefined when the column is absent. */
+export type CellReader = (key: string) => string | undefined;
+
+const enumKey = (text: string) =>
+  text
+    .trim()
+    .toLowerCase()
+    .replace(/\s*\+\s*/g, '+')
+    .replace(/[\s_]+/g, '-');
+
+function pickEnum<T extends string>(values: readonly T[], text: string): T | null {
+  const key = enumKey(text);
+  return values.find((v) => v.toLowerCase() === key) ?? null;
+}
+
+function suggest(handles: Iterable<string>, text: string): string {
+  const lower = text.toLowerCase();
+  for (const h of handles) if (h.toLowerCase() === lower) return ` Did you mean "${h}"?`;
+  return '';
+}
+
+/**
+ * Validates one row into canonical values. Returns null and appends to `errors`
+ * (one entry per bad cell, with row, column and reason) when anything is wrong.
+ */
+export function validateRow(row: number, read: CellReader, ctx: RowContext, errors: RowError[]): ValidRow | null {
+  const before = errors.length;
+  const fail = (key: string, reason: string, value?: string) => {
+    errors.push({ row, column: ctx.columnName(key), reason, ...(value !== undefined ? { value } : {}) });
+  };
+  const cell = (key: string): string => (read(key) ?? '').trim();
+
+  const number = (key: string, check?: (n: number) => string | null): { n: number; text: string } | null => {
+    const text = cell(key);
+    if (text === '') return null;
+    const n = parseDecimal(text);
+    if (n === null) {
+      fail(key, notANumberReason(text), text);
+      return null;
+    }
+    const problem = check?.(n);
+    if (problem) {
+      fail(key, problem, text);
+      return null;
+    }
+    return { n, text };
+  };
+  const wholeNumber = (key: string, min: number): number | null => {
+    const got = number(key, (n) => (Number.isInteger(n) && n >= min ? null : `must be a whole number ≥ ${min}.`));
+    return got ? got.n : null;
+  };
+  const required = (key: string): string | null => {
+    const text = cell(key);
+    if (text === '') fail(key, `"${key}" is required.`);
+    return text === '' ? null : text;
+  };
+  const choice = <T extends string>(key: string, values: readonly T[]): T | null => {
+    const text = cell(key);
+    if (text === '') return null;
+    const picked = pickEnum(values, text);
+    if (!picked) fail(key, `"${text}" is not one of ${values.join(', ')}.`, text);
+    return picked;
+  };
+
+  const refs = ctx.references;
+  const materialName = required('material');
+  const material = materialName === null ? undefined : refs.materials.get(materialName);
+  if (materialName !== null && !material) fail('material', `Unknown material "${materialName}".${suggest(refs.materials.keys(), materialName)}`, materialName);
+
+  const citeKey = required('source');
+  const sourceId = citeKey === null ? undefined : refs.sources.get(citeKey);
+  if (citeKey !== null && !sourceId) fail('source', `Unknown source "${citeKey}".${suggest(refs.sources.keys(), citeKey)}`, citeKey);
+
+  let methodId: string | null = null;
+  if (ctx.kind === 'calculations') {
+    const label = required('method');
+    methodId = label === null ? null : (refs.methods.get(label) ?? null);
+    if (label !== null && !methodId) fail('method', `Unknown method "${label}".${suggest(refs.methods.keys(), label)}`, label);
+  }
+
+  const quantityText = required('quantity');
+  const quantity = quantityText === null ? null : pickEnum(IMPORT_QUANTITIES, quantityText);
+  if (quantityText !== null && !quantity) fail('quantity', `"${quantityText}" is not one of ${IMPORT_QUANTITIES.join(', ')}.`, quantityText);
+
+  let unit: ImportUnit | null = null;
+  if (quantity) {
+    const unitText = cell('unit');
+    if (unitText !== '') {
+      unit = parseUnit(quantity, unitText);
+      if (!unit) fail('unit', `Unknown ${quantity} unit "${unitText}"; use one of ${unitsOf(quantity).join(', ')}.`, unitText);
+    } else {
+      unit = ctx.units?.[quantity] ?? null;
+      if (!unit) fail('unit', `No unit for this ${quantity}: fill the unit column or choose a unit for the whole file.`);
+    }
+  }
+
+  const isMeasurement = ctx.kind === 'measurements';
+  const valueText = required('value');
+  let raw: number | null = null;
+  if (valueText !== null) {
+    raw = parseDecimal(valueText);
+    if (raw === null) fail('value', notANumberReason(valueText), valueText);
+    else if (quantity === 'frequency' && isMeasurement && raw <= 0) {
+      fail('value', `A measured frequency must be > 0 (got ${valueText}); only calculations may carry zero or imaginary (negative) modes.`, valueText);
+      raw = null;
+    } else if (quantity === 'entropy' && raw < 0) {
+      fail('value', `An entropy cannot be negative (got ${valueText}).`, valueText);
+      raw = null;
+    }
+  }
+  const uncertainty = isMeasurement ? number('uncertainty', (n) => (n >= 0 ? null : 'An uncertainty must be ≥ 0.')) : null;
+  const temperature = number('temperature_K', (n) => (n >= 0 ? null : `A temperature cannot be below 0 K (got ${n}).`));
+  if (quantity === 'entropy' && !temperature && cell('temperature_K') === '') fail('temperature_K', 'An entropy needs its temperature (temperature_K).');
+
+  let irrep: string | null = cell('irrep') || null;
+  let irrepNormalized: string | null = null;
+  let labelBranch: Branch | undefined;
+  if (irrep) {
+    try {
+      irrepNormalized = normalizeIrrep(irrep);
+      labelBranch = irrepBranch(irrep);
+    } catch (e) {
+      fail('irrep', `"${irrep}" is not an irreducible-representation label: ${(e as Error).message}`, irrep);
+      irrep = null;
+    }
+  }
+  const branchText = cell('branch');
+  let branch: Branch | null = null;
+  if (branchText !== '' && branchText !== '-' && branchText !== '—') {
+    branch = pickEnum(BRANCH_VALUES, branchText.toUpperCase());
+    if (!branch) fail('branch', `"${branchText}" is not one of ${BRANCH_VALUES.join(', ')}.`, branchText);
+    else if (labelBranch && labelBranch !== branch) fail('branch', `Branch ${branch} contradicts the irrep label "${irrep}".`, branchText);
+  } else branch = labelBranch ?? null;
+
+  const degeneracy = wholeNumber('degeneracy', 1);
+  const activity = choice('activity', ACTIVITY_VALUES);
+  const technique = isMeasurement ? choice('technique', TECHNIQUE_VALUES) : null;
+  const sampleForm = isMeasurement ? choice('sample_form', SAMPLE_FORM_VALUES) : null;
+  const laser = isMeasurement ? number('laser_nm', (n) => (n > 0 ? null : 'A laser wavelength must be > 0 nm.')) : null;
+  const modeIndex = isMeasurement ? null : wholeNumber('mode_index', 1);
+  const notes = cell('notes') || null;
+
+  if (errors.length > before || !material || !sourceId || !quantity || !unit || raw === null || valueText === null) return null;
+
+  let value: number;
+  let uncertaintyCanonical: number | null = null;
+  if (quantity === 'frequency') {
+    value = convertFrequency(raw, unit as FrequencyUnit, 'cm-1');
+    if (uncertainty) uncertaintyCanonical = convertFrequency(uncertainty.n, unit as FrequencyUnit, 'cm-1');
+  } else {
+    value = convertEntropy(raw, unit as EntropyUnit, 'J/mol/K', material.atomsPerFormulaUnit);
+    if (uncertainty) uncertaintyCanonical = convertEntropy(uncertainty.n, unit as EntropyUnit, 'J/mol/K', material.atomsPerFormulaUnit);
+  }
+
+  const identity = [
+    ctx.kind,
+    material.id,
+    sourceId,
+    methodId ?? '',
+    quantity,
+    String(raw),
+    unit,
+    temperature ? String(temperature.n) : '',
+    irrepNormalized ?? '',
+    branch ?? '',
+    modeIndex ?? '',
+    technique ?? '',
+    sampleForm ?? '',
+  ].join('\u001f');
+
+  return {
+    materialId: material.id,
+    sourceId,
+    methodId,
+    quantity,
+    value,
+    valueText,
+    unit,
+    uncertainty: uncertaintyCanonical,
+    uncertaintyText: uncertainty ? uncertainty.text : null,
+    temperatureK: temperature ? temperature.n : null,
+    irrep,
+    irrepNormalized,
+    branch,
+    degeneracy,
+    activity,
+    notes,
+    technique,
+    laserWavelengthNm: laser ? laser.n : null,
+    sampleForm,
+    modeIndex,
+    identity,
+  };
+}
