@@ -1,0 +1,16 @@
+import { notFound } from 'next/navigation';
+import { requirePageMember } from '@/lib/session';
+import { getBenchmark } from '@/db/queries/benchmarks';
+import { getRevision } from '@/db/queries/revisions';
+import { recomputeState } from '@/lib/benchmark/recompute-queue';
+import { BenchmarkView } from '../_components/benchmark-view';
+
+export default async function BenchmarkPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
+  const { workspace, id } = await params;
+  const ctx = await requirePageMember(workspace, 'benchmarks:read');
+  const bm = await getBenchmark(ctx.workspace.id, id);
+  if (!bm) notFound();
+  const rev = await getRevision(ctx.workspace.id, bm.id);
+  const computing = recomputeState(ctx.workspace.id, bm.id) !== 'idle';
+  return <BenchmarkView bm={bm} rev={rev} workspace={ctx.workspace} role={ctx.role} computing={computing} />;
+}

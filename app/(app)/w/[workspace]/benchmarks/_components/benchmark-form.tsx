@@ -1,0 +1,175 @@
+'use client';
+import { useActionState, useEffect, useState } from 'react';
+import { useRouter } from 'next/navigation';
+import { createBenchmarkAction, updateBenchmarkAction } from '../actions';
+import { SelectField, TextField, inputClass } from '@/components/ui/field';
+import { SubmitButton } from '@/components/ui/submit-button';
+import { FormMessage } from '@/components/ui/form-message';
+import { DEFAULT_OUTLIER_THRESHOLDS, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
+import { techniqueName } from '@/lib/benchmark/describe';
+
+const RULE_NAMES: Record<(typeof OUTLIER_RULE_KINDS)[number], string> = {
+  'modified-z': 'Modified z-score |M| > threshold (Iglewicz–Hoaglin, default 3.5)',
+  tukey: 'Tukey fences, k × IQR (default 1.5)',
+  relative: '|error| / measured > threshold (e.g. 0.1 = 10 %)',
+  sigma: '|error| > threshold × combined uncertainty σ',
+};
+
+export function BenchmarkForm({
+  workspaceId,
+  benchmarkId,
+  initial,
+  options,
+}: {
+  workspaceId: string;
+  benchmarkId?: string;
+  initial: BenchmarkDefinition;
+  options: { methods: Array<{ id: string; label: string }>; materials: Array<{ id: string; name: string }>; tags: string[] };
+}) {
+  const router = useRouter();
+  const [state, action] = useActionState(benchmarkId ? updateBenchmarkAction : createBenchmarkAction, { ok: false });
+  const [quantity, setQuantity] = useState(initial.scope.quantity);
+  const [ruleKind, setRuleKind] = useState(initial.rules.outlierRule.kind);
+  const e = state.fieldErrors ?? {};
+
+  useEffect(() => {
+    const href = (state.data as { href?: string } | undefined)?.href;
+    if (state.ok && href) router.push(href);
+  }, [state, router]);
+
+  const { scope, rules, alertThresholds: alerts } = initial;
+  return (
+    <form action={action} className="max-w-3xl space-y-6">
+      <input type="hidden" name="workspaceId" value={workspaceId} />
+      {benchmarkId ? <input type="hidden" name="benchmarkId" value={benchmarkId} /> : null}
+      <fieldset className="space-y-3">
+        <legend className="text-sm font-semibold">Name and purpose</legend>
+        <TextField label="Name" name="name" defaultValue={initial.name} errors={e.name} required maxLength={120} />
+        <TextField label="Purpose" name="purpose" defaultValue={initial.purpose ?? ''} errors={e.purpose} hint="What decision this benchmark informs." />
+      </fieldset>
+
+      <fieldset className="space-y-3">
+        <legend className="text-sm font-semibold">Scope</legend>
+        <SelectField label="Quantity" name="quantity" value={quantity} onChange={(ev) => setQuantity(ev.target.value as typeof quantity)} errors={e.quantity ?? e['scope.quantity']}>
+          <option value="frequency">Γ-point mode frequency</option>
+          <option value="entropy">Vibrational entropy at T</option>
+        </SelectField>
+        {quantity === 'entropy' ? (
+          <div className="grid grid-cols-2 gap-3">
+            <TextField label="Temperature (K)" name="entropyTemperatureK" type="number" step="any" defaultValue={scope.entropyTemperatureK} errors={e.entropyTemperatureK} />
+            <TextField label="Tolerance (K)" name="entropyToleranceK" type="number" step="any" defaultValue={scope.entropyToleranceK} errors={e.entropyToleranceK} />
+          </div>
+        ) : (
+          <div className="grid grid-cols-2 gap-3">
+            <TextField label="Measured at or above (K)" name="temperatureMinK" type="number" step="any" defaultValue={scope.temperatureMinK ?? ''} errors={e.temperatureMinK} hint="Empty: no lower limit." />
+            <TextField
+              label="Measured at or below (K)"
+              name="temperatureMaxK"
+              type="number"
+              step="any"
+              defaultValue={scope.temperatureMaxK ?? ''}
+              errors={e.temperatureMaxK ?? e['scope.temperatureMaxK']}
+              hint="Empty: no upper limit. A window leaves out measurements without a temperature."
+            />
+          </div>
+        )}
+        <div>
+          <p className="text-[13px] font-medium">Techniques (none ticked: all)</p>
+          <div className="mt-1 flex flex-wrap gap-3 text-sm">
+            {SCOPE_TECHNIQUES.map((t) => (
+              <label key={t} className="inline-flex items-center gap-1.5">
+                <input type="checkbox" name="techniques" value={t} defaultChecked={scope.techniques.includes(t)} />
+                {techniqueName(t)}
+              </label>
+            ))}
+          </div>
+        </div>
+        <TextField
+          label="Material tags (comma-separated; a material needs one of them)"
+          name="materialTags"
+          defaultValue={scope.materialTags.join(', ')}
+          errors={e.materialTags}
+          hint={options.tags.length ? `Tags in this workspace: ${options.tags.join(', ')}` : 'No tags yet.'}
+        />
+        <label className="block space-y-1 text-[13px] font-medium">
+          <span>Or an explicit material list (replaces the tags)</span>
+          <select name="materialIds" multiple defaultValue={scope.materialIds} className={`${inputClass} h-28`}>
+            {options.materials.map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.name}
+              </option>
+            ))}
+          </select>
+          {e['scope.materialIds'] ? <span className="text-xs text-bad">{e['scope.materialIds'].join(' ')}</span> : null}
+        </label>
+        <div>
+          <p className="text-[13px] font-medium">Methods to compare (none ticked: all)</p>
+          <div className="mt-1 flex flex-wrap gap-3 text-sm">
+            {options.methods.map((m) => (
+              <label key={m.id} className="inline-flex items-center gap-1.5">
+                <input type="checkbox" name="methodIds" value={m.id} defaultChecked={scope.methodIds.includes(m.id)} />
+                {m.label}
+              </label>
+            ))}
+            {options.methods.length === 0 ? <span className="text-ink-muted">No methods yet.</span> : null}
+          </div>
+          {e['scope.methodIds'] ? <p className="text-xs text-bad">{e['scope.methodIds'].join(' ')}</p> : null}
+        </div>
+      </fieldset>
+
+      <fieldset className="space-y-3">
+        <legend className="text-sm font-semibold">Rules</legend>
+        <div className="grid grid-cols-2 gap-3">
+          <TextField
+            label="Pairing window (± % of the measured value)"
+            name="maxRelativeDeviationPercent"
+            type="number"
+            step="any"
+            defaultValue={rules.maxRelativeDeviation * 100}
+            errors={e.maxRelativeDeviationPercent ?? e['rules.maxRelativeDeviation']}
+          />
+          <TextField label="Ambiguity window (cm⁻¹)" name="ambiguityCm1" type="number" step="any" defaultValue={rules.ambiguityCm1} errors={e.ambiguityCm1} />
+        </div>
+        <SelectField
+          label="Outlier rule"
+          name="outlierKind"
+          value={ruleKind}
+          onChange={(ev) => setRuleKind(ev.target.value as typeof ruleKind)}
+          errors={e.outlierKind}
+        >
+          {OUTLIER_RULE_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {RULE_NAMES[k]}
+            </option>
+          ))}
+        </SelectField>
+        <TextField
+          key={ruleKind}
+          label="Outlier threshold"
+          name="outlierThreshold"
+          type="number"
+          step="any"
+          defaultValue={ruleKind === rules.outlierRule.kind ? rules.outlierRule.threshold : DEFAULT_OUTLIER_THRESHOLDS[ruleKind]}
+          errors={e.outlierThreshold ?? e['rules.outlierRule.threshold']}
+        />
+        <SelectField label="Several measurements of one mode" name="repeatedMeasurements" defaultValue={rules.repeatedMeasurements} errors={e.repeatedMeasurements}>
+          <option value="separate">Each measurement is its own pair</option>
+          <option value="weighted-mean">One pair with their uncertainty-weighted mean</option>
+        </SelectField>
+        <TextField label="Frequency band edges (cm⁻¹, comma-separated)" name="bandEdgesCm1" defaultValue={rules.bandEdgesCm1.join(', ')} errors={e.bandEdgesCm1 ?? e['rules.bandEdgesCm1']} />
+      </fieldset>
+
+      <fieldset className="space-y-3">
+        <legend className="text-sm font-semibold">Alert thresholds (defaults for watchers)</legend>
+        <div className="grid grid-cols-3 gap-3">
+          <TextField label="MAE change (cm⁻¹)" name="alertMaeCm1" type="number" step="any" defaultValue={alerts.maeCm1} errors={e.alertMaeCm1} />
+          <TextField label="MAE change (%)" name="alertMaeRelativePercent" type="number" step="any" defaultValue={alerts.maeRelative * 100} errors={e.alertMaeRelativePercent} />
+          <TextField label="N change (%)" name="alertNRelativePercent" type="number" step="any" defaultValue={alerts.nRelative * 100} errors={e.alertNRelativePercent} />
+        </div>
+      </fieldset>
+
+      <SubmitButton pendingLabel="Saving…">{benchmarkId ? 'Save and recompute' : 'Create benchmark'}</SubmitButton>
+      <FormMessage state={state} />
+    </form>
+  );
+}

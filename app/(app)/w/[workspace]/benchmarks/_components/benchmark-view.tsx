@@ -1,0 +1,341 @@
+import Link from 'next/link';
+import type { BenchmarkRecord } from '@/db/queries/benchmarks';
+import { scopeLabels } from '@/db/queries/benchmarks';
+import { importsByIds, listRevisionHistory, materialNames, pairLookups, type RevisionView } from '@/db/queries/revisions';
+import { decisionNames, listDecisions, listPins } from '@/db/queries/decisions';
+import { describeScope, techniqueName } from '@/lib/benchmark/describe';
+import { howToCite } from '@/lib/benchmark/citation';
+import { env } from '@/lib/env';
+import { roleCan, type WorkspaceRole } from '@/lib/permissions';
+import { EmptyState, Panel } from '@/components/ui/panel';
+import { Notice } from '@/components/ui/notice';
+import { buttonClass } from '@/components/ui/button';
+import { Leaderboard } from './leaderboard';
+import { BreakdownTable } from './breakdown-table';
+import { BenchmarkPlots } from './benchmark-plots';
+import { MethodComparison } from './method-comparison';
+import { RevisionHistory } from './revision-history';
+import { PairDecisionForm, RecomputeButton, RevertForm } from './decision-forms';
+import { RecomputeWatcher } from './recompute-watcher';
+import { QueryProvider } from './query-provider';
+import { fmt, signed, when } from './format';
+
+export const QUALITY_BAR_NOTE =
+  'Statistics depend on the quality and representativeness of the data; they support, and do not replace, expert judgement and peer review.';
+
+const OUTLIER_ROWS = 200;
+
+export async function BenchmarkView({
+  bm,
+  rev,
+  workspace,
+  role,
+  computing,
+}: {
+  bm: BenchmarkRecord;
+  rev: RevisionView | null;
+  workspace: { id: string; slug: string; name: string };
+  role: WorkspaceRole;
+  computing: boolean;
+}) {
+  const base = `/w/${workspace.slug}/benchmarks/${bm.id}`;
+  const api = `/api/workspaces/${workspace.id}/benchmarks/${bm.id}`;
+  const readOnly = rev !== null && !rev.isLatest;
+  const canDecide = !readOnly && roleCan(role, 'decisions:create');
+  const canRevert = !readOnly && roleCan(role, 'decisions:revert');
+  const canEdit = roleCan(role, 'benchmarks:update');
+  const labels = await scopeLabels(workspace.id, bm.scope);
+  const scopeText = describeScope(bm.scope, { methods: labels.methods.map((m) => m.label), materials: labels.materials.map((m) => m.name) });
+
+  const header = (
+    <header className="space-y-2">
+      <p className="text-xs uppercase tracking-wide text-ink-faint">
+        <Link href={`/w/${workspace.slug}/benchmarks`}>Benchmarks</Link>
+      </p>
+      <div className="flex flex-wrap items-start justify-between gap-3">
+        <div>
+          <h1>{bm.name}</h1>
+          {bm.purpose ? <p className="text-sm text-ink-muted">{bm.purpose}</p> : null}
+          <p className="text-sm text-ink-muted">Scope: {scopeText}.</p>
+        </div>
+        <div className="flex flex-wrap gap-2">
+          {canEdit ? (
+            <Link href={`${base}/edit`} className={buttonClass('secondary')}>
+              Edit scope and rules
+            </Link>
+          ) : null}
+          {canEdit && !readOnly ? <RecomputeButton workspaceId={workspace.id} benchmarkId={bm.id} /> : null}
+        </div>
+      </div>
+      {rev ? (
+        <p className="text-xs text-ink-muted">
+          Revision {rev.number} · {when(rev.createdAt)} · fingerprint sha256:{rev.fingerprint.slice(0, 16)}
+          {readOnly ? (
+            <>
+              {' '}
+              · <strong>read-only past revision</strong> · <Link href={base}>open the latest</Link>
+            </>
+          ) : null}
+        </p>
+      ) : null}
+    </header>
+  );
+
+  const watcher = !readOnly ? (
+    <QueryProvider>
+      <RecomputeWatcher key={`${rev?.number ?? 0}-${computing}`} workspaceId={workspace.id} benchmarkId={bm.id} shownRevision={rev?.number ?? null} computing={computing} />
+    </QueryProvider>
+  ) : null;
+
+  if (!rev) {
+    return (
+      <div className="space-y-6">
+        {header}
+        {watcher}
+        <EmptyState title="No revision yet">
+          {computing ? 'The first revision is being computed.' : 'Nothing has been computed for this benchmark yet. Recompute it to store its first revision.'}
+        </EmptyState>
+      </div>
+    );
+  }
+
+  const snap = rev.statistics;
+  const [lookups, history, decisions, pins] = await Promise.all([
+    pairLookups(workspace.id, snap),
+    listRevisionHistory(workspace.id, bm.id),
+    listDecisions(workspace.id, bm.id),
+    listPins(workspace.id),
+  ]);
+  const extraNames = await materialNames(
+    workspace.id,
+    snap.quality.map((q) => q.materialId).filter((id) => !lookups.materials.has(id)),
+  );
+  const materialName = (id: string) => lookups.materials.get(id)?.name ?? extraNames.get(id) ?? id.slice(0, 8);
+  const importIds = [...new Set(history.flatMap((h) => h.cause?.imports.map((i) => i.id) ?? []))];
+  const decisionIds = [...new Set(history.flatMap((h) => [...(h.cause?.decisions.added ?? []), ...(h.cause?.decisions.reverted ?? [])]))];
+  const [importRows, decisionMap] = await Promise.all([importsByIds(workspace.id, importIds), decisionNames(workspace.id, decisionIds)]);
+  const importMap = new Map(importRows.map((r) => [r.id, { fileName: r.fileName, by: r.by, status: r.status }]));
+
+  const pairByKey = new Map(snap.pairs.map((p) => [p.key, p]));
+  const methodList = [...snap.methods].sort((a, b) => a.label.localeCompare(b.label)).map((m) => ({ methodId: m.methodId, label: m.label }));
+  const methodLabel = new Map(snap.methods.map((m) => [m.methodId, m.label]));
+  const flagged = snap.pairs.filter((p) => p.outlier !== null || p.excluded !== null);
+  const scopeMethods = new Set(snap.methods.map((m) => m.methodId));
+  const activePins = pins.filter((p) => scopeMethods.has(p.methodId));
+  const url = `${env().BETTER_AUTH_URL.replace(/\/$/, '')}${base}/revisions/${rev.number}`;
+  const cite = howToCite({ workspaceName: workspace.name, benchmarkName: bm.name, revisionNumber: rev.number, fingerprint: rev.fingerprint, createdAt: rev.createdAt, url });
+  const fileStem = `${bm.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'benchmark'}-r${rev.number}`;
+  const q = `revision=${rev.number}`;
+
+  return (
+    <div className="space-y-6">
+      {header}
+      {watcher}
+      {snap.quantity === 'entropy' ? (
+        <Notice tone="warn">
+          Calorimetric (standard) entropies include electronic and anharmonic contributions; computed harmonic vibrational entropies do not. Compare with care, preferably for insulators and at
+          temperatures where anharmonicity is small.
+        </Notice>
+      ) : null}
+
+      {snap.empty ? (
+        <EmptyState title="Nothing to compare in this scope">
+          <p>{snap.empty}</p>
+          <p className="mt-2">
+            The scope asks for {scopeText}. Widen the techniques, the temperature window, the tags or the methods{canEdit ? '' : ' (a curator can)'}.
+          </p>
+        </EmptyState>
+      ) : (
+        // one query client for the plots and the comparison, so the pairs are fetched once
+        <QueryProvider>
+          <Panel title="Leaderboard">
+            <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} />
+          </Panel>
+
+          <Panel title="Plots">
+            <BenchmarkPlots
+                workspaceId={workspace.id}
+                benchmarkId={bm.id}
+                revision={rev.number}
+                fileStem={fileStem}
+                methods={snap.methods.map((m) => ({ methodId: m.methodId, label: m.label, limits: m.statistics?.blandAltman ?? null }))}
+              />
+          </Panel>
+
+          <div className="grid gap-4 xl:grid-cols-2">
+            <Panel title="Per material class">
+              <BreakdownTable rows={snap.classes} methods={methodList} groupTitle="Class (tag)" caption="Statistics per material class" />
+            </Panel>
+            {snap.quantity === 'frequency' ? (
+              <Panel title={`Per frequency band (${snap.unit})`}>
+                <BreakdownTable rows={snap.bands} methods={methodList} groupTitle="Measured band" caption="Statistics per frequency band" />
+              </Panel>
+            ) : null}
+          </div>
+
+          <Panel title="Method comparison">
+            <MethodComparison
+                workspaceId={workspace.id}
+                benchmarkId={bm.id}
+                revision={rev.number}
+                methods={methodList}
+                comparisons={snap.comparisons}
+                unit={snap.unit}
+                fileStem={fileStem}
+              />
+          </Panel>
+
+          <Panel title={`Outliers and excluded pairs (${flagged.length})`}>
+            <p className="mb-2 text-xs text-ink-muted">
+              Rule: {snap.rules.outlierRule.kind} with threshold {snap.rules.outlierRule.threshold}. Flagged pairs stay in the statistics until a curator excludes them.
+            </p>
+            {flagged.length === 0 ? (
+              <p className="text-sm text-ink-muted">No pair is flagged or excluded.</p>
+            ) : (
+              <div className="overflow-x-auto">
+                <table className="min-w-full border-collapse text-[13px]" data-testid="outliers">
+                  <thead className="border-b border-rule">
+                    <tr className="text-left text-ink-muted">
+                      <th className="px-2 py-1.5 font-medium">Pair</th>
+                      <th className="px-2 py-1.5 font-medium">Method</th>
+                      <th className="px-2 py-1.5 font-medium">Measured → calculated</th>
+                      <th className="px-2 py-1.5 font-medium">Error</th>
+                      <th className="px-2 py-1.5 font-medium">Why</th>
+                      <th className="px-2 py-1.5 font-medium">Measurement source</th>
+                      {canDecide ? <th className="px-2 py-1.5 font-medium">Decision</th> : null}
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {flagged.slice(0, OUTLIER_ROWS).map((p) => {
+                      const src = lookups.sources.get(p.sourceIds[0]);
+                      return (
+                        <tr key={p.key} id={`pair-${encodeURIComponent(p.key)}`} className="border-b border-rule/70 align-top">
+                          <td className="px-2 py-1.5">
+                            <Link href={`/w/${workspace.slug}/materials/${p.materialId}`}>{materialName(p.materialId)}</Link> {p.label ?? ''}{' '}
+                            <span className="text-xs text-ink-faint">{techniqueName(p.technique)}</span>
+                          </td>
+                          <td className="px-2 py-1.5">{methodLabel.get(p.methodId)}</td>
+                          <td className="num px-2 py-1.5">
+                            {fmt(p.measured)} → {fmt(p.calculated)}
+                          </td>
+                          <td className="num px-2 py-1.5">{signed(p.error)}</td>
+                          <td className="px-2 py-1.5">
+                            {p.excluded !== null ? <span className="text-bad">Excluded: {p.excluded}</span> : <span className="text-warn">{p.outlier}</span>}
+                          </td>
+                          <td className="px-2 py-1.5">
+                            {src ? (
+                              <>
+                                {src.citation}
+                                {src.doi ? (
+                                  <>
+                                    {' '}
+                                    <a href={`https://doi.org/${src.doi}`} rel="noreferrer noopener" target="_blank">
+                                      doi
+                                    </a>
+                                  </>
+                                ) : null}
+                              </>
+                            ) : (
+                              '—'
+                            )}
+                          </td>
+                          {canDecide ? (
+                            <td className="px-2 py-1.5">
+                              {p.excluded === null && p.measurementIds.length === 1 ? (
+                                <PairDecisionForm
+                                  pair={{
+                                    workspaceId: workspace.id,
+                                    benchmarkId: bm.id,
+                                    methodId: p.methodId,
+                                    measurementId: p.measurementIds[0],
+                                    calculationId: p.calculationIds[0] ?? null,
+                                  }}
+                                />
+                              ) : (
+                                <span className="text-xs text-ink-faint">see decisions below</span>
+                              )}
+                            </td>
+                          ) : null}
+                        </tr>
+                      );
+                    })}
+                  </tbody>
+                </table>
+                {flagged.length > OUTLIER_ROWS ? <p className="mt-1 text-xs text-ink-muted">Showing the first {OUTLIER_ROWS}; the pairs CSV lists all.</p> : null}
+              </div>
+            )}
+          </Panel>
+        </QueryProvider>
+      )}
+
+      <div className="grid gap-4 xl:grid-cols-2">
+        <Panel title={`Decisions and pins (${decisions.filter((d) => !d.revertedAt).length} in force, ${activePins.length} pins)`}>
+          {decisions.length === 0 && activePins.length === 0 ? (
+            <p className="text-sm text-ink-muted">No decision recorded yet.</p>
+          ) : (
+            <ul className="space-y-2 text-sm" data-testid="decisions">
+              {decisions.map((d) => (
+                <li key={d.id} className={d.revertedAt ? 'text-ink-faint line-through decoration-ink-faint/50' : ''}>
+                  <span className="font-medium">{d.kind}</span> {d.methodLabel ? `(${d.methodLabel})` : '(every method)'} — “{d.reason}” · {d.createdBy ?? 'unknown'}, {when(d.createdAt)}
+                  {d.revertedAt ? ` · reverted ${when(d.revertedAt)}: ${d.revertReason}` : null}
+                  {!d.revertedAt && canRevert ? <RevertForm workspaceId={workspace.id} benchmarkId={bm.id} decisionId={d.id} /> : null}
+                </li>
+              ))}
+              {activePins.map((p) => (
+                <li key={p.id}>
+                  <span className="font-medium">{p.calculationId ? 'pinned pairing' : 'no counterpart'}</span> ({p.methodLabel}) — “{p.reason}” · {p.createdBy ?? 'unknown'}, {when(p.createdAt)}
+                  {canRevert ? <RevertForm workspaceId={workspace.id} benchmarkId={bm.id} pinId={p.id} /> : null}
+                </li>
+              ))}
+            </ul>
+          )}
+        </Panel>
+        <Panel title={`Quality flags (${snap.quality.length})`}>
+          {snap.quality.length === 0 ? (
+            <p className="text-sm text-ink-muted">No calculation set in scope fails a quality check.</p>
+          ) : (
+            <ul className="max-h-72 space-y-1 overflow-y-auto text-sm">
+              {snap.quality.slice(0, 300).map((f, i) => (
+                <li key={i}>
+                  <span className={f.severity === 'error' ? 'text-bad' : 'text-warn'}>{f.code}</span> · {methodLabel.get(f.methodId)} · {materialName(f.materialId)}: {f.message}
+                </li>
+              ))}
+            </ul>
+          )}
+        </Panel>
+      </div>
+
+      <Panel title="Revision history">
+        <RevisionHistory history={history} base={base} current={rev.number} imports={importMap} decisions={decisionMap} />
+      </Panel>
+
+      <Panel title="Cite and download">
+        <div className="space-y-3 text-sm">
+          <div>
+            <p className="font-medium">How to cite this revision</p>
+            <p className="rounded-md border border-rule bg-paper px-3 py-2 font-mono text-xs" data-testid="how-to-cite">
+              {cite}
+            </p>
+          </div>
+          <div className="flex flex-wrap gap-2">
+            <a className={buttonClass('secondary')} href={`${api}/pairs?${q}&format=csv`} download>
+              Pairs (CSV)
+            </a>
+            <a className={buttonClass('secondary')} href={`${api}/bibtex?${q}`} download>
+              Sources (BibTeX)
+            </a>
+            <span className="self-center text-xs text-ink-muted">Plots download as SVG or PNG from their own buttons.</span>
+          </div>
+          <p className="text-xs text-ink-muted">
+            {snap.counts.measurements.toLocaleString('en')} measurements, {snap.counts.calculations.toLocaleString('en')} calculations, {snap.counts.materials.toLocaleString('en')} materials and{' '}
+            {snap.counts.methods} methods in scope; {snap.pairs.length.toLocaleString('en')} pairs.
+          </p>
+        </div>
+      </Panel>
+
+      <p className="border-t border-rule pt-3 text-xs text-ink-muted" data-testid="quality-bar-note">
+        {QUALITY_BAR_NOTE}
+      </p>
+    </div>
+  );
+}

@@ -1,0 +1,105 @@
+import { z } from 'zod';
+import { BENCHMARK_QUANTITIES, OUTLIER_RULE_KINDS, REPEATED_MEASUREMENT_MODES, SCOPE_TECHNIQUES, type BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
+
+const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+const optionalNumber = (label: string) =>
+  z.preprocess(blank, z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`).optional());
+const list = <T extends z.ZodType>(item: T) =>
+  z.preprocess((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v]), z.array(item)).default([]);
+const splitCommas = (v: unknown) =>
+  (Array.isArray(v) ? v : typeof v === 'string' ? [v] : [])
+    .flatMap((s: string) => s.split(','))
+    .map((s: string) => s.trim())
+    .filter(Boolean);
+const commaList = z.preprocess(splitCommas, z.array(z.string()));
+
+/** The benchmark form, flat as FormData delivers it. */
+export const benchmarkFormSchema = z.object({
+  workspaceId: z.string().min(1),
+  name: z.string().trim().min(1, 'Give the benchmark a name.').max(120, 'At most 120 characters.'),
+  purpose: z.preprocess(blank, z.string().trim().max(2000).optional()),
+  quantity: z.enum(BENCHMARK_QUANTITIES, 'Choose a quantity.'),
+  techniques: list(z.enum(SCOPE_TECHNIQUES, 'Unknown technique.')),
+  temperatureMinK: optionalNumber('The lower temperature'),
+  temperatureMaxK: optionalNumber('The upper temperature'),
+  materialTags: commaList,
+  materialIds: list(z.string().min(1)),
+  methodIds: list(z.string().min(1)),
+  entropyTemperatureK: optionalNumber('The entropy temperature'),
+  entropyToleranceK: optionalNumber('The temperature tolerance'),
+  maxRelativeDeviationPercent: optionalNumber('The pairing window'),
+  ambiguityCm1: optionalNumber('The ambiguity window'),
+  outlierKind: z.enum(OUTLIER_RULE_KINDS, 'Choose an outlier rule.'),
+  outlierThreshold: optionalNumber('The outlier threshold'),
+  repeatedMeasurements: z.enum(REPEATED_MEASUREMENT_MODES, 'Choose how repeated measurements count.'),
+  bandEdgesCm1: z.preprocess(splitCommas, z.array(z.coerce.number('Band edges must be numbers.').positive('Band edges must be positive numbers.'))),
+  alertMaeCm1: optionalNumber('The MAE alert threshold'),
+  alertMaeRelativePercent: optionalNumber('The relative MAE alert threshold'),
+  alertNRelativePercent: optionalNumber('The N alert threshold'),
+});
+export type BenchmarkForm = z.infer<typeof benchmarkFormSchema>;
+
+export const editBenchmarkFormSchema = benchmarkFormSchema.extend({ benchmarkId: z.string().min(1) });
+
+/** Form fields → a definition for createBenchmark/updateBenchmark (its schema fills the defaults). */
+export function definitionFromForm(f: BenchmarkForm): BenchmarkDefinitionInput {
+  const pct = (v: number | undefined) => (v === undefined ? undefined : v / 100);
+  return {
+    name: f.name,
+    purpose: f.purpose,
+    scope: {
+      quantity: f.quantity,
+      techniques: f.techniques,
+      temperatureMinK: f.temperatureMinK ?? null,
+      temperatureMaxK: f.temperatureMaxK ?? null,
+      materialTags: f.materialTags,
+      materialIds: f.materialIds,
+      methodIds: f.methodIds,
+      entropyTemperatureK: f.entropyTemperatureK,
+      entropyToleranceK: f.entropyToleranceK,
+    },
+    rules: {
+      maxRelativeDeviation: pct(f.maxRelativeDeviationPercent),
+      ambiguityCm1: f.ambiguityCm1,
+      outlierRule: { kind: f.outlierKind, threshold: f.outlierThreshold },
+      repeatedMeasurements: f.repeatedMeasurements,
+      bandEdgesCm1: f.bandEdgesCm1.length ? f.bandEdgesCm1 : undefined,
+    },
+    alertThresholds: { maeCm1: f.alertMaeCm1, maeRelative: pct(f.alertMaeRelativePercent), nRelative: pct(f.alertNRelativePercent) },
+  };
+}
+
+export const benchmarkIdSchema = z.object({ workspaceId: z.string().min(1), benchmarkId: z.string().min(1) });
+
+export const decisionFormSchema = z.object({
+  workspaceId: z.string().min(1),
+  benchmarkId: z.string().min(1),
+  kind: z.enum(['exclude-pair', 'exclude-measurement', 'keep'], 'Choose what to exclude.'),
+  measurementId: z.string().min(1),
+  methodId: z.preprocess(blank, z.string().min(1).optional()),
+  reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(1000),
+});
+
+export const revertDecisionFormSchema = z.object({
+  workspaceId: z.string().min(1),
+  benchmarkId: z.string().min(1),
+  decisionId: z.string().min(1),
+  reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(1000),
+});
+
+export const pinFormSchema = z.object({
+  workspaceId: z.string().min(1),
+  benchmarkId: z.string().min(1),
+  methodId: z.string().min(1),
+  measurementId: z.string().min(1),
+  /** Empty: "no counterpart". */
+  calculationId: z.preprocess(blank, z.string().min(1).optional()),
+  reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(1000),
+});
+
+export const revokePinFormSchema = z.object({
+  workspaceId: z.string().min(1),
+  benchmarkId: z.string().min(1),
+  pinId: z.string().min(1),
+  reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(1000),
+});

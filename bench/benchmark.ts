@@ -1,0 +1,226 @@
+/**
+ * Benchmark of a full benchmark recomputation on a fresh database with the
+ * high-throughput scenario (invented data): 1,500 materials, 5 methods, 30
+ * computed modes per material and method (225,000 calculations) and 6,000
+ * measurements. Times recomputeBenchmark (read the scope rows, pair, statistics
+ * with 1,000 bootstrap resamples, outliers, comparisons, quality checks, store
+ * the revision and its flags) next to a floor measured in the same run: reading
+ * the same rows (same columns) with one raw SELECT through @libsql/client.
+ * Target: recomputation ≤ 3 × floor. Then the latency of the benchmark page's
+ * JSON endpoints over 200 sequential requests, measured on the query +
+ * serialisation functions the route handlers call (the session check is left
+ * out: it needs Next's request context).
+ * Run with `npm run bench:benchmark`.
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { performance } from 'node:perf_hooks';
+
+const dir = mkdtempSync(join(tmpdir(), 'ledger-bench-'));
+process.env.DATABASE_URL = `file:${join(dir, 'bench.db')}`;
+
+const { getClient, closeDb } = await import('../db/client');
+const { migrateClient } = await import('../db/migrate');
+const { createBenchmark, getBenchmark, loadBenchmarkInput } = await import('../db/queries/benchmarks');
+const { recomputeBenchmark, getRevision, pairLookups } = await import('../db/queries/revisions');
+const { computeBenchmark } = await import('../lib/benchmark/compute');
+const { statisticsPayload } = await import('../lib/benchmark/statistics-payload');
+const { plotPoints } = await import('../lib/benchmark/pairs-export');
+const { createRandom } = await import('../lib/science');
+
+const MATERIALS = 1500;
+const METHODS = 5;
+const MODES = 30;
+const MEASUREMENTS = 6000;
+const REQUESTS = 200;
+const CHUNK = 500;
+
+const client = getClient();
+await migrateClient(client);
+
+const LABELS = [
+  { irrep: 'A1g', activity: 'raman' },
+  { irrep: 'Eg', activity: 'raman' },
+  { irrep: 'T2g', activity: 'raman' },
+  { irrep: 'A2u', activity: 'ir' },
+  { irrep: 'Eu', activity: 'ir' },
+  { irrep: 'B1u', activity: 'silent' },
+] as const;
+
+async function insertRows(table: string, columns: string[], rows: unknown[][]): Promise<void> {
+  const tx = await client.transaction('write');
+  try {
+    for (let i = 0; i < rows.length; i += CHUNK) {
+      const chunk = rows.slice(i, i + CHUNK);
+      const placeholders = chunk.map(() => `(${columns.map(() => '?').join(',')})`).join(',');
+      await tx.execute({ sql: `insert into ${table} (${columns.join(',')}) values ${placeholders}`, args: chunk.flat() as never });
+      await new Promise(setImmediate);
+    }
+    await tx.commit();
+  } finally {
+    tx.close();
+  }
+}
+
+async function buildScenario(): Promise<{ workspaceId: string; userId: string }> {
+  const random = createRandom(2024);
+  const workspaceId = crypto.randomUUID();
+  const userId = crypto.randomUUID();
+  const now = Date.now();
+  await client.execute({ sql: 'insert into organization (id, name, slug, created_at) values (?, ?, ?, ?)', args: [workspaceId, 'Bench', 'bench', now] });
+  await client.execute({
+    sql: 'insert into user (id, name, email, email_verified, created_at, updated_at) values (?, ?, ?, 1, ?, ?)',
+    args: [userId, 'Bench', 'bench@example.org', now, now],
+  });
+  const sources = Array.from({ length: 20 }, (_, i) => [crypto.randomUUID(), workspaceId, `src${i}`, 'journal-article', `Invented study ${i}`, 'Doe, J.; Roe, R.', 2000 + i]);
+  await insertRows('source', ['id', 'workspace_id', 'cite_key', 'kind', 'title', 'authors', 'year'], sources);
+  const methodBias = [-0.03, -0.01, 0, 0.015, 0.04];
+  const methods = methodBias.map((_, i) => [crypto.randomUUID(), workspaceId, `method-${i}`, 'PBEsol', JSON.stringify([8, 8, 8]), JSON.stringify([4, 4, 4])]);
+  await insertRows('method', ['id', 'workspace_id', 'label', 'functional', 'k_grid', 'q_grid'], methods);
+  const tags = ['oxide', 'halide', 'semiconductor', 'nitride'];
+  const materials: unknown[][] = [];
+  const materialTags: unknown[][] = [];
+  const measurements: unknown[][] = [];
+  const calculations: unknown[][] = [];
+  const perMaterial = MEASUREMENTS / MATERIALS;
+  for (let m = 0; m < MATERIALS; m++) {
+    const materialId = crypto.randomUUID();
+    materials.push([materialId, workspaceId, `mat-${m}`, 'AB2', 'AB2', 3, '{"A":1,"B":2}', 10]);
+    materialTags.push([materialId, workspaceId, tags[m % tags.length]]);
+    const truth = Array.from({ length: MODES - 3 }, () => ({ value: 40 + 1100 * random(), ...LABELS[(random() * LABELS.length) | 0] }));
+    const chosen = new Set<number>();
+    while (chosen.size < perMaterial) {
+      const k = (random() * truth.length) | 0;
+      if (chosen.has(k) || truth[k].activity === 'silent') continue;
+      chosen.add(k);
+      const mode = truth[k];
+      const value = mode.value + 4 * (random() - 0.5);
+      measurements.push([
+        crypto.randomUUID(), workspaceId, materialId, sources[m % sources.length][0], 'frequency', value, value.toFixed(2), 'cm-1', 1 + random(), 295,
+        random() < 0.7 ? mode.irrep : null, mode.activity === 'raman' ? 'raman' : 'ir-reflectance', `m${m}-${k}`,
+      ]);
+    }
+    methods.forEach(([methodId], i) => {
+      for (let a = 0; a < 3; a++) {
+        calculations.push([crypto.randomUUID(), workspaceId, materialId, sources[19][0], methodId, 'frequency', 0.2 * a, '0', 'cm-1', null, 'acoustic', `c${m}-${i}-a${a}`]);
+      }
+      truth.forEach((mode, k) => {
+        const value = mode.value * (1 + methodBias[i]) + 6 * (random() - 0.5);
+        calculations.push([crypto.randomUUID(), workspaceId, materialId, sources[19][0], methodId, 'frequency', value, value.toFixed(2), 'cm-1', mode.irrep, mode.activity, `c${m}-${i}-${k}`]);
+      });
+    });
+  }
+  await insertRows('material', ['id', 'workspace_id', 'name', 'formula', 'reduced_formula', 'atoms_per_formula_unit', 'element_counts', 'atoms_in_cell'], materials);
+  await insertRows('material_tag', ['material_id', 'workspace_id', 'tag'], materialTags);
+  await insertRows(
+    'measurement',
+    ['id', 'workspace_id', 'material_id', 'source_id', 'quantity', 'value', 'value_text', 'unit', 'uncertainty', 'temperature_k', 'irrep', 'technique', 'row_hash'],
+    measurements,
+  );
+  await insertRows(
+    'calculation',
+    ['id', 'workspace_id', 'material_id', 'source_id', 'method_id', 'quantity', 'value', 'value_text', 'unit', 'irrep', 'activity', 'row_hash'],
+    calculations,
+  );
+  return { workspaceId, userId };
+}
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+}
+
+function percentile(values: number[], p: number): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.ceil(p * s.length) - 1)];
+}
+
+const FLOOR_SQL = `
+select id, material_id, source_id, import_id, value, uncertainty, temperature_k, irrep, branch, technique, null as method_id, null as activity, null as degeneracy
+  from measurement where workspace_id = ?1 and quantity = 'frequency' and retracted_at is null
+union all
+select id, material_id, source_id, import_id, value, uncertainty, temperature_k, irrep, branch, null, method_id, activity, degeneracy
+  from calculation where workspace_id = ?1 and quantity = 'frequency' and retracted_at is null`;
+
+async function floorMs(workspaceId: string): Promise<{ ms: number; rows: number }> {
+  const start = performance.now();
+  const result = await client.execute({ sql: FLOOR_SQL, args: [workspaceId] });
+  return { ms: performance.now() - start, rows: result.rows.length };
+}
+
+const buildStart = performance.now();
+const { workspaceId, userId } = await buildScenario();
+console.log(`scenario built in ${((performance.now() - buildStart) / 1000).toFixed(1)} s: ${MATERIALS} materials, ${METHODS} methods, ${MATERIALS * METHODS * MODES} calculations, ${MEASUREMENTS} measurements`);
+
+const { id: benchmarkId } = await createBenchmark(workspaceId, { userId }, { name: 'High-throughput bench', scope: { quantity: 'frequency' } });
+
+// Warm-up of both paths (JIT, page cache), not timed.
+await floorMs(workspaceId);
+const bm = (await getBenchmark(workspaceId, benchmarkId))!;
+const warmInput = await loadBenchmarkInput(workspaceId, bm);
+
+const recompute: number[] = [];
+const floors: number[] = [];
+let rowsRead = 0;
+let pairs = 0;
+const measurementIds = warmInput.measurements.map((m) => m.id);
+for (let run = 0; run < 3; run++) {
+  if (run > 0) {
+    // change one row so the fingerprint differs and a new revision is stored
+    await client.execute({ sql: 'update measurement set value = value + 0.5 where id = ?', args: [measurementIds[run]] });
+  }
+  const f = await floorMs(workspaceId);
+  floors.push(f.ms);
+  rowsRead = f.rows;
+  const start = performance.now();
+  const result = await recomputeBenchmark(workspaceId, benchmarkId, [{ trigger: 'manual' }]);
+  recompute.push(performance.now() - start);
+  if (!result.created) throw new Error('expected a new revision');
+}
+
+const loadStart = performance.now();
+const input = await loadBenchmarkInput(workspaceId, bm);
+const loadMs = performance.now() - loadStart;
+const computeStart = performance.now();
+const snapshot = computeBenchmark(input);
+const computeMs = performance.now() - computeStart;
+pairs = snapshot.pairs.length;
+
+const recomputeMs = median(recompute);
+const floor = median(floors);
+console.log('');
+console.log(`rows read per recomputation   ${rowsRead.toLocaleString('en')} (floor: one raw SELECT of the same columns)`);
+console.log(`pairs                         ${pairs.toLocaleString('en')}`);
+console.log(`floor (raw SELECT)            ${floor.toFixed(0)} ms (median of 3)`);
+console.log(`full recomputation            ${recomputeMs.toFixed(0)} ms (median of 3; runs ${recompute.map((r) => r.toFixed(0)).join(', ')} ms)`);
+console.log(`  of which: read ${loadMs.toFixed(0)} ms, compute ${computeMs.toFixed(0)} ms (separate run), the rest fingerprint + store`);
+console.log(`ratio                         ${(recomputeMs / floor).toFixed(2)} × floor (target ≤ 3 ×) ${recomputeMs / floor <= 3 ? 'PASS' : 'MISS'}`);
+
+async function latency(label: string, fn: () => Promise<string>) {
+  const times: number[] = [];
+  let bytes = 0;
+  for (let i = 0; i < REQUESTS; i++) {
+    const start = performance.now();
+    bytes = (await fn()).length;
+    times.push(performance.now() - start);
+  }
+  console.log(
+    `${label.padEnd(30)}first ${times[0].toFixed(1)} ms, median ${median(times).toFixed(2)} ms, p99 ${percentile(times, 0.99).toFixed(2)} ms over ${REQUESTS} sequential requests (${(bytes / 1024).toFixed(0)} KiB)`,
+  );
+}
+
+console.log('');
+console.log('JSON endpoints, measured on the query + serialisation functions of the route handlers (session check excluded):');
+await latency('GET …/statistics', async () => {
+  const revision = await getRevision(workspaceId, benchmarkId);
+  return JSON.stringify(statisticsPayload({ id: bm.id, name: bm.name }, revision, false));
+});
+await latency('GET …/pairs (plot points)', async () => {
+  const revision = (await getRevision(workspaceId, benchmarkId))!;
+  const lookups = await pairLookups(workspaceId, revision.statistics);
+  return JSON.stringify({ revision: revision.number, unit: revision.statistics.unit, points: plotPoints(revision.statistics, lookups) });
+});
+
+closeDb();
+rmSync(dir, { recursive: true, force: true });

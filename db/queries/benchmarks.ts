@@ -1,0 +1,374 @@
+import 'server-only';
+import { and, asc, eq, gte, inArray, isNotNull, isNull, lte, or, sql, type SQL } from 'drizzle-orm';
+import { db, type Executor } from '@/db/client';
+import {
+  benchmark,
+  calculation,
+  decision,
+  material,
+  materialTag,
+  measurement,
+  method,
+  pairPin,
+  revision,
+  workspaceSettings,
+  type Benchmark,
+} from '@/db/schema';
+import { AppError } from '@/lib/errors';
+import {
+  benchmarkDefinitionSchema,
+  readAlertThresholds,
+  readRules,
+  readScope,
+  type BenchmarkDefinition,
+  type BenchmarkDefinitionInput,
+  type BenchmarkScope,
+} from '@/lib/benchmark/schemas';
+import type { BenchmarkInput, ScopeDecision } from '@/lib/benchmark/types';
+import { writeAudit, type Actor } from './audit';
+
+/** A benchmark with its scope, rules and thresholds parsed (defaults filled). */
+export type BenchmarkRecord = Omit<Benchmark, 'scope' | 'rules' | 'alertThresholds'> & BenchmarkDefinition;
+
+function parseRow(row: Benchmark): BenchmarkRecord {
+  return {
+    ...row,
+    purpose: row.purpose ?? undefined,
+    scope: readScope(row.scope),
+    rules: readRules(row.rules),
+    alertThresholds: readAlertThresholds(row.alertThresholds),
+  } as BenchmarkRecord;
+}
+
+/** One live benchmark of this workspace, or null (an id of another workspace is null too). */
+export async function getBenchmark(workspaceId: string, benchmarkId: string, executor: Executor = db): Promise<BenchmarkRecord | null> {
+  const rows = await executor
+    .select()
+    .from(benchmark)
+    .where(and(eq(benchmark.workspaceId, workspaceId), eq(benchmark.id, benchmarkId), isNull(benchmark.retractedAt)))
+    .limit(1);
+  return rows[0] ? parseRow(rows[0]) : null;
+}
+
+export async function requireBenchmark(workspaceId: string, benchmarkId: string, executor: Executor = db): Promise<BenchmarkRecord> {
+  const found = await getBenchmark(workspaceId, benchmarkId, executor);
+  if (!found) throw new AppError('not-found', 'No such benchmark in this workspace.');
+  return found;
+}
+
+/** Refuses method or material ids that are not live rows of this workspace (404: they reveal nothing). */
+async function checkScopeIds(executor: Executor, workspaceId: string, scope: BenchmarkScope): Promise<void> {
+  if (scope.methodIds.length) {
+    const found = await executor
+      .select({ id: method.id })
+      .from(method)
+      .where(and(eq(method.workspaceId, workspaceId), inArray(method.id, scope.methodIds), isNull(method.retractedAt)));
+    if (found.length !== new Set(scope.methodIds).size) throw new AppError('not-found', 'A method of the scope does not exist in this workspace.', [{ path: 'scope.methodIds' }]);
+  }
+  if (scope.materialIds.length) {
+    const found = await executor
+      .select({ id: material.id })
+      .from(material)
+      .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scope.materialIds), isNull(material.retractedAt)));
+    if (found.length !== new Set(scope.materialIds).size) throw new AppError('not-found', 'A material of the scope does not exist in this workspace.', [{ path: 'scope.materialIds' }]);
+  }
+}
+
+function parseDefinition(input: BenchmarkDefinitionInput): BenchmarkDefinition {
+  const parsed = benchmarkDefinitionSchema.safeParse(input);
+  if (!parsed.success) {
+    const where = parsed.error.issues.map((i) => `${i.path.join('.') || 'definition'}: ${i.message}`).join('; ');
+    throw new AppError('bad-request', `Invalid benchmark definition (${where}).`, parsed.error.issues);
+  }
+  return parsed.data;
+}
+
+/**
+ * Creates a benchmark (no request context needed: the seed calls it with an explicit
+ * workspace and actor). It computes nothing: call recomputeBenchmark or scheduleRecompute.
+ */
+export async function createBenchmark(workspaceId: string, actor: Actor, input: BenchmarkDefinitionInput): Promise<{ id: string }> {
+  const def = parseDefinition(input);
+  return db.transaction(async (tx) => {
+    await checkScopeIds(tx, workspaceId, def.scope);
+    const [row] = await tx
+      .insert(benchmark)
+      .values({
+        workspaceId,
+        name: def.name,
+        purpose: def.purpose ?? null,
+        quantity: def.scope.quantity,
+        scope: def.scope,
+        rules: def.rules,
+        alertThresholds: def.alertThresholds,
+        createdBy: actor.userId,
+      })
+      .returning({ id: benchmark.id });
+    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'benchmark', entityId: row.id, after: def });
+    return row;
+  });
+}
+
+export async function updateBenchmark(workspaceId: string, actor: Actor, benchmarkId: string, input: BenchmarkDefinitionInput): Promise<void> {
+  const def = parseDefinition(input);
+  await db.transaction(async (tx) => {
+    const before = await requireBenchmark(workspaceId, benchmarkId, tx);
+    await checkScopeIds(tx, workspaceId, def.scope);
+    await tx
+      .update(benchmark)
+      .set({
+        name: def.name,
+        purpose: def.purpose ?? null,
+        quantity: def.scope.quantity,
+        scope: def.scope,
+        rules: def.rules,
+        alertThresholds: def.alertThresholds,
+        updatedAt: new Date(),
+      })
+      .where(and(eq(benchmark.workspaceId, workspaceId), eq(benchmark.id, benchmarkId)));
+    await writeAudit(tx, {
+      workspaceId,
+      actor,
+      action: 'update',
+      entityType: 'benchmark',
+      entityId: benchmarkId,
+      before: { name: before.name, purpose: before.purpose, scope: before.scope, rules: before.rules, alertThresholds: before.alertThresholds },
+      after: def,
+    });
+  });
+}
+
+/** Live benchmarks of a workspace with the headline of their latest ready revision. */
+export async function listBenchmarks(workspaceId: string) {
+  const rows = await db
+    .select({ id: benchmark.id, name: benchmark.name, purpose: benchmark.purpose, quantity: benchmark.quantity, createdAt: benchmark.createdAt })
+    .from(benchmark)
+    .where(and(eq(benchmark.workspaceId, workspaceId), isNull(benchmark.retractedAt)))
+    .orderBy(asc(benchmark.name));
+  if (rows.length === 0) return [];
+  const latest = await db
+    .select({
+      benchmarkId: revision.benchmarkId,
+      number: revision.number,
+      createdAt: revision.createdAt,
+      methods: sql<string | null>`json_extract(${revision.statistics}, '$.methods')`,
+    })
+    .from(revision)
+    .where(
+      and(
+        eq(revision.workspaceId, workspaceId),
+        eq(revision.status, 'ready'),
+        sql`${revision.number} = (select max(r2.number) from ${revision} r2 where r2.benchmark_id = ${revision.benchmarkId} and r2.status = 'ready')`,
+      ),
+    );
+  const byBenchmark = new Map(latest.map((r) => [r.benchmarkId, r]));
+  return rows.map((b) => {
+    const r = byBenchmark.get(b.id);
+    const methods = r?.methods ? (JSON.parse(r.methods) as Array<{ label: string; n: number; rank: number | null; statistics: { meanAbsoluteError: number } | null }>) : [];
+    const best = methods.find((m) => m.rank === 1);
+    return {
+      ...b,
+      revisionNumber: r?.number ?? null,
+      revisionAt: r?.createdAt ?? null,
+      methodCount: methods.length,
+      pairCount: methods.reduce((s, m) => s + m.n, 0),
+      best: best ? { label: best.label, mae: best.statistics!.meanAbsoluteError, n: best.n } : null,
+    };
+  });
+}
+
+export async function listBenchmarkIds(workspaceId: string): Promise<string[]> {
+  const rows = await db
+    .select({ id: benchmark.id })
+    .from(benchmark)
+    .where(and(eq(benchmark.workspaceId, workspaceId), isNull(benchmark.retractedAt)));
+  return rows.map((r) => r.id);
+}
+
+/** The measurement rows a scope selects (live rows of live materials of this workspace). */
+function measurementScope(workspaceId: string, scope: BenchmarkScope): SQL {
+  const conditions: Array<SQL | undefined> = [
+    eq(measurement.workspaceId, workspaceId),
+    isNull(measurement.retractedAt),
+    eq(measurement.quantity, scope.quantity),
+    inArray(
+      measurement.materialId,
+      db.select({ id: material.id }).from(material).where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
+    ),
+  ];
+  if (scope.techniques.length) conditions.push(inArray(measurement.technique, scope.techniques));
+  if (scope.quantity === 'entropy') {
+    conditions.push(gte(measurement.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
+    conditions.push(lte(measurement.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
+  } else {
+    if (scope.temperatureMinK !== null) conditions.push(gte(measurement.temperatureK, scope.temperatureMinK));
+    if (scope.temperatureMaxK !== null) conditions.push(lte(measurement.temperatureK, scope.temperatureMaxK));
+    if (scope.temperatureMinK !== null || scope.temperatureMaxK !== null) conditions.push(isNotNull(measurement.temperatureK));
+  }
+  if (scope.materialIds.length) conditions.push(inArray(measurement.materialId, scope.materialIds));
+  else if (scope.materialTags.length) {
+    conditions.push(
+      inArray(
+        measurement.materialId,
+        db
+          .select({ id: materialTag.materialId })
+          .from(materialTag)
+          .where(and(eq(materialTag.workspaceId, workspaceId), inArray(materialTag.tag, scope.materialTags))),
+      ),
+    );
+  }
+  return and(...conditions)!;
+}
+
+/** Materials with at least one measurement in scope. */
+function materialsInScope(workspaceId: string, scope: BenchmarkScope) {
+  return db.selectDistinct({ id: measurement.materialId }).from(measurement).where(measurementScope(workspaceId, scope));
+}
+
+/**
+ * Reads every row a benchmark needs, one query per table, each restricted to the
+ * scope (this workspace, live rows, the scope's quantity, techniques, temperatures,
+ * materials and methods): never a whole table.
+ */
+export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecord): Promise<BenchmarkInput> {
+  const { scope, rules } = bm;
+  const methodWhere = and(
+    eq(method.workspaceId, workspaceId),
+    isNull(method.retractedAt),
+    scope.methodIds.length ? inArray(method.id, scope.methodIds) : undefined,
+  );
+  const methodIds = db.select({ id: method.id }).from(method).where(methodWhere);
+  const scopedMaterials = materialsInScope(workspaceId, scope);
+
+  const calculationWhere: Array<SQL | undefined> = [
+    eq(calculation.workspaceId, workspaceId),
+    isNull(calculation.retractedAt),
+    eq(calculation.quantity, scope.quantity),
+    inArray(calculation.methodId, methodIds),
+    inArray(calculation.materialId, scopedMaterials),
+  ];
+  if (scope.quantity === 'entropy') {
+    calculationWhere.push(gte(calculation.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
+    calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
+  }
+
+  const [measurements, calculations, materials, tags, methods, pins, decisions, settings] = await Promise.all([
+    db
+      .select({
+        id: measurement.id,
+        materialId: measurement.materialId,
+        sourceId: measurement.sourceId,
+        importId: measurement.importId,
+        value: measurement.value,
+        uncertainty: measurement.uncertainty,
+        temperatureK: measurement.temperatureK,
+        irrep: measurement.irrep,
+        branch: measurement.branch,
+        technique: measurement.technique,
+      })
+      .from(measurement)
+      .where(measurementScope(workspaceId, scope)),
+    db
+      .select({
+        id: calculation.id,
+        materialId: calculation.materialId,
+        methodId: calculation.methodId,
+        sourceId: calculation.sourceId,
+        importId: calculation.importId,
+        value: calculation.value,
+        uncertainty: calculation.uncertainty,
+        temperatureK: calculation.temperatureK,
+        irrep: calculation.irrep,
+        branch: calculation.branch,
+        activity: calculation.activity,
+        degeneracy: calculation.degeneracy,
+      })
+      .from(calculation)
+      .where(and(...calculationWhere)),
+    db
+      .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell })
+      .from(material)
+      .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scopedMaterials))),
+    db
+      .select({ materialId: materialTag.materialId, tag: materialTag.tag })
+      .from(materialTag)
+      .where(and(eq(materialTag.workspaceId, workspaceId), inArray(materialTag.materialId, scopedMaterials))),
+    db.select({ id: method.id, label: method.label, kGrid: method.kGrid, qGrid: method.qGrid }).from(method).where(methodWhere),
+    db
+      .select({ id: pairPin.id, methodId: pairPin.methodId, measurementId: pairPin.measurementId, calculationId: pairPin.calculationId, reason: pairPin.reason })
+      .from(pairPin)
+      .where(and(eq(pairPin.workspaceId, workspaceId), isNull(pairPin.revokedAt), inArray(pairPin.methodId, methodIds))),
+    db
+      .select({
+        id: decision.id,
+        kind: decision.kind,
+        measurementId: decision.measurementId,
+        methodId: decision.methodId,
+        reason: decision.reason,
+        createdBy: decision.createdBy,
+        createdAt: decision.createdAt,
+      })
+      .from(decision)
+      .where(
+        and(
+          eq(decision.workspaceId, workspaceId),
+          isNull(decision.revertedAt),
+          or(eq(decision.benchmarkId, bm.id), isNull(decision.benchmarkId)),
+        ),
+      ),
+    db.select().from(workspaceSettings).where(eq(workspaceSettings.workspaceId, workspaceId)).limit(1),
+  ]);
+
+  const tagsByMaterial = new Map<string, string[]>();
+  for (const t of tags) (tagsByMaterial.get(t.materialId) ?? tagsByMaterial.set(t.materialId, []).get(t.materialId)!).push(t.tag);
+  const s = settings[0];
+  return {
+    quantity: scope.quantity,
+    rules,
+    measurements,
+    calculations,
+    materials: materials.map((m) => ({ ...m, tags: (tagsByMaterial.get(m.id) ?? []).sort() })),
+    methods,
+    pins,
+    decisions: decisions.map((d): ScopeDecision => ({ ...d, createdAt: d.createdAt.getTime() })),
+    qualityThresholds: s
+      ? {
+          kPointsPerReciprocalAtom: s.kPointsPerReciprocalAtom,
+          acousticCm1: s.acousticCm1,
+          imaginaryCm1: s.imaginaryCm1,
+          bornNeutrality: s.bornNeutrality,
+          lstRelative: s.lstRelative,
+        }
+      : undefined,
+    entropyWindow: scope.quantity === 'entropy' ? { temperatureK: scope.entropyTemperatureK, toleranceK: scope.entropyToleranceK } : undefined,
+  };
+}
+
+/** Names used to describe a scope in words (empty state, header). */
+export async function scopeLabels(workspaceId: string, scope: BenchmarkScope) {
+  const [methods, materials] = await Promise.all([
+    scope.methodIds.length
+      ? db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), inArray(method.id, scope.methodIds)))
+      : Promise.resolve([]),
+    scope.materialIds.length
+      ? db.select({ id: material.id, name: material.name }).from(material).where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scope.materialIds)))
+      : Promise.resolve([]),
+  ]);
+  return { methods, materials };
+}
+
+/** Choices for the benchmark form: live methods, materials and tags of the workspace. */
+export async function benchmarkFormOptions(workspaceId: string) {
+  const [methods, materials, tags] = await Promise.all([
+    db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), isNull(method.retractedAt))).orderBy(asc(method.label)),
+    db
+      .select({ id: material.id, name: material.name })
+      .from(material)
+      .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt)))
+      .orderBy(asc(material.name))
+      .limit(2000),
+    db.selectDistinct({ tag: materialTag.tag }).from(materialTag).where(eq(materialTag.workspaceId, workspaceId)).orderBy(asc(materialTag.tag)),
+  ]);
+  return { methods, materials, tags: tags.map((t) => t.tag) };
+}
+

@@ -1,0 +1,32 @@
+/** A benchmark's scope in words, for the header and the empty state. */
+import type { BenchmarkScope } from './schemas';
+
+const TECHNIQUE_NAMES: Record<string, string> = {
+  raman: 'Raman',
+  'ir-reflectance': 'IR reflectance',
+  'ir-absorption': 'IR absorption',
+  ins: 'INS',
+  'hyper-raman': 'hyper-Raman',
+  calorimetry: 'calorimetry',
+};
+
+export function techniqueName(t: string | null): string {
+  return t ? (TECHNIQUE_NAMES[t] ?? t) : '—';
+}
+
+export function describeScope(scope: BenchmarkScope, names: { methods: string[]; materials: string[] }): string {
+  const parts: string[] = [];
+  parts.push(scope.quantity === 'frequency' ? 'Γ-point frequencies' : `vibrational entropies at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`);
+  if (scope.techniques.length) parts.push(`measured by ${scope.techniques.map(techniqueName).join(' or ')}`);
+  if (scope.quantity === 'frequency') {
+    const { temperatureMinK: lo, temperatureMaxK: hi } = scope;
+    if (lo !== null && hi !== null) parts.push(`between ${lo} and ${hi} K`);
+    else if (lo !== null) parts.push(`at ${lo} K or above`);
+    else if (hi !== null) parts.push(`at ${hi} K or below`);
+  }
+  if (scope.materialIds.length) parts.push(`for ${names.materials.length ? names.materials.join(', ') : `${scope.materialIds.length} listed materials`}`);
+  else if (scope.materialTags.length) parts.push(`for materials tagged ${scope.materialTags.join(' or ')}`);
+  else parts.push('for every material');
+  parts.push(scope.methodIds.length ? `under ${names.methods.join(', ') || `${scope.methodIds.length} methods`}` : 'under every method');
+  return parts.join(' ');
+}

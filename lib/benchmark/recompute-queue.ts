@@ -1,0 +1,122 @@
+import 'server-only';
+/**
+ * In-process background queue of benchmark recomputations.
+ *
+ * scheduleRecompute returns at once (it never blocks an import or an action);
+ * each benchmark waits RECOMPUTE_DEBOUNCE_MS after its last request, so a burst
+ * of imports produces one recomputation, and runs one job at a time. Causes
+ * reported while it waits are handed to the job and stored with the revision.
+ *
+ * State is kept in memory (on globalThis, shared by every route of this process),
+ * not as a 'computing' revision row: a crash then leaves no stale row behind, and
+ * the next change or an explicit "recompute" brings the benchmark up to date.
+ * `recomputeState` tells the page that a newer revision is being computed.
+ */
+import { listBenchmarkIds } from '@/db/queries/benchmarks';
+import { recomputeBenchmark, type RecomputeCause } from '@/db/queries/revisions';
+
+export type RecomputeState = 'idle' | 'queued' | 'running';
+
+interface Job {
+  workspaceId: string;
+  benchmarkId: string;
+  timer: ReturnType<typeof setTimeout> | null;
+  running: Promise<void> | null;
+  causes: RecomputeCause[];
+  lastError: string | null;
+}
+
+const store = globalThis as unknown as { ledgerRecomputeJobs?: Map<string, Job>; ledgerRecomputeListings?: Map<string, number> };
+const jobs = (store.ledgerRecomputeJobs ??= new Map<string, Job>());
+/** Workspaces whose benchmark list is being read before their jobs are queued. */
+const listings = (store.ledgerRecomputeListings ??= new Map<string, number>());
+
+function debounceMs(): number {
+  const value = Number(process.env.RECOMPUTE_DEBOUNCE_MS);
+  return Number.isFinite(value) && value >= 0 ? value : 1500;
+}
+
+function key(workspaceId: string, benchmarkId: string): string {
+  return `${workspaceId}|${benchmarkId}`;
+}
+
+function start(job: Job): void {
+  job.timer = null;
+  if (job.running) return;
+  const causes = job.causes.splice(0);
+  job.running = recomputeBenchmark(job.workspaceId, job.benchmarkId, causes.length ? causes : [{ trigger: 'data-change' }])
+    .then(() => {
+      job.lastError = null;
+    })
+    .catch((error: unknown) => {
+      job.lastError = error instanceof Error ? error.message : String(error);
+      console.error(`benchmark ${job.benchmarkId}: recomputation failed`, error);
+    })
+    .finally(() => {
+      job.running = null;
+      if (job.causes.length > 0) arm(job);
+      else if (!job.timer) jobs.delete(key(job.workspaceId, job.benchmarkId));
+    });
+}
+
+function arm(job: Job, delayMs = debounceMs()): void {
+  if (job.timer) clearTimeout(job.timer);
+  job.timer = setTimeout(() => start(job), delayMs);
+  job.timer.unref?.();
+}
+
+/**
+ * Queues a recomputation of these benchmarks (all of the workspace when omitted);
+ * returns immediately. A curator's decision passes delayMs 0: there is no burst to wait for.
+ */
+export function scheduleRecompute(
+  workspaceId: string,
+  benchmarkIds?: string[],
+  cause: RecomputeCause = { trigger: 'data-change' },
+  delayMs?: number,
+): void {
+  if (!benchmarkIds) {
+    listings.set(workspaceId, (listings.get(workspaceId) ?? 0) + 1);
+    listBenchmarkIds(workspaceId)
+      .then((ids) => scheduleRecompute(workspaceId, ids, cause, delayMs))
+      .catch((error: unknown) => console.error('could not list benchmarks to recompute', error))
+      .finally(() => {
+        const left = (listings.get(workspaceId) ?? 1) - 1;
+        if (left > 0) listings.set(workspaceId, left);
+        else listings.delete(workspaceId);
+      });
+    return;
+  }
+  for (const benchmarkId of benchmarkIds) {
+    const k = key(workspaceId, benchmarkId);
+    let job = jobs.get(k);
+    if (!job) jobs.set(k, (job = { workspaceId, benchmarkId, timer: null, running: null, causes: [], lastError: null }));
+    job.causes.push(cause);
+    arm(job, delayMs);
+  }
+}
+
+/** For the import pipeline, after a commit or an undo: every benchmark of the workspace. */
+export function scheduleRecomputeForWorkspace(workspaceId: string, cause: RecomputeCause): void {
+  scheduleRecompute(workspaceId, undefined, cause);
+}
+
+export function recomputeState(workspaceId: string, benchmarkId: string): RecomputeState {
+  const job = jobs.get(key(workspaceId, benchmarkId));
+  if (!job) return 'idle';
+  return job.running ? 'running' : 'queued';
+}
+
+/** Resolves when no job of this benchmark (or of any, when omitted) is queued or running: for tests and scripts. */
+export async function whenRecomputeIdle(workspaceId?: string, benchmarkId?: string, timeoutMs = 60_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const pending = [...jobs.values()].filter(
+      (j) => (!workspaceId || j.workspaceId === workspaceId) && (!benchmarkId || j.benchmarkId === benchmarkId),
+    );
+    const listing = workspaceId ? listings.has(workspaceId) : listings.size > 0;
+    if (pending.length === 0 && !listing) return;
+    if (Date.now() > deadline) throw new Error('recomputation did not finish in time');
+    await new Promise((resolve) => setTimeout(resolve, 10));
+  }
+}

@@ -1,0 +1,105 @@
+/**
+ * Benchmark definition: scope (which rows), rules (how to pair and flag) and
+ * alert thresholds, each a zod schema whose defaults make `{}` a valid value.
+ */
+import { z } from 'zod';
+
+/** Quantities a benchmark can compare. */
+export const BENCHMARK_QUANTITIES = ['frequency', 'entropy'] as const;
+export type BenchmarkQuantity = (typeof BENCHMARK_QUANTITIES)[number];
+
+/** Measurement techniques as stored on measurement rows. */
+export const SCOPE_TECHNIQUES = ['raman', 'ir-reflectance', 'ir-absorption', 'ins', 'hyper-raman', 'calorimetry'] as const;
+
+export const OUTLIER_RULE_KINDS = ['modified-z', 'tukey', 'relative', 'sigma'] as const;
+export const REPEATED_MEASUREMENT_MODES = ['separate', 'weighted-mean'] as const;
+
+/** Default outlier thresholds per rule (modified z: Iglewicz–Hoaglin 3.5; Tukey: inner fence k = 1.5). */
+export const DEFAULT_OUTLIER_THRESHOLDS: Record<(typeof OUTLIER_RULE_KINDS)[number], number> = {
+  'modified-z': 3.5,
+  tukey: 1.5,
+  relative: 0.1,
+  sigma: 3,
+};
+
+const id = z.string().min(1).max(100);
+
+export const scopeSchema = z
+  .object({
+    quantity: z.enum(BENCHMARK_QUANTITIES).default('frequency'),
+    /** Empty: every technique. */
+    techniques: z.array(z.enum(SCOPE_TECHNIQUES)).max(SCOPE_TECHNIQUES.length).default([]),
+    /** Temperature window of the measurements, K; null = open. A window excludes measurements without a temperature. */
+    temperatureMinK: z.number().min(0).nullable().default(null),
+    temperatureMaxK: z.number().positive().nullable().default(null),
+    /** Material tags (material classes); a material in scope carries at least one. Empty: no tag filter. */
+    materialTags: z.array(z.string().trim().toLowerCase().min(1).max(60)).max(50).default([]),
+    /** An explicit material list; when given it replaces the tag filter. */
+    materialIds: z.array(id).max(5000).default([]),
+    /** Methods to compare; empty: every method of the workspace. */
+    methodIds: z.array(id).max(100).default([]),
+    /** Entropy benchmarks: the temperature at which measured and computed entropies are compared. */
+    entropyTemperatureK: z.number().positive().default(298.15),
+    /** Entropy benchmarks: largest |T − entropyTemperatureK| of a row still compared. */
+    entropyToleranceK: z.number().min(0).default(1),
+  })
+  .refine((s) => s.temperatureMinK === null || s.temperatureMaxK === null || s.temperatureMinK <= s.temperatureMaxK, {
+    message: 'The lower temperature must not exceed the upper one.',
+    path: ['temperatureMaxK'],
+  });
+
+export const outlierRuleSchema = z.object({
+  kind: z.enum(OUTLIER_RULE_KINDS).default('modified-z'),
+  threshold: z.number().positive().default(DEFAULT_OUTLIER_THRESHOLDS['modified-z']),
+});
+
+export const rulesSchema = z.object({
+  /** Largest |ω − ν|/ν that may pair (pairModes default 0.25). */
+  maxRelativeDeviation: z.number().positive().max(1).default(0.25),
+  /** Ambiguity window, cm⁻¹ and relative (pairModes defaults 2 and 0.01). */
+  ambiguityCm1: z.number().min(0).default(2),
+  ambiguityRelative: z.number().min(0).max(1).default(0.01),
+  outlierRule: outlierRuleSchema.prefault({}),
+  /** Several measurements of one mode: a pair each, or one pair with their uncertainty-weighted mean. */
+  repeatedMeasurements: z.enum(REPEATED_MEASUREMENT_MODES).default('separate'),
+  bootstrapSamples: z.number().int().min(0).max(10000).default(1000),
+  /** Upper edges of the frequency bands of the breakdown, cm⁻¹, ascending. */
+  bandEdgesCm1: z
+    .array(z.number().positive())
+    .max(10)
+    .default([200, 500, 1000])
+    .refine((edges) => edges.every((e, i) => i === 0 || e > edges[i - 1]), 'Band edges must increase.'),
+});
+
+/** Defaults of a watch on this benchmark (the watch issue reads them; units of detectShift). */
+export const alertThresholdsSchema = z.object({
+  maeCm1: z.number().positive().default(0.5),
+  maeRelative: z.number().positive().default(0.05),
+  nRelative: z.number().positive().default(0.1),
+});
+
+export type BenchmarkScope = z.infer<typeof scopeSchema>;
+export type BenchmarkRules = z.infer<typeof rulesSchema>;
+export type AlertThresholds = z.infer<typeof alertThresholdsSchema>;
+
+/** A full definition as stored; `{}` parts take their defaults. */
+export const benchmarkDefinitionSchema = z.object({
+  name: z.string().trim().min(1, 'Give the benchmark a name.').max(120),
+  purpose: z.string().trim().max(2000).optional(),
+  scope: scopeSchema.prefault({}),
+  rules: rulesSchema.prefault({}),
+  alertThresholds: alertThresholdsSchema.prefault({}),
+});
+export type BenchmarkDefinition = z.infer<typeof benchmarkDefinitionSchema>;
+export type BenchmarkDefinitionInput = z.input<typeof benchmarkDefinitionSchema>;
+
+/** Reads stored JSON, filling defaults (rows written by an older version stay readable). */
+export function readScope(value: unknown): BenchmarkScope {
+  return scopeSchema.parse(value ?? {});
+}
+export function readRules(value: unknown): BenchmarkRules {
+  return rulesSchema.parse(value ?? {});
+}
+export function readAlertThresholds(value: unknown): AlertThresholds {
+  return alertThresholdsSchema.parse(value ?? {});
+}

@@ -1,0 +1,71 @@
+import { describe, expect, it } from 'vitest';
+import { alertThresholdsSchema, benchmarkDefinitionSchema, readRules, rulesSchema, scopeSchema } from '@/lib/benchmark/schemas';
+import { csvCell, toCsv } from '@/lib/benchmark/csv';
+import { bandOf } from '@/lib/benchmark/compute';
+
+describe('benchmark scope and rules', () => {
+  it('fills every default from an empty object', () => {
+    expect(scopeSchema.parse({})).toEqual({
+      quantity: 'frequency',
+      techniques: [],
+      temperatureMinK: null,
+      temperatureMaxK: null,
+      materialTags: [],
+      materialIds: [],
+      methodIds: [],
+      entropyTemperatureK: 298.15,
+      entropyToleranceK: 1,
+    });
+    // modified z-score |M| > 3.5: Iglewicz & Hoaglin (1993); pairing window and ambiguity: lib/science defaults
+    expect(rulesSchema.parse({})).toEqual({
+      maxRelativeDeviation: 0.25,
+      ambiguityCm1: 2,
+      ambiguityRelative: 0.01,
+      outlierRule: { kind: 'modified-z', threshold: 3.5 },
+      repeatedMeasurements: 'separate',
+      bootstrapSamples: 1000,
+      bandEdgesCm1: [200, 500, 1000],
+    });
+    expect(alertThresholdsSchema.parse({})).toEqual({ maeCm1: 0.5, maeRelative: 0.05, nRelative: 0.1 });
+    const def = benchmarkDefinitionSchema.parse({ name: 'x' });
+    expect(def.rules.outlierRule.kind).toBe('modified-z');
+    expect(readRules(null).bootstrapSamples).toBe(1000);
+  });
+
+  it('keeps a partial outlier rule partial: the other field takes its default', () => {
+    expect(rulesSchema.parse({ outlierRule: { kind: 'tukey', threshold: 3 } }).outlierRule).toEqual({ kind: 'tukey', threshold: 3 });
+    expect(rulesSchema.parse({ outlierRule: { threshold: 5 } }).outlierRule).toEqual({ kind: 'modified-z', threshold: 5 });
+  });
+
+  it('refuses an inverted temperature window, unknown techniques and decreasing band edges, saying where', () => {
+    const window = scopeSchema.safeParse({ temperatureMinK: 300, temperatureMaxK: 10 });
+    expect(window.success).toBe(false);
+    expect(window.error?.issues[0].path).toEqual(['temperatureMaxK']);
+    expect(scopeSchema.safeParse({ techniques: ['xrd'] }).error?.issues[0].path).toEqual(['techniques', 0]);
+    expect(rulesSchema.safeParse({ bandEdgesCm1: [500, 200] }).success).toBe(false);
+    expect(benchmarkDefinitionSchema.safeParse({ name: '  ' }).error?.issues[0].path).toEqual(['name']);
+  });
+
+  it('lower-cases material tags as material_tag stores them', () => {
+    expect(scopeSchema.parse({ materialTags: [' Oxide '] }).materialTags).toEqual(['oxide']);
+  });
+});
+
+describe('CSV cells', () => {
+  it('neutralises formula triggers and keeps numbers numeric', () => {
+    for (const trigger of ['=1+1', '+1', '-1', '@SUM(A1)', '\tx', '\rx']) expect(csvCell(trigger).replace(/^"/, '').startsWith("'")).toBe(true);
+    expect(csvCell(-12.5)).toBe('-12.5');
+    expect(csvCell('a,b')).toBe('"a,b"');
+    expect(csvCell('say "hi"')).toBe('"say ""hi"""');
+    expect(csvCell(null)).toBe('');
+    expect(toCsv(['a', 'b'], [[1, '=x']])).toBe("a,b\r\n1,'=x\r\n");
+  });
+});
+
+describe('frequency bands', () => {
+  it('labels measured values by the band edges', () => {
+    expect(bandOf(150, [200, 500])).toBe('< 200');
+    expect(bandOf(200, [200, 500])).toBe('200–500');
+    expect(bandOf(900, [200, 500])).toBe('≥ 500');
+  });
+});
