@@ -85,6 +85,7 @@ export const measurement = sqliteTable(
     index('measurement_material_idx').on(t.workspaceId, t.materialId, t.quantity),
     index('measurement_hash_idx').on(t.workspaceId, t.rowHash),
     index('measurement_import_idx').on(t.importId),
+    index('measurement_source_idx').on(t.workspaceId, t.sourceId),
   ],
 );
 
@@ -101,6 +102,8 @@ export const calculation = sqliteTable(
     index('calculation_method_material_idx').on(t.workspaceId, t.methodId, t.materialId, t.quantity),
     index('calculation_hash_idx').on(t.workspaceId, t.rowHash),
     index('calculation_import_idx').on(t.importId),
+    index('calculation_material_idx').on(t.workspaceId, t.materialId, t.quantity),
+    index('calculation_source_idx').on(t.workspaceId, t.sourceId),
   ],
 );
 
