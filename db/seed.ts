@@ -12,6 +12,10 @@ import { member, organization, user } from '@/db/schema';
 import { ensureWorkspaceSettings } from '@/db/queries/workspaces';
 import { WORKSPACE_ROLES } from '@/lib/permissions';
 import { loadDemoScenario } from '@/db/demo-data';
+import { benchmark } from '@/db/schema';
+import { createBenchmark } from '@/db/queries/benchmarks';
+import { recomputeBenchmark } from '@/db/queries/revisions';
+import type { BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
 
 const groupSchema = z.object({
   password: z.string().min(10),
@@ -56,8 +60,35 @@ export async function seedDemo(): Promise<{ workspaceId: string; group: DemoGrou
     if (!existing[0]) await getAuth().api.addMember({ body: { userId: ids[i], role: m.role, organizationId: workspace.id } });
   }
   const curator = group.members.findIndex((m) => m.role === 'curator');
-  await db.transaction((tx) => loadDemoScenario(tx, workspace.id, ids[curator >= 0 ? curator : owner]));
+  const curatorId = ids[curator >= 0 ? curator : owner];
+  await db.transaction((tx) => loadDemoScenario(tx, workspace.id, curatorId));
+  for (const definition of DEMO_BENCHMARKS) await ensureBenchmark(workspace.id, curatorId, definition);
   return { workspaceId: workspace.id, group };
+}
+
+export const DEMO_BENCHMARK_NAME = 'Γ-point frequencies — all methods (demo)';
+
+const DEMO_BENCHMARKS: BenchmarkDefinitionInput[] = [
+  {
+    name: DEMO_BENCHMARK_NAME,
+    purpose: 'Which of the three (invented) recipes reproduces the measured zone-centre frequencies best? Invented demo benchmark.',
+    scope: { quantity: 'frequency' },
+  },
+  {
+    name: 'Vibrational entropy at 298 K (demo)',
+    purpose: 'Computed harmonic vibrational entropies against calorimetric standard entropies. Invented demo benchmark.',
+    scope: { quantity: 'entropy', entropyTemperatureK: 298.15 },
+  },
+];
+
+async function ensureBenchmark(workspaceId: string, userId: string, definition: BenchmarkDefinitionInput) {
+  const existing = await db
+    .select({ id: benchmark.id })
+    .from(benchmark)
+    .where(and(eq(benchmark.workspaceId, workspaceId), eq(benchmark.name, definition.name)))
+    .limit(1);
+  const id = existing[0]?.id ?? (await createBenchmark(workspaceId, { userId }, definition)).id;
+  await recomputeBenchmark(workspaceId, id, [{ trigger: 'benchmark-created', userId }]);
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {

@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { once } from 'node:events';
 import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
 import type { ImportableKind } from '@/lib/import/columns';
 import { decodeUtf8Strict } from '@/lib/import/decode';
 import { ImportRefusal, type RowError } from '@/lib/import/errors';
@@ -72,13 +73,14 @@ export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcom
     if (spooled.byteCount === 0) throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
     const stream = createReadStream(spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
     const table = await openCsvTable(stream, input.kind, input.mapping);
-    return await commitImport({
+    const outcome = await commitImport({
       workspaceId: input.workspaceId,
       actor: input.actor,
       file: { kind: input.kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, via: input.via },
       table,
       units: input.units,
     });
+    return recomputeAfter(input.workspaceId, input.actor, outcome);
   } finally {
     await spooled.cleanup();
   }
@@ -110,11 +112,18 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
   }
   const body = parsed.data;
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');
-  return commitImport({
+  const outcome = await commitImport({
     workspaceId: input.workspaceId,
     actor: input.actor,
     file: { kind: body.kind, fileName: body.fileName ?? null, sha256, byteCount: input.bytes.byteLength, via: 'api' },
     table: jsonTable(body.kind, body.rows),
     units: body.units as DefaultUnits | undefined,
   });
+  return recomputeAfter(input.workspaceId, input.actor, outcome);
+}
+
+/** New rows may move every benchmark of the workspace: recompute them in the background, never blocking the import. */
+function recomputeAfter(workspaceId: string, actor: ImportActor, outcome: ImportOutcome): ImportOutcome {
+  if (outcome.insertedCount > 0) scheduleRecomputeForWorkspace(workspaceId, { trigger: 'import', importId: outcome.importId, userId: actor.userId });
+  return outcome;
 }

@@ -1,5 +1,6 @@
 'use server';
 import { revalidatePath } from 'next/cache';
+import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
 import { workspaceAction } from '@/lib/action';
 import { conflictAsFieldError } from '@/lib/catalog/action-state';
 import { parseBibtex } from '@/lib/bibtex';
@@ -24,6 +25,7 @@ export const createSourceAction = workspaceAction('sources:create', createSource
 export const updateSourceAction = workspaceAction('sources:update', updateSourceSchema, async ({ workspaceId: _w, id, ...input }, ctx) => {
   try {
     await updateSource(ctx.workspace.id, { userId: ctx.user.id }, id, input);
+    scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
     refresh(ctx.workspace.slug, id);
     return { ok: true, message: `Source ${input.citeKey} saved.`, data: { id } };
   } catch (e) {
@@ -33,12 +35,14 @@ export const updateSourceAction = workspaceAction('sources:update', updateSource
 
 export const retractSourceAction = workspaceAction('sources:retract', retractSourceSchema, async ({ id, reason }, ctx) => {
   await retractSource(ctx.workspace.id, { userId: ctx.user.id }, id, reason);
+  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Source retracted. Its cite key stays reserved.', data: { id } };
 });
 
 export const restoreSourceAction = workspaceAction('sources:retract', restoreSourceSchema, async ({ id, reason }, ctx) => {
   await restoreSource(ctx.workspace.id, { userId: ctx.user.id }, id, reason ?? null);
+  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Source restored.', data: { id } };
 });
