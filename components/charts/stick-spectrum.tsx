@@ -50,6 +50,8 @@ export function stickSpectrumSpec(measured: SpectrumLine[], computed: SpectrumLi
         },
       },
       {
+        // acoustic and unlabelled lines carry no text (a null label would print "null")
+        transform: [{ filter: 'isValid(datum.label) && datum.label !== ""' }],
         mark: { type: 'text', fontSize: 10, dy: { expr: 'datum.height > 0 ? -6 : 8' }, baseline: 'middle' },
         encoding: {
           x,

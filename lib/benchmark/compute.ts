@@ -117,13 +117,21 @@ function applyDecisions(pairs: PairRecord[], decisions: BenchmarkInput['decision
   }
 }
 
-function breakdown(groups: Map<string, PairRecord[]>): BreakdownRow[] {
+/** Every band label of the given upper edges, lowest band first. */
+export function bandLabels(edges: readonly number[]): string[] {
+  if (edges.length === 0) return ['all'];
+  return [`< ${edges[0]}`, ...edges.slice(1).map((e, i) => `${edges[i]}–${e}`), `≥ ${edges[edges.length - 1]}`];
+}
+
+/** Rows per group × method; groups in the given order (frequency bands), else alphabetical (classes). */
+function breakdown(groups: Map<string, PairRecord[]>, order?: readonly string[]): BreakdownRow[] {
   const rows: BreakdownRow[] = [];
   for (const [key, pairs] of groups) {
     const cut = key.lastIndexOf('|');
     rows.push({ group: key.slice(0, cut), methodId: key.slice(cut + 1), n: pairs.length, statistics: groupStatistics(pairs, 0) });
   }
-  return rows.sort((a, b) => a.group.localeCompare(b.group) || a.methodId.localeCompare(b.methodId));
+  const rank = (g: string) => (order ? order.indexOf(g) : -1);
+  return rows.sort((a, b) => rank(a.group) - rank(b.group) || a.group.localeCompare(b.group) || a.methodId.localeCompare(b.methodId));
 }
 
 function comparisons(methodIds: string[], included: Map<string, PairRecord[]>): ComparisonRecord[] {
@@ -259,7 +267,7 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
     rules,
     methods: results,
     classes: breakdown(classGroups),
-    bands: breakdown(bandGroups),
+    bands: breakdown(bandGroups, bandLabels(rules.bandEdgesCm1)),
     comparisons: comparisons(methodIds, included),
     pairs,
     quality: qualityRecords,

@@ -40,7 +40,7 @@ function config(pointCount: number) {
     font: 'Inter, system-ui, sans-serif',
     axis: { labelColor: '#4d5b69', titleColor: '#17212b', gridColor: '#eef1f3', domainColor: '#c3cbd2', tickColor: '#c3cbd2' },
     view: { stroke: '#dde2e6' },
-    legend: { labelColor: '#4d5b69', titleColor: '#17212b' },
+    legend: { labelColor: '#4d5b69', titleColor: '#17212b', orient: 'bottom', direction: 'horizontal', labelLimit: 220 },
   };
 }
 

@@ -147,7 +147,9 @@ export function BenchmarkPlots({
           </label>
           <VegaFigure spec={ba} renderer={renderer} fileName={`${fileStem}-bland-altman`} title="Bland–Altman: bias and 95 % limits of agreement" onPick={pick} />
         </div>
-        <VegaFigure spec={histogram} renderer="svg" fileName={`${fileStem}-error-histogram`} title="Error histogram per method (included pairs)" />
+        <div className="xl:col-span-2">
+          <VegaFigure spec={histogram} renderer="svg" fileName={`${fileStem}-error-histogram`} title="Error histogram per method (included pairs)" />
+        </div>
       </div>
     </div>
   );

@@ -22,10 +22,10 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
   return (
     <div className="space-y-1">
       <div className="flex gap-1.5">
-        <button type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} onClick={() => setOpen(open === 'decide' ? null : 'decide')}>
+        <button type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open === 'decide'} onClick={() => setOpen(open === 'decide' ? null : 'decide')}>
           Exclude / keep…
         </button>
-        <button type="button" className={buttonClass('ghost', 'px-2 py-0.5 text-xs')} onClick={() => setOpen(open === 'pin' ? null : 'pin')}>
+        <button type="button" className={buttonClass('ghost', 'px-2 py-0.5 text-xs')} aria-expanded={open === 'pin'} onClick={() => setOpen(open === 'pin' ? null : 'pin')}>
           Pin…
         </button>
       </div>
