@@ -22,7 +22,7 @@ afterAll(async () => {
 
 /** MAE per method recomputed here from the pairs CSV, with plain loops (independent of lib/science). */
 async function maeFromCsv(): Promise<Map<string, { n: number; mae: number }>> {
-  const href = await page.locator('a[href*="pairs?format=csv"]').first().getAttribute('href');
+  const href = await page.getByRole('link', { name: 'Pairs (CSV)' }).getAttribute('href');
   const res = await page.request.get(new URL(href!, base).toString());
   expect(res.status()).toBe(200);
   const rows = Papa.parse<Record<string, string>>(await res.text(), { header: true, skipEmptyLines: true }).data;

@@ -59,7 +59,7 @@ describe('import wizard', () => {
     await commit.click();
     await page.getByText('Imported 3 of 3 rows').waitFor();
     await page.getByRole('link', { name: 'Open the import' }).click();
-    await page.waitForURL(/\/imports\/[^/]+$/);
+    await page.waitForURL(/\/imports\/(?!new$)[^/]+$/);
     importUrl = page.url();
 
     await page.goto(`${base}/w/${DEMO_SLUG}/materials?q=GaN`);
