@@ -5,6 +5,8 @@ import { blandAltmanSpec, errorHistogramSpec, parityPlotSpec, rendererFor, resid
 import { inputClass } from '@/components/ui/field';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 import { usePairs } from './use-benchmark-data';
+import { AddToDeck } from '@/components/decks/add-to-deck';
+import { PLOT_KINDS } from '@/components/decks/view-kinds';
 
 export interface PlotMethod {
   methodId: string;
@@ -103,6 +105,7 @@ export function BenchmarkPlots({
         <span className="text-xs text-ink-faint num">
           {visible.length.toLocaleString('en')} points · {renderer === 'canvas' ? 'canvas' : 'SVG'} renderer · click a point to open its pair
         </span>
+        <AddToDeck workspaceId={workspaceId} kinds={PLOT_KINDS} benchmarkId={benchmarkId} revisionNumber={revision} filters={{ hiddenMethods: [...hidden], bandPercent, showExcluded, methodId: baMethod || undefined }} />
       </div>
 
       {picked ? (

@@ -19,6 +19,9 @@ import { PairDecisionForm, RecomputeButton, RevertForm } from './decision-forms'
 import { RecomputeWatcher } from './recompute-watcher';
 import { QueryProvider } from './query-provider';
 import { fmt, signed, when } from './format';
+import { AddToDeck } from '@/components/decks/add-to-deck';
+import { DiscussButton } from '@/components/discussion/discuss-button';
+import { listBenchmarkThreads, threadsBySubject } from '@/db/queries/comments';
 
 export const QUALITY_BAR_NOTE =
   'Statistics depend on the quality and representativeness of the data; they support, and do not replace, expert judgement and peer review.';
@@ -106,6 +109,8 @@ export async function BenchmarkView({
     listDecisions(workspace.id, bm.id),
     listPins(workspace.id),
   ]);
+  const threads = threadsBySubject(await listBenchmarkThreads(workspace.id, bm.id));
+  const can = { comment: roleCan(role, 'comments:create'), resolve: roleCan(role, 'comments:resolve'), decide: canDecide };
   const extraNames = await materialNames(
     workspace.id,
     snap.quality.map((q) => q.materialId).filter((id) => !lookups.materials.has(id)),
@@ -130,6 +135,9 @@ export async function BenchmarkView({
   return (
     <div className="space-y-6">
       {header}
+      <div id="discussion">
+        <DiscussButton workspaceId={workspace.id} subject={{ kind: 'revision', id: rev.id, benchmarkId: bm.id }} title={`revision ${rev.number}`} threads={threads.get(`revision|${rev.id}`) ?? []} can={can} />
+      </div>
       {watcher}
       {snap.quantity === 'entropy' ? (
         <Notice tone="warn">
@@ -148,7 +156,7 @@ export async function BenchmarkView({
       ) : (
         // one query client for the plots and the comparison, so the pairs are fetched once
         <QueryProvider>
-          <Panel title="Leaderboard">
+          <Panel title="Leaderboard" actions={<AddToDeck workspaceId={workspace.id} kinds={['leaderboard']} benchmarkId={bm.id} revisionNumber={rev.number} />}>
             <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} />
           </Panel>
 
@@ -185,7 +193,7 @@ export async function BenchmarkView({
               />
           </Panel>
 
-          <Panel title={`Outliers and excluded pairs (${flagged.length})`}>
+          <Panel title={`Outliers and excluded pairs (${flagged.length})`} actions={<AddToDeck workspaceId={workspace.id} kinds={['outliers']} benchmarkId={bm.id} revisionNumber={rev.number} />}>
             <p className="mb-2 text-xs text-ink-muted">
               Rule: {snap.rules.outlierRule.kind} with threshold {snap.rules.outlierRule.threshold}. Flagged pairs stay in the statistics until a curator excludes them.
             </p>
@@ -202,6 +210,7 @@ export async function BenchmarkView({
                       <th className="px-2 py-1.5 font-medium">Error</th>
                       <th className="px-2 py-1.5 font-medium">Why</th>
                       <th className="px-2 py-1.5 font-medium">Measurement source</th>
+                      <th className="px-2 py-1.5 font-medium">Discussion</th>
                       {canDecide ? <th className="px-2 py-1.5 font-medium">Decision</th> : null}
                     </tr>
                   </thead>
@@ -238,6 +247,15 @@ export async function BenchmarkView({
                             ) : (
                               '—'
                             )}
+                          </td>
+                          <td className="px-2 py-1.5">
+                            <DiscussButton
+                              workspaceId={workspace.id}
+                              subject={{ kind: 'pair', id: p.key, benchmarkId: bm.id }}
+                              title={`${materialName(p.materialId)} ${p.label ?? ''} · ${methodLabel.get(p.methodId) ?? ''}`}
+                              threads={threads.get(`pair|${p.key}`) ?? []}
+                              can={can}
+                            />
                           </td>
                           {canDecide ? (
                             <td className="px-2 py-1.5">

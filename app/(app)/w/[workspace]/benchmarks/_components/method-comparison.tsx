@@ -5,6 +5,7 @@ import { pairedScatterSpec, rendererFor, type PairedPoint } from '@/components/c
 import { inputClass } from '@/components/ui/field';
 import type { ComparisonRecord } from '@/lib/benchmark/types';
 import { usePairs } from './use-benchmark-data';
+import { AddToDeck } from '@/components/decks/add-to-deck';
 
 function measurementKey(key: string): string {
   return key.slice(key.indexOf('|') + 1);
@@ -98,6 +99,7 @@ export function MethodComparison({
           </dl>
         )}
         <p className="text-xs text-ink-faint">Points below the dashed line are pairs where {label(b)} is closer to experiment.</p>
+        <AddToDeck workspaceId={workspaceId} kinds={['comparison']} benchmarkId={benchmarkId} revisionNumber={revision} filters={{ methodA: a, methodB: b }} defaultTitle={`${label(a)} vs ${label(b)}`} />
       </div>
       {a !== b && points.length > 0 ? (
         <VegaFigure spec={spec} renderer={rendererFor(points.length)} fileName={`${fileStem}-${label(a)}-vs-${label(b)}`} title={`|error| per common pair: ${label(a)} vs ${label(b)}`} />

@@ -11,6 +11,7 @@ import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMaterialAction, retractMaterialAction } from '../actions';
 import { MaterialValuesSection } from '../_components/material-values';
+import { AddToDeck } from '@/components/decks/add-to-deck';
 
 export const metadata: Metadata = { title: 'Material' };
 
@@ -54,6 +55,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
           <Link href={`/w/${slug}/history/material/${m.id}`} className={buttonClass('ghost', 'no-underline')}>
             History
           </Link>
+          {!m.retractedAt && <AddToDeck workspaceId={ctx.workspace.id} kinds={['material']} filters={{ materialId: m.id, methodId: (await searchParams).method }} defaultTitle={m.name} />}
         </div>
       </header>
       {m.retractedAt && (

@@ -1,0 +1,18 @@
+import type { Metadata } from 'next';
+import { notFound } from 'next/navigation';
+import { requirePageMember } from '@/lib/session';
+import { getDeck } from '@/db/queries/decks';
+import { DeckSlide } from '@/components/decks/deck-slide';
+import { Presenter } from '@/components/decks/presenter';
+
+export const metadata: Metadata = { title: 'Present' };
+
+export default async function PresentPage({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ slide?: string }> }) {
+  const { workspace, id } = await params;
+  const ctx = await requirePageMember(workspace, 'decks:read');
+  const deck = await getDeck(ctx.workspace.id, id);
+  if (!deck) notFound();
+  const start = Number((await searchParams).slide);
+  const slides = deck.views.map((v) => <DeckSlide key={v.id} workspace={ctx.workspace} entry={v} mode="present" />);
+  return <Presenter title={deck.title} slides={slides} exitHref={`/w/${ctx.workspace.slug}/decks/${deck.id}`} initial={Number.isInteger(start) && start > 0 ? start - 1 : 0} />;
+}

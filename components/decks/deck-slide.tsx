@@ -1,0 +1,228 @@
+import Link from 'next/link';
+import { getRevision, pairLookups } from '@/db/queries/revisions';
+import { describeProblem, type DeckViewEntry } from '@/db/queries/decks';
+import { listSubjectThreads, openPairThreadCounts } from '@/db/queries/comments';
+import { getMaterial } from '@/db/queries/materials';
+import { getMaterialValues } from '@/db/queries/material-values';
+import { plotPoints } from '@/lib/benchmark/pairs-export';
+import { techniqueName } from '@/lib/benchmark/describe';
+import type { PairRecord } from '@/lib/benchmark/types';
+import { Notice } from '@/components/ui/notice';
+import { Leaderboard } from '@/app/(app)/w/[workspace]/benchmarks/_components/leaderboard';
+import { MaterialValuesSection } from '@/app/(app)/w/[workspace]/materials/_components/material-values';
+import { fmt, signed, when } from '@/app/(app)/w/[workspace]/benchmarks/_components/format';
+import { SlidePlot, type SlidePlotKind } from './slide-plot';
+import { VIEW_KIND_LABELS } from './view-kinds';
+
+export type SlideMode = 'present' | 'print';
+
+interface Citation {
+  key: string;
+  text: string;
+  doi: string | null;
+}
+
+const CITATIONS_SHOWN = 24;
+
+function Citations({ items, mode }: { items: Citation[]; mode: SlideMode }) {
+  if (items.length === 0) return null;
+  const shown = items.slice(0, CITATIONS_SHOWN);
+  return (
+    <div className="text-xs text-ink-muted" data-testid="slide-citations">
+      <p className="font-medium text-ink">Sources ({items.length})</p>
+      <ul className={mode === 'print' ? 'columns-2 gap-6' : 'columns-3 gap-6'}>
+        {shown.map((c) => (
+          <li key={c.key} className="break-inside-avoid">
+            <span className="font-mono">{c.key}</span> — {c.text}
+            {c.doi ? ` · doi:${c.doi}` : ''}
+          </li>
+        ))}
+      </ul>
+      {items.length > shown.length ? <p>… and {items.length - shown.length} more (the deck&apos;s benchmark lists every source).</p> : null}
+    </div>
+  );
+}
+
+function citationsOf(pairs: readonly PairRecord[], sources: Map<string, { citeKey: string; citation: string; doi: string | null }>): Citation[] {
+  const ids = [...new Set(pairs.flatMap((p) => p.sourceIds))];
+  return ids
+    .map((id) => sources.get(id))
+    .filter((s): s is NonNullable<typeof s> => !!s)
+    .map((s) => ({ key: s.citeKey, text: s.citation, doi: s.doi }))
+    .sort((a, b) => a.key.localeCompare(b.key));
+}
+
+function ThreadCount({ count, mode }: { count: number; mode: SlideMode }) {
+  if (mode === 'print' && count === 0) return null;
+  return (
+    <p className="text-sm" data-testid="slide-open-threads" data-count={count}>
+      {count === 0 ? 'No open thread on the points of this slide.' : `${count} open thread${count === 1 ? '' : 's'} on the points of this slide.`}
+    </p>
+  );
+}
+
+/** One deck view rendered from its pinned revision (or what is missing, when its target is gone). */
+export async function DeckSlide({ workspace, entry, mode }: { workspace: { id: string; slug: string }; entry: DeckViewEntry; mode: SlideMode }) {
+  const kindLabel = VIEW_KIND_LABELS[entry.viewKind] ?? entry.viewKind;
+  const heading = entry.title ?? (entry.benchmark ? `${kindLabel} · ${entry.benchmark.name}` : entry.material ? `${kindLabel} · ${entry.material.name}` : kindLabel);
+  const big = mode === 'present';
+  const note = entry.note ? <p className={`${big ? 'text-xl' : 'text-sm'} whitespace-pre-wrap border-l-4 border-accent pl-3`} data-testid="slide-note">{entry.note}</p> : null;
+  const shell = (subtitle: React.ReactNode, body: React.ReactNode, footer: React.ReactNode) => (
+    <article className="flex h-full flex-col gap-3" data-testid="slide" data-kind={entry.viewKind}>
+      <header>
+        <h2 className={big ? 'text-3xl font-semibold tracking-tight' : 'text-xl font-semibold'}>{heading}</h2>
+        <div className={`${big ? 'text-base' : 'text-xs'} text-ink-muted`}>{subtitle}</div>
+      </header>
+      <div className={`min-h-0 flex-1 overflow-auto ${big ? 'text-base' : 'text-[13px]'}`}>{body}</div>
+      {note}
+      <footer className="space-y-2">{footer}</footer>
+    </article>
+  );
+
+  if (entry.problem) {
+    return shell(
+      <span>{kindLabel}</span>,
+      <Notice tone="warn">
+        <span data-testid="slide-missing">{describeProblem(entry.problem)}</span>
+      </Notice>,
+      null,
+    );
+  }
+
+  if (entry.viewKind === 'material' && entry.material) {
+    const [m, values, threads] = await Promise.all([
+      getMaterial(workspace.id, entry.material.id),
+      getMaterialValues(workspace.id, entry.material.id),
+      listSubjectThreads(workspace.id, 'material', entry.material.id),
+    ]);
+    const selected = values.methods.find((x) => x.methodId === entry.filters.methodId) ?? values.methods[0];
+    const keys = [...new Set([...values.peaks.map((p) => p.citeKey), ...(selected?.modes ?? []).map((x) => x.citeKey), ...values.entropies.map((e) => e.citeKey)])].sort();
+    return shell(
+      <span>
+        {m?.formula} · current values (a material page is not pinned to a revision)
+      </span>,
+      <MaterialValuesSection slug={workspace.slug} materialId={entry.material.id} materialName={entry.material.name} values={values} selectedMethodId={selected?.methodId} />,
+      <>
+        <ThreadCount count={threads.filter((t) => !t.resolvedAt).length} mode={mode} />
+        <Citations items={keys.map((k) => ({ key: k, text: 'see Sources', doi: null }))} mode={mode} />
+      </>,
+    );
+  }
+
+  const bm = entry.benchmark!;
+  const rev = await getRevision(workspace.id, bm.id, entry.revision!.number);
+  if (!rev) {
+    return shell(<span>{bm.name}</span>, <Notice tone="warn">{describeProblem({ kind: 'revision-missing', benchmarkName: bm.name })}</Notice>, null);
+  }
+  const snap = rev.statistics;
+  const [lookups, openCounts] = await Promise.all([pairLookups(workspace.id, snap), openPairThreadCounts(workspace.id, bm.id)]);
+  const hidden = new Set(entry.filters.hiddenMethods ?? []);
+  const methodLabel = new Map(snap.methods.map((x) => [x.methodId, x.label]));
+  const materialName = (id: string) => lookups.materials.get(id)?.name ?? id.slice(0, 8);
+  const newer = entry.latestNumber !== null && entry.latestNumber > rev.number;
+  const subtitle = (
+    <span>
+      {bm.name} · revision {rev.number} of {when(rev.createdAt)}
+      {newer ? <strong className="text-warn"> · a newer revision ({entry.latestNumber}) exists</strong> : null}
+    </span>
+  );
+
+  let shownPairs: PairRecord[] = snap.pairs.filter((p) => !hidden.has(p.methodId));
+  let body: React.ReactNode;
+  if (snap.empty) {
+    body = <Notice tone="info">{snap.empty}</Notice>;
+    shownPairs = [];
+  } else if (entry.viewKind === 'leaderboard') {
+    const methods = snap.methods.filter((x) => !hidden.has(x.methodId));
+    body = <Leaderboard methods={methods} unit={snap.unit} pairByKey={new Map(snap.pairs.map((p) => [p.key, p]))} materialName={materialName} />;
+  } else if (entry.viewKind === 'outliers') {
+    const flagged = shownPairs.filter((p) => p.outlier !== null || p.excluded !== null);
+    const limit = big ? 12 : 60;
+    shownPairs = flagged;
+    body =
+      flagged.length === 0 ? (
+        <p className="text-ink-muted">No pair is flagged or excluded in this revision.</p>
+      ) : (
+        <>
+          <table className="min-w-full border-collapse" data-testid="slide-outliers">
+            <thead className="border-b border-rule text-left text-ink-muted">
+              <tr>
+                <th className="px-2 py-1 font-medium">Pair</th>
+                <th className="px-2 py-1 font-medium">Method</th>
+                <th className="px-2 py-1 font-medium">Measured → calculated</th>
+                <th className="px-2 py-1 font-medium">Error</th>
+                <th className="px-2 py-1 font-medium">Why</th>
+                <th className="px-2 py-1 font-medium">Source</th>
+                <th className="px-2 py-1 font-medium">Open threads</th>
+              </tr>
+            </thead>
+            <tbody>
+              {flagged.slice(0, limit).map((p) => (
+                <tr key={p.key} className="border-b border-rule/70 align-top">
+                  <td className="px-2 py-1">
+                    {materialName(p.materialId)} {p.label ?? ''} <span className="text-ink-faint">{techniqueName(p.technique)}</span>
+                  </td>
+                  <td className="px-2 py-1">{methodLabel.get(p.methodId)}</td>
+                  <td className="num px-2 py-1">
+                    {fmt(p.measured)} → {fmt(p.calculated)}
+                  </td>
+                  <td className="num px-2 py-1">{signed(p.error)}</td>
+                  <td className="px-2 py-1">{p.excluded !== null ? <span className="text-bad">Excluded: {p.excluded}</span> : <span className="text-warn">{p.outlier}</span>}</td>
+                  <td className="px-2 py-1">{p.sourceIds.map((id) => lookups.sources.get(id)?.citation ?? '—').join('; ')}</td>
+                  <td className="num px-2 py-1">{openCounts.get(p.key) ?? 0}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {flagged.length > limit ? <p className="text-xs text-ink-muted">{flagged.length - limit} more on the benchmark page.</p> : null}
+        </>
+      );
+  } else {
+    const points = plotPoints(snap, lookups);
+    const methods = snap.methods.map((x) => ({ methodId: x.methodId, label: x.label, limits: x.statistics?.blandAltman ?? null }));
+    const kind = entry.viewKind as SlidePlotKind;
+    if (kind === 'bland-altman') {
+      const chosen = methods.find((x) => x.methodId === entry.filters.methodId) ?? methods.find((x) => x.limits) ?? methods[0];
+      shownPairs = shownPairs.filter((p) => p.methodId === chosen?.methodId);
+    } else if (kind === 'comparison') {
+      const a = entry.filters.methodA ?? methods[0]?.methodId;
+      const b = entry.filters.methodB ?? methods[1]?.methodId;
+      shownPairs = snap.pairs.filter((p) => p.methodId === a || p.methodId === b);
+    }
+    const record = kind === 'comparison' ? snap.comparisons.find((c) => [c.a, c.b].includes(entry.filters.methodA ?? '') && [c.a, c.b].includes(entry.filters.methodB ?? '')) : undefined;
+    body = (
+      <div className="flex flex-wrap items-start gap-6">
+        <SlidePlot kind={kind} points={points} methods={methods} unit={snap.unit} filters={entry.filters} fileName={`${bm.name.replace(/[^A-Za-z0-9]+/g, '-')}-r${rev.number}-${kind}`} forPrint={mode === 'print'} />
+        {record ? (
+          <dl className="grid grid-cols-2 gap-x-4 gap-y-1" data-testid="slide-comparison">
+            <dt className="text-ink-muted">Common pairs</dt>
+            <dd className="num">{record.n}</dd>
+            <dt className="text-ink-muted">Wilcoxon signed-rank p</dt>
+            <dd className="num">{record.wilcoxon.pValue < 0.0001 ? record.wilcoxon.pValue.toExponential(2) : record.wilcoxon.pValue.toFixed(4)}</dd>
+            <dt className="text-ink-muted">
+              {methodLabel.get(record.a)} closer / {methodLabel.get(record.b)} closer / ties
+            </dt>
+            <dd className="num">
+              {record.wins} / {record.losses} / {record.ties}
+            </dd>
+          </dl>
+        ) : null}
+      </div>
+    );
+  }
+
+  const openOnSlide = shownPairs.reduce((s, p) => s + (openCounts.get(p.key) ?? 0), 0);
+  return shell(
+    subtitle,
+    body,
+    <>
+      <ThreadCount count={openOnSlide} mode={mode} />
+      {mode === 'present' ? (
+        <p className="text-xs text-ink-faint">
+          Hover a point for its values and source. <Link href={`/w/${workspace.slug}/benchmarks/${bm.id}/revisions/${rev.number}`}>Open revision {rev.number}</Link>
+        </p>
+      ) : null}
+      <Citations items={citationsOf(shownPairs, lookups.sources)} mode={mode} />
+    </>,
+  );
+}

@@ -1,0 +1,97 @@
+'use server';
+import { revalidatePath } from 'next/cache';
+import { z } from 'zod';
+import { workspaceAction } from '@/lib/action';
+import { AppError } from '@/lib/errors';
+import { env } from '@/lib/env';
+import { THREAD_SUBJECTS } from '@/db/schema';
+import { getThread, parsePairKey, postComment, setThreadResolved, COMMENT_MAX_CHARS } from '@/db/queries/comments';
+import { createDecision } from '@/db/queries/decisions';
+import { scheduleRecompute } from '@/lib/benchmark/recompute-queue';
+import { threadPath } from '@/lib/discussion/thread-url';
+
+const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+const optionalId = z.preprocess(blank, z.string().min(1).max(400).optional());
+
+const postCommentSchema = z
+  .object({
+    workspaceId: z.string().min(1),
+    threadId: optionalId,
+    subjectKind: z.preprocess(blank, z.enum(THREAD_SUBJECTS).optional()),
+    subjectId: optionalId,
+    benchmarkId: optionalId,
+    body: z.string().trim().min(1, 'Write something first.').max(COMMENT_MAX_CHARS, `At most ${COMMENT_MAX_CHARS} characters.`),
+  })
+  .refine((v) => v.threadId || (v.subjectKind && v.subjectId), { path: ['body'], message: 'Say which thread or subject the comment is about.' });
+
+function refresh(slug: string, benchmarkId: string | null | undefined) {
+  if (benchmarkId) revalidatePath(`/w/${slug}/benchmarks/${benchmarkId}`);
+  revalidatePath(`/w/${slug}/decks`, 'layout');
+}
+
+export const postCommentAction = workspaceAction('comments:create', postCommentSchema, async (input, ctx) => {
+  let where: { subjectKind: string; subjectId: string; benchmarkId: string | null };
+  if (input.threadId) {
+    const thread = await getThread(ctx.workspace.id, input.threadId);
+    if (!thread) throw new AppError('not-found', 'No such thread in this workspace.');
+    where = thread;
+  } else {
+    where = { subjectKind: input.subjectKind!, subjectId: input.subjectId!, benchmarkId: input.benchmarkId ?? null };
+  }
+  const url = `${env().BETTER_AUTH_URL.replace(/\/$/, '')}${threadPath(ctx.workspace.slug, where)}`;
+  const posted = await postComment(
+    ctx.workspace.id,
+    { userId: ctx.user.id, name: ctx.user.name },
+    {
+      threadId: input.threadId ?? null,
+      subject: input.threadId ? null : { kind: input.subjectKind!, id: input.subjectId!, benchmarkId: input.benchmarkId ?? null },
+      body: input.body,
+      url,
+    },
+  );
+  refresh(ctx.workspace.slug, where.benchmarkId);
+  const n = posted.mentioned.length;
+  return { ok: true, message: n ? `Comment posted; ${n} member${n === 1 ? '' : 's'} notified.` : 'Comment posted.', data: posted };
+});
+
+const resolveSchema = z.object({ workspaceId: z.string().min(1), threadId: z.string().min(1), resolved: z.enum(['true', 'false']).default('true') });
+
+export const resolveThreadAction = workspaceAction('comments:resolve', resolveSchema, async (input, ctx) => {
+  const done = await setThreadResolved(ctx.workspace.id, { userId: ctx.user.id }, input.threadId, input.resolved === 'true');
+  refresh(ctx.workspace.slug, done.benchmarkId);
+  return { ok: true, message: input.resolved === 'true' ? 'Thread resolved.' : 'Thread reopened.' };
+});
+
+const decideSchema = z.object({
+  workspaceId: z.string().min(1),
+  threadId: z.string().min(1),
+  kind: z.enum(['exclude-pair', 'exclude-measurement', 'keep'], 'Choose what to decide.'),
+  reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(1000),
+});
+
+/** A curator's decision on the pair or measurement a thread discusses; the decision links back to the thread. */
+export const decideFromThreadAction = workspaceAction('decisions:create', decideSchema, async (input, ctx) => {
+  const thread = await getThread(ctx.workspace.id, input.threadId);
+  if (!thread) throw new AppError('not-found', 'No such thread in this workspace.');
+  if (!thread.benchmarkId) throw new AppError('bad-request', 'Decisions are recorded on a benchmark; this thread is not on one.');
+  let measurementId: string;
+  let methodId: string | null = null;
+  if (thread.subjectKind === 'pair') {
+    const parsed = parsePairKey(thread.subjectId);
+    if (!parsed) throw new AppError('bad-request', 'This thread does not name a pair.');
+    if (parsed.measurementIds.length > 1) {
+      throw new AppError('bad-request', 'This pair averages several measurements; decide on them from the benchmark page one by one.', [{ path: 'kind' }]);
+    }
+    measurementId = parsed.measurementIds[0];
+    methodId = parsed.methodId;
+  } else if (thread.subjectKind === 'measurement') {
+    if (input.kind !== 'exclude-measurement') throw new AppError('bad-request', 'On a measurement thread the decision is to exclude the measurement.', [{ path: 'kind' }]);
+    measurementId = thread.subjectId;
+  } else {
+    throw new AppError('bad-request', 'Decisions are recorded on pairs and measurements.');
+  }
+  const { id } = await createDecision(ctx.workspace.id, { userId: ctx.user.id }, { benchmarkId: thread.benchmarkId, kind: input.kind, measurementId, methodId, reason: input.reason, threadId: thread.id });
+  scheduleRecompute(ctx.workspace.id, [thread.benchmarkId], { trigger: 'decision', decisionId: id, userId: ctx.user.id }, 0);
+  refresh(ctx.workspace.slug, thread.benchmarkId);
+  return { ok: true, message: 'Decision recorded; the next revision is being computed.', data: { id } };
+});
