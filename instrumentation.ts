@@ -5,5 +5,6 @@ export async function register() {
     env();
     const { startMailWorker } = await import('@/lib/mail/worker');
     startMailWorker();
+    (await import('@/lib/alerts/scheduler')).startDigestTimer();
   }
 }

@@ -8,8 +8,12 @@ const ITEMS = [
   { href: '/materials', label: 'Materials' },
   { href: '/sources', label: 'Sources' },
   { href: '/methods', label: 'Methods' },
+  { href: '/measurements', label: 'Measurements' },
+  { href: '/calculations', label: 'Calculations' },
   { href: '/imports', label: 'Imports' },
   { href: '/decks', label: 'Decks' },
+  { href: '/minutes', label: 'Minutes' },
+  { href: '/watches', label: 'Watches' },
   { href: '/settings/members', label: 'Settings' },
 ];
 

@@ -7,6 +7,7 @@ import { computeBenchmark } from '@/lib/benchmark/compute';
 import { benchmarkFingerprint } from '@/lib/benchmark/fingerprint';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 import { requireBenchmark, loadBenchmarkInput } from './benchmarks';
+import { revisionStored } from '@/lib/alerts/scheduler';
 
 /** What made a recomputation run (accumulated by the queue while it waits). */
 export interface RecomputeCause {
@@ -160,6 +161,7 @@ export async function recomputeBenchmark(
     }
     return row;
   });
+  revisionStored(workspaceId, benchmarkId, head.id);
   return { created: true, revision: head };
 }
 

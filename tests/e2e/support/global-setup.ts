@@ -44,6 +44,8 @@ export default async function setup(project: TestProject) {
     RESEND_BASE_URL: fake.url,
     MAILBOX_ENABLED: 'true',
     MAIL_WORKER_INTERVAL_MS: '300',
+    // alerts wait this long after a benchmark's latest revision (default 3 minutes)
+    ALERT_DEBOUNCE_MS: '1500',
     // the browser signs in and up many times within a minute
     AUTH_RATE_LIMIT_MAX: '1000',
   };

@@ -4,6 +4,7 @@ import { getBenchmark } from '@/db/queries/benchmarks';
 import { getRevision } from '@/db/queries/revisions';
 import { recomputeState } from '@/lib/benchmark/recompute-queue';
 import { BenchmarkView } from '../_components/benchmark-view';
+import { BenchmarkWatch } from '@/components/watch/benchmark-watch';
 
 export default async function BenchmarkPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
   const { workspace, id } = await params;
@@ -12,5 +13,10 @@ export default async function BenchmarkPage({ params }: { params: Promise<{ work
   if (!bm) notFound();
   const rev = await getRevision(ctx.workspace.id, bm.id);
   const computing = recomputeState(ctx.workspace.id, bm.id) !== 'idle';
-  return <BenchmarkView bm={bm} rev={rev} workspace={ctx.workspace} role={ctx.role} computing={computing} />;
+  return (
+    <>
+      <BenchmarkWatch workspace={ctx.workspace} userId={ctx.user.id} bm={bm} unit={rev?.statistics.unit} />
+      <BenchmarkView bm={bm} rev={rev} workspace={ctx.workspace} role={ctx.role} computing={computing} />
+    </>
+  );
 }

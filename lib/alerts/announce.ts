@@ -1,0 +1,157 @@
+import 'server-only';
+import { readAlertThresholds } from '@/lib/benchmark/schemas';
+import { env } from '@/lib/env';
+import { detectShift } from '@/lib/science';
+import { importsByIds, materialNames } from '@/db/queries/revisions';
+import {
+  alertDedupeKey,
+  digestDedupeKey,
+  latestRevisionSnapshot,
+  recordAlert,
+  revisionSnapshot,
+  revisionSteps,
+  type AlertRevision,
+  type RevisionStep,
+} from '@/db/queries/alerts';
+import { activeDigestWatches, activeWatchesOf, type ActiveWatch } from '@/db/queries/watches';
+import { alertMail, digestMail, type AlertContent, type AlertImport } from './alert-mail';
+import { describeReason, summarizeShift, type ShiftSummary } from './shift-summary';
+import { effectiveThresholds, readWatchThresholds } from './thresholds';
+import { signUnsubscribeToken } from './unsubscribe-token';
+
+/** Imports that brought rows into the scope between two revisions, with file name and who made them. */
+async function causingImports(workspaceId: string, steps: RevisionStep[]): Promise<AlertImport[]> {
+  const rows = new Map<string, number>();
+  for (const step of steps) for (const i of step.cause?.imports ?? []) rows.set(i.id, (rows.get(i.id) ?? 0) + i.rows);
+  const found = await importsByIds(workspaceId, [...rows.keys()]);
+  return found
+    .map((i) => ({ fileName: i.fileName, by: i.by, rows: rows.get(i.id) ?? 0 }))
+    .sort((a, b) => b.rows - a.rows || (a.fileName ?? '').localeCompare(b.fileName ?? ''));
+}
+
+interface Prepared {
+  baseline: AlertRevision | null;
+  target: AlertRevision;
+  summary: ShiftSummary;
+  content: Omit<AlertContent, 'dedupeKey'>;
+  steps: RevisionStep[];
+}
+
+/** Compares a watch's baseline with `target`; null when nothing crosses the watch's thresholds. */
+async function prepare(w: ActiveWatch, target: AlertRevision): Promise<Prepared | null> {
+  if (w.lastAnnouncedRevisionId === target.id) return null;
+  const baseline = w.lastAnnouncedRevisionId ? await revisionSnapshot(w.workspaceId, w.lastAnnouncedRevisionId) : null;
+  if (baseline && baseline.number >= target.number) return null;
+  const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds), readWatchThresholds(w.thresholds));
+  const summary = summarizeShift(baseline?.statistics ?? null, target.statistics, thresholds);
+  if (!summary.shifted) return null;
+  const steps = await revisionSteps(w.workspaceId, w.benchmarkId, baseline?.number ?? 0, target.number);
+  const [imports, names] = await Promise.all([
+    causingImports(w.workspaceId, steps),
+    materialNames(
+      w.workspaceId,
+      summary.newOutliers.map((o) => o.materialId),
+    ),
+  ]);
+  const e = env();
+  return {
+    baseline,
+    target,
+    summary,
+    steps,
+    content: {
+      to: w.email,
+      recipientName: w.name,
+      baseUrl: e.BETTER_AUTH_URL,
+      workspace: { name: w.workspaceName, slug: w.workspaceSlug },
+      benchmark: { id: w.benchmarkId, name: w.benchmarkName },
+      fromRevision: baseline?.number ?? null,
+      toRevision: { number: target.number, createdAt: target.createdAt },
+      summary,
+      materialNames: Object.fromEntries(names),
+      imports,
+      unsubscribeToken: signUnsubscribeToken(w.id, e.BETTER_AUTH_SECRET),
+    },
+  };
+}
+
+/**
+ * Announces the latest revision of a benchmark to its immediate watchers: one
+ * alert per watcher whose thresholds it crosses, compared with the revision
+ * last announced to that watcher. Nothing crossing → no mail and the baseline
+ * stays, so small drifts add up until they matter.
+ */
+export async function announceBenchmark(workspaceId: string, benchmarkId: string): Promise<{ alerts: number }> {
+  const watches = await activeWatchesOf(workspaceId, benchmarkId, 'immediate');
+  if (watches.length === 0) return { alerts: 0 };
+  const target = await latestRevisionSnapshot(workspaceId, benchmarkId);
+  if (!target) return { alerts: 0 };
+  let alerts = 0;
+  for (const w of watches) {
+    try {
+      const ready = await prepare(w, target);
+      if (!ready) continue;
+      const mail = alertMail({ ...ready.content, dedupeKey: alertDedupeKey(w.id, target.id) });
+      if (await recordAlert(mail, { workspaceId, watchId: w.id, fromRevisionId: ready.baseline?.id ?? null, toRevisionId: target.id })) alerts++;
+    } catch (error) {
+      // One watcher's failure must not keep the others from their alert.
+      console.error(`[alerts] watch ${w.id}: could not announce revision ${target.number}`, error);
+    }
+  }
+  return { alerts };
+}
+
+function utcDayStart(now: Date): Date {
+  return new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate()));
+}
+
+/** Each revision of the period with what changed since the one before it (MAE, N, rank and leaderboard changes). */
+function stepLines(steps: RevisionStep[], baseline: AlertRevision | null, thresholds: ReturnType<typeof effectiveThresholds>, unit: string) {
+  const toSummaries = (methods: RevisionStep['methods']) =>
+    methods.filter((m) => m.statistics).map((m) => ({ methodId: m.methodId, n: m.n, meanAbsoluteError: m.statistics!.meanAbsoluteError, outlierIds: [] as string[] }));
+  let previous = toSummaries(baseline?.statistics.methods ?? []);
+  const labels = new Map<string, string>();
+  return steps.map((step) => {
+    for (const m of step.methods) labels.set(m.methodId, m.label);
+    const now = toSummaries(step.methods);
+    const { reasons } = detectShift(previous, now, thresholds);
+    previous = now;
+    const outliers = step.methods.reduce((s, m) => s + m.outliers, 0);
+    const lines = reasons.map((r) => describeReason(r, labels.get(r.methodId) ?? r.methodId, unit));
+    const added = step.cause?.rows.measurementsAdded ?? 0;
+    const addedCalc = step.cause?.rows.calculationsAdded ?? 0;
+    if (added || addedCalc) lines.push(`${added} measurement(s) and ${addedCalc} calculation(s) entered the scope; ${outliers} outlier(s) in total`);
+    return { number: step.number, createdAt: step.createdAt, lines };
+  });
+}
+
+/**
+ * Sends the daily digests that are due at `now`: for every active digest watch,
+ * the revisions created before the start of today (UTC) that its baseline has
+ * not seen, in one mail if they cross its thresholds. Called from a timer; safe
+ * to call often (one mail per watch and day, by dedupe key and baseline).
+ */
+export async function sendDueDigests(now: Date = new Date()): Promise<{ digests: number }> {
+  const cutoff = utcDayStart(now);
+  const day = new Date(cutoff.getTime() - 86_400_000).toISOString().slice(0, 10);
+  let digests = 0;
+  for (const w of await activeDigestWatches()) {
+    try {
+      const target = await latestRevisionSnapshot(w.workspaceId, w.benchmarkId, cutoff);
+      if (!target) continue;
+      const ready = await prepare(w, target);
+      if (!ready) continue;
+      const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds), readWatchThresholds(w.thresholds));
+      const mail = digestMail({
+        ...ready.content,
+        dedupeKey: digestDedupeKey(w.id, day),
+        day,
+        revisions: stepLines(ready.steps, ready.baseline, thresholds, ready.summary.unit),
+      });
+      if (await recordAlert(mail, { workspaceId: w.workspaceId, watchId: w.id, fromRevisionId: ready.baseline?.id ?? null, toRevisionId: target.id })) digests++;
+    } catch (error) {
+      console.error(`[alerts] watch ${w.id}: could not send the digest of ${day}`, error);
+    }
+  }
+  return { digests };
+}

@@ -1,0 +1,35 @@
+/**
+ * A watcher's own alert thresholds, merged over the benchmark's defaults.
+ * Units are those of detectShift: cm⁻¹ (or the benchmark's unit) for maeCm1,
+ * fractions (0.05 = 5 %) for the relative ones.
+ */
+import { z } from 'zod';
+import type { ShiftThresholds } from '@/lib/science';
+
+export const watchThresholdsSchema = z.object({
+  maeCm1: z.number().positive().optional(),
+  maeRelative: z.number().positive().optional(),
+  nRelative: z.number().positive().optional(),
+});
+
+export type WatchThresholds = z.infer<typeof watchThresholdsSchema>;
+
+/** Reads stored JSON; a row that no longer parses counts as "no override" rather than breaking every alert. */
+export function readWatchThresholds(value: unknown): WatchThresholds {
+  const parsed = watchThresholdsSchema.safeParse(value ?? {});
+  return parsed.success ? parsed.data : {};
+}
+
+/** The thresholds one watch uses: each override the watcher set, the benchmark's value otherwise. */
+export function effectiveThresholds(benchmark: Required<ShiftThresholds>, override: WatchThresholds): Required<ShiftThresholds> {
+  return {
+    maeCm1: override.maeCm1 ?? benchmark.maeCm1,
+    maeRelative: override.maeRelative ?? benchmark.maeRelative,
+    nRelative: override.nRelative ?? benchmark.nRelative,
+  };
+}
+
+/** True when the watch has at least one override. */
+export function hasOverride(override: WatchThresholds): boolean {
+  return override.maeCm1 !== undefined || override.maeRelative !== undefined || override.nRelative !== undefined;
+}
