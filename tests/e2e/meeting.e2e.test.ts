@@ -97,7 +97,7 @@ describe('group meeting', () => {
     const plot = page.getByTestId('presenter').locator('svg.marks');
     await plot.waitFor({ timeout: 20_000 });
     // hovering a point shows its values and its source
-    await page.getByTestId('presenter').locator('g.mark-symbol path').last().hover({ force: true });
+    await page.getByTestId('presenter').locator('g.mark-symbol.role-mark path').nth(5).hover({ force: true });
     const tooltip = page.locator('#vg-tooltip-element');
     await expect.poll(async () => ((await tooltip.count()) ? await tooltip.textContent() : ''), { timeout: 10_000 }).toMatch(/Source/);
     await screenshot(page, 'presenter');
