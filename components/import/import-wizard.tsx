@@ -16,6 +16,7 @@ import { ColumnMappingForm } from './column-mapping';
 import { FileDrop } from './file-drop';
 import { ProgressBar } from './progress-bar';
 import { RowErrorTable } from './row-error-table';
+import { DosImport } from './dos-import';
 import { usePreviewWorker } from './use-preview-worker';
 
 type Outcome = { importId: string; rowCount: number; insertedCount: number; duplicateCount: number; duplicates: Array<{ row: number; reason: string }> };
@@ -25,10 +26,12 @@ type CommitState =
   | { status: 'done'; outcome: Outcome }
   | { status: 'refused'; message: string; errors?: RowError[]; errorCount?: number; firstImportId?: string };
 
-const KIND_LABEL: Record<ImportableKind, string> = { measurements: 'Measurements (experiment)', calculations: 'Calculations (computed)' };
+type WizardKind = ImportableKind | 'dos';
+const KIND_LABEL: Record<WizardKind, string> = { measurements: 'Measurements (experiment)', calculations: 'Calculations (computed)', dos: 'Phonon DOS (computes entropies)' };
 
 export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug: string }) {
-  const [kind, setKind] = useState<ImportableKind>('measurements');
+  const [kind, setKind] = useState<WizardKind>('measurements');
+  const tableKind: ImportableKind = kind === 'dos' ? 'measurements' : kind;
   const [file, setFile] = useState<File | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping | undefined>(undefined);
   const [units, setUnits] = useState<DefaultUnits>({});
@@ -50,14 +53,14 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
     };
   }, [workspaceId]);
 
-  const request = useMemo(() => (file && references ? { file, kind, mapping, units, references } : null), [file, kind, mapping, units, references]);
+  const request = useMemo(() => (kind !== 'dos' && file && references ? { file, kind: tableKind, mapping, units, references } : null), [file, kind, tableKind, mapping, units, references]);
   const preview = usePreviewWorker(request);
   const result = preview.status === 'done' ? preview.result : null;
-  const columns = columnsOf(kind);
+  const columns = columnsOf(tableKind);
   const noUnitColumn = result !== null && !result.mapping.unit;
   const canCommit = result !== null && result.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
 
-  const reset = (next: Partial<{ kind: ImportableKind; file: File | null }>) => {
+  const reset = (next: Partial<{ kind: WizardKind; file: File | null }>) => {
     if (next.kind) setKind(next.kind);
     if (next.file !== undefined) setFile(next.file);
     setMapping(undefined);
@@ -67,7 +70,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   async function send() {
     if (!file || !result) return;
     setCommit({ status: 'sending' });
-    const query = wizardQuery({ kind, fileName: file.name, mapping: result.mapping, units: noUnitColumn ? units : undefined });
+    const query = wizardQuery({ kind: tableKind, fileName: file.name, mapping: result.mapping, units: noUnitColumn ? units : undefined });
     try {
       const res = await fetch(`/api/workspaces/${workspaceId}/imports?${query}`, { method: 'POST', body: file, headers: { 'content-type': 'text/csv' } });
       const body = await res.json();
@@ -84,7 +87,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
         <div className="flex flex-wrap items-end gap-4">
           <fieldset className="flex gap-4 text-sm">
             <legend className="sr-only">Kind of import</legend>
-            {(['measurements', 'calculations'] as const).map((k) => (
+            {(['measurements', 'calculations', 'dos'] as const).map((k) => (
               <label key={k} className="flex items-center gap-1.5">
                 <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => reset({ kind: k })} disabled={commit.status === 'sending'} />
                 {KIND_LABEL[k]}
@@ -92,85 +95,94 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
             ))}
           </fieldset>
           <a className={buttonClass('secondary')} href={`/api/workspaces/${workspaceId}/imports/templates/${kind}.csv`} download>
-            Download the {kind} template
+            Download the {kind === 'dos' ? 'DOS' : kind} template
           </a>
         </div>
       </Panel>
 
-      <Panel title="2 · Choose the file">
-        <div className="space-y-3">
+      {kind === 'dos' ? (
+        <>
           {referenceError && <Notice tone="bad">Could not load the workspace’s materials, sources and methods: {referenceError}</Notice>}
-          <FileDrop onFile={(f) => reset({ file: f })} disabled={commit.status === 'sending'} />
-          {file && (
-            <p className="text-sm text-ink-muted">
-              <span className="font-medium text-ink">{file.name}</span> · <span className="num">{file.size.toLocaleString('en')} bytes</span>
-            </p>
-          )}
-          {preview.status === 'working' && <ProgressBar label={preview.phase === 'reading' ? 'Reading the file (UTF-8)' : 'Parsing and checking rows'} fraction={preview.fraction} />}
-          {preview.status === 'failed' && <Notice tone="bad">{preview.message}</Notice>}
-          {preview.status === 'refused' && (
-            <div className="space-y-2">
-              <Notice tone="bad">{preview.message}</Notice>
-              <RowErrorTable errors={preview.errors} errorCount={preview.errors.length} />
+          <DosImport workspaceId={workspaceId} slug={slug} references={references} />
+        </>
+      ) : (
+        <>
+          <Panel title="2 · Choose the file">
+            <div className="space-y-3">
+              {referenceError && <Notice tone="bad">Could not load the workspace’s materials, sources and methods: {referenceError}</Notice>}
+              <FileDrop onFile={(f) => reset({ file: f })} disabled={commit.status === 'sending'} />
+              {file && (
+                <p className="text-sm text-ink-muted">
+                  <span className="font-medium text-ink">{file.name}</span> · <span className="num">{file.size.toLocaleString('en')} bytes</span>
+                </p>
+              )}
+              {preview.status === 'working' && <ProgressBar label={preview.phase === 'reading' ? 'Reading the file (UTF-8)' : 'Parsing and checking rows'} fraction={preview.fraction} />}
+              {preview.status === 'failed' && <Notice tone="bad">{preview.message}</Notice>}
+              {preview.status === 'refused' && (
+                <div className="space-y-2">
+                  <Notice tone="bad">{preview.message}</Notice>
+                  <RowErrorTable errors={preview.errors} errorCount={preview.errors.length} />
+                </div>
+              )}
             </div>
-          )}
-        </div>
-      </Panel>
+          </Panel>
 
-      {result && (
-        <Panel title="3 · Columns and units">
-          <div className="space-y-4">
-            <p className="text-sm text-ink-muted">
-              {result.delimiterName}-separated, {result.headers.length} columns. Matched automatically — correct any column below.
-              {result.ignored.length > 0 && <> Ignored file columns: {result.ignored.map((h) => `“${h}”`).join(', ')}.</>}
-            </p>
-            <ColumnMappingForm columns={columns} headers={result.headers} mapping={result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
-            {noUnitColumn && (
-              <div className="flex flex-wrap gap-4">
-                <p className="w-full text-sm text-ink-muted">The file has no unit column: choose the unit of its values.</p>
-                <label className="space-y-0.5 text-xs font-medium">
-                  Frequency unit
-                  <select className={inputClass} value={units.frequency ?? ''} onChange={(e) => setUnits({ ...units, frequency: (e.target.value || undefined) as DefaultUnits['frequency'] })}>
-                    <option value="">— choose —</option>
-                    {FREQUENCY_UNITS.map((u) => (
-                      <option key={u}>{u}</option>
-                    ))}
-                  </select>
-                </label>
-                <label className="space-y-0.5 text-xs font-medium">
-                  Entropy unit
-                  <select className={inputClass} value={units.entropy ?? ''} onChange={(e) => setUnits({ ...units, entropy: (e.target.value || undefined) as DefaultUnits['entropy'] })}>
-                    <option value="">— choose —</option>
-                    {ENTROPY_UNITS.map((u) => (
-                      <option key={u}>{u}</option>
-                    ))}
-                  </select>
-                </label>
+          {result && (
+            <Panel title="3 · Columns and units">
+              <div className="space-y-4">
+                <p className="text-sm text-ink-muted">
+                  {result.delimiterName}-separated, {result.headers.length} columns. Matched automatically — correct any column below.
+                  {result.ignored.length > 0 && <> Ignored file columns: {result.ignored.map((h) => `“${h}”`).join(', ')}.</>}
+                </p>
+                <ColumnMappingForm columns={columns} headers={result.headers} mapping={result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
+                {noUnitColumn && (
+                  <div className="flex flex-wrap gap-4">
+                    <p className="w-full text-sm text-ink-muted">The file has no unit column: choose the unit of its values.</p>
+                    <label className="space-y-0.5 text-xs font-medium">
+                      Frequency unit
+                      <select className={inputClass} value={units.frequency ?? ''} onChange={(e) => setUnits({ ...units, frequency: (e.target.value || undefined) as DefaultUnits['frequency'] })}>
+                        <option value="">— choose —</option>
+                        {FREQUENCY_UNITS.map((u) => (
+                          <option key={u}>{u}</option>
+                        ))}
+                      </select>
+                    </label>
+                    <label className="space-y-0.5 text-xs font-medium">
+                      Entropy unit
+                      <select className={inputClass} value={units.entropy ?? ''} onChange={(e) => setUnits({ ...units, entropy: (e.target.value || undefined) as DefaultUnits['entropy'] })}>
+                        <option value="">— choose —</option>
+                        {ENTROPY_UNITS.map((u) => (
+                          <option key={u}>{u}</option>
+                        ))}
+                      </select>
+                    </label>
+                  </div>
+                )}
               </div>
-            )}
-          </div>
-        </Panel>
-      )}
+            </Panel>
+          )}
 
-      {result && (
-        <Panel title="4 · Preview and commit">
-          <div className="space-y-4">
-            <p className="text-sm">
-              <span className="num font-medium">{result.rowCount.toLocaleString('en')}</span> rows ·{' '}
-              <span className="num text-good">{result.validCount.toLocaleString('en')} valid</span> ·{' '}
-              <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{result.errorCount.toLocaleString('en')} errors</span>
-            </p>
-            {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
-            <PreviewTable headers={result.headers} rows={result.preview} />
-            <div className="flex items-center gap-3">
-              <Button type="button" onClick={send} disabled={!canCommit} aria-disabled={!canCommit}>
-                {commit.status === 'sending' ? 'Importing…' : `Import ${result.rowCount.toLocaleString('en')} rows`}
-              </Button>
-              {result.errorCount > 0 && <span className="text-xs text-ink-muted">Fix the errors in the file (or the mapping) first.</span>}
-            </div>
-            <CommitResult state={commit} slug={slug} />
-          </div>
-        </Panel>
+          {result && (
+            <Panel title="4 · Preview and commit">
+              <div className="space-y-4">
+                <p className="text-sm">
+                  <span className="num font-medium">{result.rowCount.toLocaleString('en')}</span> rows ·{' '}
+                  <span className="num text-good">{result.validCount.toLocaleString('en')} valid</span> ·{' '}
+                  <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{result.errorCount.toLocaleString('en')} errors</span>
+                </p>
+                {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
+                <PreviewTable headers={result.headers} rows={result.preview} />
+                <div className="flex items-center gap-3">
+                  <Button type="button" onClick={send} disabled={!canCommit} aria-disabled={!canCommit}>
+                    {commit.status === 'sending' ? 'Importing…' : `Import ${result.rowCount.toLocaleString('en')} rows`}
+                  </Button>
+                  {result.errorCount > 0 && <span className="text-xs text-ink-muted">Fix the errors in the file (or the mapping) first.</span>}
+                </div>
+                <CommitResult state={commit} slug={slug} />
+              </div>
+            </Panel>
+          )}
+        </>
       )}
     </div>
   );

@@ -115,7 +115,20 @@ export function buildOpenApiDocument(serverUrl: string): JsonSchema {
             'JSON rows or a CSV file (the template’s columns; UTF-8; comma, semicolon or tab). The same body twice is refused (409). ' +
             'Rows identical to existing ones are skipped and listed in `duplicates`.',
           parameters: [
-            { name: 'kind', in: 'query', required: false, description: 'Required with text/csv.', schema: { type: 'string', enum: ['measurements', 'calculations'] } },
+            {
+              name: 'kind',
+              in: 'query',
+              required: false,
+              description: 'Required with text/csv. `dos`: a phonon density of states (columns material, method, source, unit, frequency, density) from which entropies and heat capacities are computed and stored as calculations.',
+              schema: { type: 'string', enum: ['measurements', 'calculations', 'dos'] },
+            },
+            {
+              name: 'temperatures',
+              in: 'query',
+              required: false,
+              description: 'With kind=dos: temperatures in K at which to evaluate, separated by commas (default 298.15; at most 50, each > 0 and ≤ 5000).',
+              schema: { type: 'string', example: '298.15,300' },
+            },
             { name: 'fileName', in: 'query', required: false, schema: { type: 'string' } },
           ],
           requestBody: {

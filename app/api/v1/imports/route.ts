@@ -5,12 +5,15 @@ import { apiRoute } from '@/lib/api/handler';
 import { importMaxBytes } from '@/lib/api/import-limit';
 import { listRoute } from '@/lib/api/resources';
 import { importJsonBody, importCsvFile } from '@/lib/api/run-import';
+import { parseDosQuery } from '@/lib/import/dos-format';
+import { importDosFile } from '@/lib/import/dos-run';
 import { importKindQuerySchema, importSummarySchema } from '@/lib/api/schemas';
 import { limitedBody, readLimitedBody } from '@/lib/stream-limit';
 
 /**
  * POST /api/v1/imports — a JSON body `{ kind, fileName?, units?, rows }`, or a
- * CSV file (`Content-Type: text/csv`, `?kind=…&fileName=…`). 201 with the counts,
+ * CSV file (`Content-Type: text/csv`, `?kind=…&fileName=…`; a phonon DOS with
+ * `?kind=dos&temperatures=298.15,300`). 201 with the counts,
  * 422 with every row error, 409 for a file already imported, 413 over IMPORT_MAX_BYTES.
  */
 export const POST = apiRoute('imports:create', z.object({}), async (request, ctx) => {
@@ -22,6 +25,19 @@ export const POST = apiRoute('imports:create', z.object({}), async (request, ctx
     outcome = await importJsonBody({ workspaceId: ctx.workspaceId, actor, bytes: await readLimitedBody(request, maxBytes) });
   } else if (type === 'text/csv') {
     const url = new URL(request.url);
+    if (url.searchParams.get('kind') === 'dos') {
+      const dos = parseDosQuery(url.searchParams);
+      if (!dos.success) throw new AppError('bad-request', dos.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
+      outcome = await importDosFile({
+        workspaceId: ctx.workspaceId,
+        actor,
+        via: 'api',
+        fileName: dos.data.fileName ?? null,
+        temperatures: dos.data.temperatures,
+        body: limitedBody(request, maxBytes),
+      });
+      return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
+    }
     const query = importKindQuerySchema.safeParse({ kind: url.searchParams.get('kind') ?? undefined, fileName: url.searchParams.get('fileName') ?? undefined });
     if (!query.success) throw new AppError('bad-request', query.error.issues.map((i) => i.message).join(' '));
     outcome = await importCsvFile({

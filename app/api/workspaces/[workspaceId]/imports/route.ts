@@ -4,6 +4,8 @@ import { workspaceRoute } from '@/lib/route';
 import { importMaxBytes } from '@/lib/api/import-limit';
 import { problemFromError } from '@/lib/api/problem';
 import { importCsvFile } from '@/lib/api/run-import';
+import { parseDosQuery } from '@/lib/import/dos-format';
+import { importDosFile } from '@/lib/import/dos-run';
 import { parseWizardQuery } from '@/lib/import/wizard-options';
 import type { DefaultUnits } from '@/lib/import/units';
 import { limitedBody } from '@/lib/stream-limit';
@@ -14,7 +16,9 @@ import { limitedBody } from '@/lib/stream-limit';
  * The server decodes, parses and validates everything again; it is the authority.
  */
 export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.string().min(1) }), async (request, ctx) => {
-  const options = parseWizardQuery(new URL(request.url).searchParams);
+  const params = new URL(request.url).searchParams;
+  if (params.get('kind') === 'dos') return postDos(request, params, ctx.workspace.id, ctx.user.id);
+  const options = parseWizardQuery(params);
   if (!options.success) throw new AppError('bad-request', options.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
   try {
     const outcome = await importCsvFile({
@@ -33,3 +37,22 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
     return problemFromError(e);
   }
 });
+
+/** A phonon DOS file (?kind=dos&temperatures=…): entropies and heat capacities computed and stored as calculations. */
+async function postDos(request: Request, params: URLSearchParams, workspaceId: string, userId: string): Promise<Response> {
+  const options = parseDosQuery(params);
+  if (!options.success) throw new AppError('bad-request', options.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
+  try {
+    const outcome = await importDosFile({
+      workspaceId,
+      actor: { userId, tokenId: null },
+      via: 'wizard',
+      fileName: options.data.fileName ?? null,
+      temperatures: options.data.temperatures,
+      body: limitedBody(request, importMaxBytes()),
+    });
+    return Response.json(outcome, { status: 201 });
+  } catch (e) {
+    return problemFromError(e);
+  }
+}

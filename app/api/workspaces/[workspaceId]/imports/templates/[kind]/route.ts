@@ -3,11 +3,17 @@ import { AppError } from '@/lib/errors';
 import { workspaceRoute } from '@/lib/route';
 import { isImportableKind } from '@/lib/import/columns';
 import { templateCsv, templateFileName } from '@/lib/import/templates';
+import { DOS_TEMPLATE_FILE_NAME, dosTemplateCsv } from '@/lib/import/dos-template';
 
 /** The CSV template of a kind (the same text as data/templates/<kind>-template.csv). */
 export const GET = workspaceRoute('imports:read', z.object({ workspaceId: z.string().min(1), kind: z.string().max(40) }), async (_request, _ctx, params) => {
   const kind = params.kind.replace(/\.csv$/, '');
-  if (!isImportableKind(kind)) throw new AppError('not-found', 'Templates exist for measurements and calculations.');
+  if (kind === 'dos') {
+    return new Response(dosTemplateCsv(), {
+      headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${DOS_TEMPLATE_FILE_NAME}"` },
+    });
+  }
+  if (!isImportableKind(kind)) throw new AppError('not-found', 'Templates exist for measurements, calculations and dos.');
   return new Response(templateCsv(kind), {
     headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${templateFileName(kind)}"` },
   });

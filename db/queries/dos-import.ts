@@ -1,0 +1,183 @@
+import 'server-only';
+import { createHash } from 'node:crypto';
+import { and, eq, inArray, isNull } from 'drizzle-orm';
+import { db } from '@/db/client';
+import { calculation, importBatch, material, method, source } from '@/db/schema';
+import { writeAudit } from '@/db/queries/audit';
+import { findImportBySha, INSERT_CHUNK_ROWS, type DuplicateRow, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import { AppError } from '@/lib/errors';
+import { computeAllDosValues, resolveDosBlocks, type ComputedDosValue, type DosReferences } from '@/lib/import/dos-compute';
+import type { DosParseResult } from '@/lib/import/dos-parse';
+import { ImportRefusal, MAX_REPORTED_ERRORS } from '@/lib/import/errors';
+
+/** Materials (with atoms in the cell), sources and methods by the handles a DOS file uses. */
+export async function loadDosReferences(workspaceId: string): Promise<DosReferences> {
+  const [materials, sources, methods] = await Promise.all([
+    db
+      .select({ id: material.id, name: material.name, atomsPerFormulaUnit: material.atomsPerFormulaUnit, atomsInCell: material.atomsInCell })
+      .from(material)
+      .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
+    db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
+    db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), isNull(method.retractedAt))),
+  ]);
+  return {
+    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: m.atomsInCell }])),
+    sources: new Map(sources.map((s) => [s.key, s.id])),
+    methods: new Map(methods.map((m) => [m.label, m.id])),
+  };
+}
+
+/** Atoms in the cell of every live material, for the wizard's DOS preview. */
+export async function listAtomsInCell(workspaceId: string): Promise<Map<string, number | null>> {
+  const rows = await db
+    .select({ id: material.id, atomsInCell: material.atomsInCell })
+    .from(material)
+    .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt)));
+  return new Map(rows.map((r) => [r.id, r.atomsInCell]));
+}
+
+export interface DosImportOutcome extends ImportOutcome {
+  /** DOS blocks (material × method) in the file, temperatures evaluated, values computed. */
+  dosCount: number;
+  temperatures: number[];
+  computedCount: number;
+}
+
+const hashOf = (identity: string) => createHash('sha256').update(identity).digest('base64url');
+
+function duplicateFile(first: { id: string; fileName: string | null; status: string }): AppError {
+  return new AppError(
+    'conflict',
+    `This file was already imported${first.fileName ? ` as "${first.fileName}"` : ''} (import ${first.id}${first.status === 'undone' ? ', since undone' : ''}).`,
+    { firstImportId: first.id },
+  );
+}
+
+/**
+ * Stores the entropies and heat capacities computed from a parsed DOS file, with
+ * its import record (kind 'dos') and one audit row, in ONE transaction. Any row
+ * error, unknown handle, material without atoms in the cell or a duplicate file
+ * refuses the whole file before anything is written. Values identical to live
+ * calculation rows are skipped and reported (same row hash as typed-in rows).
+ * `rowCount` counts the file's data rows; `insertedCount` the calculation rows stored.
+ */
+export async function commitDosImport(args: {
+  workspaceId: string;
+  actor: ImportActor;
+  file: { fileName: string | null; sha256: string; byteCount: number; via: 'wizard' | 'api' };
+  parsed: DosParseResult;
+  temperatures: number[];
+}): Promise<DosImportOutcome> {
+  const { workspaceId, actor, file, parsed, temperatures } = args;
+  const first = await findImportBySha(workspaceId, file.sha256);
+  if (first) throw duplicateFile(first);
+
+  const references = await loadDosReferences(workspaceId);
+  const { resolved, errors, errorCount } = resolveDosBlocks(parsed.blocks, references, (key) => parsed.columnNames[key] ?? key);
+  const totalErrors = parsed.errorCount + errorCount;
+  if (totalErrors > 0) {
+    const all = [...parsed.errors, ...errors].sort((a, b) => a.row - b.row).slice(0, MAX_REPORTED_ERRORS);
+    throw new ImportRefusal(`Nothing was imported: ${totalErrors} ${totalErrors === 1 ? 'error' : 'errors'} in the file.`, all, totalErrors);
+  }
+  const values = computeAllDosValues(resolved, temperatures);
+  const rowOfBlock = resolved.map((r) => r.block.firstRow);
+
+  const importId = crypto.randomUUID();
+  const duplicates: DuplicateRow[] = [];
+  let duplicateCount = 0;
+  let insertedCount = 0;
+
+  await db.transaction(async (tx) => {
+    try {
+      await tx.insert(importBatch).values({
+        id: importId,
+        workspaceId,
+        kind: 'dos',
+        fileName: file.fileName,
+        sha256: file.sha256,
+        byteCount: file.byteCount,
+        rowCount: parsed.rowCount,
+        insertedCount: 0,
+        duplicateCount: 0,
+        via: file.via,
+        createdBy: actor.userId,
+        createdByToken: actor.tokenId,
+      });
+    } catch (e) {
+      const again = await findImportBySha(workspaceId, file.sha256);
+      if (again) throw duplicateFile(again);
+      throw e;
+    }
+
+    const hashed = values.map((v) => ({ v, hash: hashOf(v.identity) }));
+    const known = new Set<string>();
+    for (let i = 0; i < hashed.length; i += INSERT_CHUNK_ROWS) {
+      const chunk = hashed.slice(i, i + INSERT_CHUNK_ROWS).map((h) => h.hash);
+      const rows = await tx
+        .select({ hash: calculation.rowHash })
+        .from(calculation)
+        .where(and(eq(calculation.workspaceId, workspaceId), isNull(calculation.retractedAt), inArray(calculation.rowHash, chunk)));
+      for (const r of rows) known.add(r.hash);
+    }
+    const fresh: Array<{ v: ComputedDosValue; hash: string }> = [];
+    for (const h of hashed) {
+      if (known.has(h.hash)) {
+        duplicateCount++;
+        if (duplicates.length < MAX_REPORTED_ERRORS) {
+          duplicates.push({
+            row: rowOfBlock[h.v.blockIndex],
+            reason: `The ${h.v.quantity} at ${h.v.temperatureK} K (${h.v.valueText} J/mol/K) is identical to a row already in the workspace; skipped.`,
+          });
+        }
+      } else {
+        known.add(h.hash);
+        fresh.push(h);
+      }
+    }
+    const notes = `computed from phonon DOS (import ${importId})`;
+    for (let i = 0; i < fresh.length; i += INSERT_CHUNK_ROWS) {
+      await tx.insert(calculation).values(
+        fresh.slice(i, i + INSERT_CHUNK_ROWS).map(({ v, hash }) => ({
+          workspaceId,
+          materialId: v.materialId,
+          sourceId: v.sourceId,
+          methodId: v.methodId,
+          importId,
+          quantity: v.quantity,
+          value: v.value,
+          valueText: v.valueText,
+          unit: v.unit,
+          temperatureK: v.temperatureK,
+          notes,
+          rowHash: hash,
+          contributorId: actor.userId,
+        })),
+      );
+      insertedCount += Math.min(INSERT_CHUNK_ROWS, fresh.length - i);
+      await new Promise<void>((resolve) => setImmediate(resolve));
+    }
+
+    await tx.update(importBatch).set({ insertedCount, duplicateCount }).where(eq(importBatch.id, importId));
+    await writeAudit(tx, {
+      workspaceId,
+      actor,
+      action: 'import',
+      entityType: 'import',
+      entityId: importId,
+      after: {
+        kind: 'dos',
+        fileName: file.fileName,
+        sha256: file.sha256,
+        byteCount: file.byteCount,
+        rowCount: parsed.rowCount,
+        insertedCount,
+        duplicateCount,
+        via: file.via,
+        temperatures,
+        dos: resolved.map((r) => ({ material: r.block.material, method: r.block.method, points: r.block.frequency.length, formulaUnitsPerCell: r.formulaUnitsPerCell })),
+      },
+    });
+  });
+
+  return { importId, rowCount: parsed.rowCount, insertedCount, duplicateCount, duplicates, dosCount: resolved.length, temperatures, computedCount: values.length };
+}

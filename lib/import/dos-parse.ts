@@ -1,0 +1,229 @@
+import { convertFrequency, type FrequencyUnit } from '@/lib/science/units';
+import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
+import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
+import { resolveDosHeader, type DosColumnKey, type DosHeader } from './dos-format';
+import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from './errors';
+import { notANumberReason, parseDecimal } from './numbers';
+import { parseUnit } from './units';
+
+/** One density of states of the file: the rows of one (material, method). */
+export interface DosBlock {
+  material: string;
+  method: string;
+  source: string;
+  unit: FrequencyUnit;
+  /** Row number of the block's first row (the header is row 1). */
+  firstRow: number;
+  /** Grid in the file's unit, and in cm⁻¹. */
+  frequency: number[];
+  frequencyCm1: number[];
+  density: number[];
+  /** Row of the last point taken, for the ascending-order message. */
+  lastRow: number;
+  /** Rows of this DOS refused with an error (their points are not in the grid). */
+  rejectedRows: number;
+}
+
+export interface DosParseResult {
+  headers: string[];
+  delimiter: Delimiter;
+  ignored: string[];
+  /** Column key → the header text as written, for error messages. */
+  columnNames: Record<string, string>;
+  /** Data rows read (blank lines not counted). */
+  rowCount: number;
+  blocks: DosBlock[];
+  errors: RowError[];
+  errorCount: number;
+}
+
+const EMPTY: RowError = { row: 0, column: null, reason: 'The file is empty.' };
+
+/**
+ * Reads a DOS file given as decoded text in any chunk sizes (the server streams it,
+ * the browser passes it whole): detects the delimiter from the header line, checks
+ * the header, and groups rows into blocks per (material, method). Row problems are
+ * collected with row, column and reason; file-level problems throw ImportRefusal.
+ * Negative frequencies (imaginary modes) are refused, not dropped: a harmonic
+ * entropy of an unstable structure would be silently wrong.
+ */
+export class DosFileReader {
+  private head = '';
+  private reader: CsvReader | null = null;
+  private delimiter: Delimiter = ',';
+  private header: DosHeader | null = null;
+  private headers: string[] = [];
+  private rowNumber = 0;
+  private rowCount = 0;
+  private readonly blocks = new Map<string, DosBlock>();
+  /** Blocks whose unit is not known yet (their first row had an unreadable unit or another error). */
+  private readonly unitless = new Set<DosBlock>();
+  private readonly errors: RowError[] = [];
+  private errorCount = 0;
+
+  push(text: string): void {
+    if (this.reader) {
+      this.take(this.reader.push(text));
+      return;
+    }
+    this.head += text;
+    if (hasHeaderLine(this.head)) this.start(false);
+  }
+
+  end(): DosParseResult {
+    if (!this.reader) {
+      if (this.head.trim() === '') throw new ImportRefusal('The file is empty.', [EMPTY]);
+      this.start(true);
+    } else this.take(this.reader.end());
+    if (this.rowCount === 0) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
+    for (const block of this.blocks.values()) {
+      if (block.frequency.length < 2 && block.rejectedRows === 0) {
+        this.fail(block.firstRow, 'frequency', `The DOS of ${block.material} / ${block.method} has ${block.frequency.length} grid point; it needs at least 2.`);
+      } else if (block.rejectedRows === 0 && block.frequency.length >= 2 && !block.density.some((g) => g > 0)) {
+        this.fail(block.firstRow, 'density', `The DOS of ${block.material} / ${block.method} is zero everywhere; there is nothing to normalise.`);
+      }
+    }
+    return {
+      headers: this.headers,
+      delimiter: this.delimiter,
+      ignored: this.header?.ignored ?? [],
+      columnNames: Object.fromEntries(this.header?.nameByKey ?? []),
+      rowCount: this.rowCount,
+      blocks: [...this.blocks.values()],
+      errors: this.errors,
+      errorCount: this.errorCount,
+    };
+  }
+
+  private start(final: boolean): void {
+    if (this.head.trim() === '') throw new ImportRefusal('The file is empty.', [EMPTY]);
+    this.delimiter = detectDelimiter(this.head);
+    this.reader = new CsvReader(this.delimiter);
+    const records = this.reader.push(this.head);
+    if (final) this.reader.end(records);
+    this.head = '';
+    this.take(records);
+  }
+
+  private take(records: CsvRecord[]): void {
+    for (const record of records) {
+      this.rowNumber++;
+      if (isBlankRecord(record.fields)) continue;
+      if (!this.header) {
+        this.headers = record.fields;
+        this.header = resolveDosHeader(record.fields);
+        if (this.header.errors.length) throw new ImportRefusal('The header row has problems.', this.header.errors);
+        continue;
+      }
+      this.rowCount++;
+      this.readRow(this.rowNumber, record);
+    }
+  }
+
+  private columnName(key: DosColumnKey): string {
+    return this.header?.nameByKey.get(key) ?? key;
+  }
+
+  private fail(row: number, key: DosColumnKey | null, reason: string, value?: string): void {
+    this.errorCount++;
+    if (this.errors.length < MAX_REPORTED_ERRORS) {
+      this.errors.push({ row, column: key === null ? null : this.columnName(key), reason, ...(value !== undefined ? { value } : {}) });
+    }
+  }
+
+  private readRow(row: number, record: CsvRecord): void {
+    const header = this.header!;
+    if (record.malformed) {
+      this.fail(row, null, 'Broken quoting: a quoted cell must end with a quote followed by a delimiter or a line break.');
+      return;
+    }
+    if (record.fields.length !== this.headers.length) {
+      this.fail(row, null, `This row has ${record.fields.length} cells; the header has ${this.headers.length} (${delimiterName(this.delimiter)}-separated).`);
+      return;
+    }
+    const before = this.errorCount;
+    const cell = (key: DosColumnKey) => (record.fields[header.indexByKey.get(key)!] ?? '').trim();
+    const required = (key: DosColumnKey) => {
+      const text = cell(key);
+      if (text === '') this.fail(row, key, `"${key}" is required on every row.`);
+      return text;
+    };
+    const material = required('material');
+    const method = required('method');
+    const source = required('source');
+    const unitText = required('unit');
+    const unit = unitText === '' ? null : (parseUnit('frequency', unitText) as FrequencyUnit | null);
+    if (unitText !== '' && !unit) this.fail(row, 'unit', `Unknown frequency unit "${unitText}"; use cm-1, THz or meV.`, unitText);
+
+    const number = (key: 'frequency' | 'density'): number | null => {
+      const text = required(key);
+      if (text === '') return null;
+      const n = parseDecimal(text);
+      if (n === null) this.fail(row, key, notANumberReason(text), text);
+      return n;
+    };
+    const frequency = number('frequency');
+    const density = number('density');
+    const frequencyText = cell('frequency');
+    if (frequency !== null && frequency < 0) {
+      this.fail(
+        row,
+        'frequency',
+        `Negative (imaginary) frequency ${frequencyText}: the harmonic entropy of a dynamically unstable structure is undefined. Fix the calculation or cut the imaginary part from the DOS.`,
+        frequencyText,
+      );
+    }
+    if (density !== null && density < 0) this.fail(row, 'density', `A density of states cannot be negative (got ${cell('density')}).`, cell('density'));
+    if (frequency === 0 && density !== null && density > 0) {
+      this.fail(row, 'density', 'The density at zero frequency must be 0: a zero-frequency mode has no harmonic entropy.', cell('density'));
+    }
+    if (material === '' || method === '') return;
+
+    const key = `${material}\u001f${method}`;
+    let block = this.blocks.get(key);
+    if (!block) {
+      block = { material, method, source, unit: unit ?? 'cm-1', firstRow: row, frequency: [], frequencyCm1: [], density: [], lastRow: row, rejectedRows: 0 };
+      this.blocks.set(key, block);
+      if (this.errorCount !== before) {
+        // The first row is refused: let the next good row set the source and unit.
+        block.source = '';
+        this.unitless.add(block);
+      }
+    }
+    if (block.source === '' && source !== '') block.source = source;
+    if (this.unitless.has(block) && unit) {
+      block.unit = unit;
+      this.unitless.delete(block);
+    }
+    if (source !== '' && source !== block.source) {
+      this.fail(row, 'source', `The DOS of ${material} / ${method} started with source "${block.source}" (row ${block.firstRow}); one DOS has one source.`, source);
+    }
+    if (unit && !this.unitless.has(block) && unit !== block.unit) {
+      this.fail(row, 'unit', `The DOS of ${material} / ${method} started in ${block.unit} (row ${block.firstRow}); one DOS has one unit.`, unitText);
+    }
+    const n = block.frequency.length;
+    if (frequency !== null && frequency >= 0 && n > 0 && !(frequency > block.frequency[n - 1])) {
+      this.fail(
+        row,
+        'frequency',
+        `Frequencies must increase strictly within one DOS: ${frequencyText} follows ${block.frequency[n - 1]} (row ${block.lastRow}) of ${material} / ${method}.`,
+        frequencyText,
+      );
+    }
+    if (this.errorCount !== before || frequency === null || density === null) {
+      block.rejectedRows++;
+      return;
+    }
+    block.frequency.push(frequency);
+    block.frequencyCm1.push(convertFrequency(frequency, block.unit, 'cm-1'));
+    block.density.push(density);
+    block.lastRow = row;
+  }
+}
+
+/** Parses a whole decoded file (the browser preview and tests). */
+export function parseDosText(text: string): DosParseResult {
+  const reader = new DosFileReader();
+  reader.push(text);
+  return reader.end();
+}
