@@ -49,7 +49,7 @@ export function SlidePlot({
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 500, height: 420 }), n: visible.length };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 500, height: forPrint ? 420 : 360 }), n: visible.length };
       case 'histogram':
         return { spec: errorHistogramSpec(visible, { unit, methods: labels }), n: visible.length };
       case 'residuals':
@@ -73,8 +73,10 @@ export function SlidePlot({
         return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), n: paired.length };
       }
     }
-  }, [kind, points, methods, labels, unit, filters]);
+  }, [kind, points, methods, labels, unit, filters, forPrint]);
 
   if (spec.n === 0) return <p className="text-ink-muted">No pairs to plot with these filters.</p>;
-  return <VegaFigure spec={spec.spec} renderer={forPrint ? 'svg' : rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} />;
+  // On a projector (1280×720) the legend goes beside the plot, where there is room, not under it.
+  const shown = forPrint ? spec.spec : { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } };
+  return <VegaFigure spec={shown} renderer={forPrint ? 'svg' : rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} />;
 }
