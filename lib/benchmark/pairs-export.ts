@@ -1,5 +1,5 @@
 /** The pairs of a revision as CSV rows and as the JSON the plots read. */
-import { toCsv } from './csv';
+import { toCsv } from '@/lib/csv';
 import type { BenchmarkSnapshot, PairRecord } from './types';
 
 export interface PairLookups {

@@ -1,4 +1,4 @@
-import { toCsv } from './csv-export';
+import { toCsv } from '@/lib/csv';
 import { DOS_COLUMNS } from './dos-format';
 
 export const DOS_TEMPLATE_FILE_NAME = 'dos-template.csv';

@@ -1,5 +1,5 @@
 import { columnsOf, type ImportableKind } from './columns';
-import { toCsv } from './csv-export';
+import { toCsv } from '@/lib/csv';
 
 /**
  * Example rows of the downloadable templates. The measured values are published

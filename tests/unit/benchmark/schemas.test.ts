@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { alertThresholdsSchema, benchmarkDefinitionSchema, readRules, rulesSchema, scopeSchema } from '@/lib/benchmark/schemas';
-import { csvCell, toCsv } from '@/lib/benchmark/csv';
+import { csvCell, toCsv } from '@/lib/csv';
 import { bandOf } from '@/lib/benchmark/compute';
 
 describe('benchmark scope and rules', () => {
@@ -53,8 +53,10 @@ describe('benchmark scope and rules', () => {
 
 describe('CSV cells', () => {
   it('neutralises formula triggers and keeps numbers numeric', () => {
-    for (const trigger of ['=1+1', '+1', '-1', '@SUM(A1)', '\tx', '\rx']) expect(csvCell(trigger).replace(/^"/, '').startsWith("'")).toBe(true);
+    for (const trigger of ['=1+1', '+A1', '-A1', '@SUM(A1)', '\tx', '\rx']) expect(csvCell(trigger).replace(/^"/, '').startsWith("'")).toBe(true);
     expect(csvCell(-12.5)).toBe('-12.5');
+    // a number kept as its original text stays a number
+    expect(csvCell('-1.50')).toBe('-1.50');
     expect(csvCell('a,b')).toBe('"a,b"');
     expect(csvCell('say "hi"')).toBe('"say ""hi"""');
     expect(csvCell(null)).toBe('');

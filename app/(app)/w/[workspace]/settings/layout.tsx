@@ -17,6 +17,9 @@ export default async function SettingsLayout({ children, params }: { children: R
           <Link href={`${base}/tokens`} className="-mb-px border-b-2 border-transparent pb-2 hover:border-accent">
             API tokens
           </Link>
+          <Link href={`${base}/quality`} className="-mb-px border-b-2 border-transparent pb-2 hover:border-accent">
+            Quality thresholds
+          </Link>
         </nav>
       </header>
       {children}

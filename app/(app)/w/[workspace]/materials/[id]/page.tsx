@@ -12,6 +12,8 @@ import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMaterialAction, retractMaterialAction } from '../actions';
 import { MaterialValuesSection } from '../_components/material-values';
 import { AddToDeck } from '@/components/decks/add-to-deck';
+import { QualityFlags } from '@/components/quality/quality-flags';
+import { loadMaterialQuality } from '@/components/quality/load-material-quality';
 
 export const metadata: Metadata = { title: 'Material' };
 
@@ -23,6 +25,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
   const m = await getMaterial(ctx.workspace.id, id);
   if (!m) notFound();
   const values = await getMaterialValues(ctx.workspace.id, m.id);
+  const quality = await loadMaterialQuality(ctx.workspace.id, m, values);
   const slug = ctx.workspace.slug;
   const fields: Array<[string, React.ReactNode]> = [
     ['Formula', m.formula],
@@ -74,6 +77,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
         </dl>
       </Panel>
       <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} selectedMethodId={(await searchParams).method} />
+      <QualityFlags slug={slug} results={quality} thresholdsHref={`/w/${slug}/settings/quality`} />
       {roleCan(ctx.role, 'materials:retract') && (
         <Panel title={m.retractedAt ? 'Restore' : 'Retract'} className="max-w-xl">
           <RetractionForm workspaceId={ctx.workspace.id} id={m.id} mode={m.retractedAt ? 'restore' : 'retract'} action={m.retractedAt ? restoreMaterialAction : retractMaterialAction} noun="material" />

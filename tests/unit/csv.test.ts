@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
-import { csvLine, neutraliseCell, toCsv } from '@/lib/import/csv-export';
+import { csvLine, neutraliseCell, toCsv } from '@/lib/csv';
 
 describe('CSV export neutralises formula cells (OWASP CSV injection)', () => {
   it('prefixes text starting with = + - @ tab or CR with an apostrophe', () => {

@@ -1,4 +1,4 @@
-import { parseDecimal } from './numbers';
+import { parseDecimal } from './import/numbers';
 
 export type CsvCell = string | number | null | undefined;
 
@@ -21,9 +21,14 @@ function quote(text: string): string {
   return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
+/** One neutralised cell, quoted as RFC 4180 requires. */
+export function csvCell(cell: CsvCell): string {
+  return quote(neutraliseCell(cell));
+}
+
 /** A CSV line (comma-separated, RFC 4180 quoting) of neutralised cells. */
 export function csvLine(cells: readonly CsvCell[]): string {
-  return cells.map((c) => quote(neutraliseCell(c))).join(',');
+  return cells.map(csvCell).join(',');
 }
 
 /** A whole CSV document with a header, lines ended by CRLF as RFC 4180 says. */

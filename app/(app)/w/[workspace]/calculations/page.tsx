@@ -1,0 +1,36 @@
+import type { Metadata } from 'next';
+import { requirePageMember } from '@/lib/session';
+import { parseValueListParams } from '@/lib/catalog/value-list-params';
+import { QUANTITIES } from '@/db/schema/values';
+import { listCalculationRows, listMethodChoices } from '@/db/queries/values';
+import { ValuesTable } from '../measurements/_components/values-table';
+import { toValueRow } from '../measurements/_components/value-row';
+
+export const metadata: Metadata = { title: 'Calculations' };
+
+export default async function CalculationsPage({ params, searchParams }: { params: Promise<{ workspace: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const ctx = await requirePageMember((await params).workspace, 'calculations:read');
+  const list = parseValueListParams(await searchParams);
+  const [{ rows, total, sort }, methods] = await Promise.all([listCalculationRows(ctx.workspace.id, list), listMethodChoices(ctx.workspace.id)]);
+  return (
+    <div className="space-y-4">
+      <header>
+        <h1>Calculations</h1>
+        <p className="text-sm text-ink-muted">
+          Computed modes and entropies, one row per value, with the method that produced them. The value is shown as entered (with its unit) and in canonical units.
+        </p>
+      </header>
+      <ValuesTable
+        slug={ctx.workspace.slug}
+        kind="calculations"
+        rows={rows.map(toValueRow)}
+        rowCount={total}
+        state={{ page: list.page, size: list.size, sort, dir: list.dir }}
+        filters={[
+          { param: 'quantity', label: 'Quantity', options: QUANTITIES.map((q) => ({ value: q, label: q })) },
+          { param: 'method', label: 'Method', options: methods.map((m) => ({ value: m.id, label: m.label })) },
+        ]}
+      />
+    </div>
+  );
+}

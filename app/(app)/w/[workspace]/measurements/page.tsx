@@ -1,0 +1,36 @@
+import type { Metadata } from 'next';
+import { requirePageMember } from '@/lib/session';
+import { parseValueListParams } from '@/lib/catalog/value-list-params';
+import { QUANTITIES, TECHNIQUES } from '@/db/schema/values';
+import { listMeasurementRows } from '@/db/queries/values';
+import { ValuesTable } from './_components/values-table';
+import { toValueRow } from './_components/value-row';
+
+export const metadata: Metadata = { title: 'Measurements' };
+
+export default async function MeasurementsPage({ params, searchParams }: { params: Promise<{ workspace: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const ctx = await requirePageMember((await params).workspace, 'measurements:read');
+  const list = parseValueListParams(await searchParams);
+  const { rows, total, sort } = await listMeasurementRows(ctx.workspace.id, list);
+  return (
+    <div className="space-y-4">
+      <header>
+        <h1>Measurements</h1>
+        <p className="text-sm text-ink-muted">
+          Measured peaks and entropies with their source. The value is shown as entered (with its unit) and in canonical units; every row links to its import and history.
+        </p>
+      </header>
+      <ValuesTable
+        slug={ctx.workspace.slug}
+        kind="measurements"
+        rows={rows.map(toValueRow)}
+        rowCount={total}
+        state={{ page: list.page, size: list.size, sort, dir: list.dir }}
+        filters={[
+          { param: 'quantity', label: 'Quantity', options: QUANTITIES.map((q) => ({ value: q, label: q })) },
+          { param: 'technique', label: 'Technique', options: TECHNIQUES.map((t) => ({ value: t, label: t })) },
+        ]}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,69 @@
+import { qualityChecks, ScienceInputError, type QualityFlag, type QualityThresholds } from '@/lib/science';
+import { computedMode } from '@/lib/benchmark/pair-rows';
+
+type Grid = [number, number, number];
+
+/** One method's computed Γ-point modes of a material, as the material page reads them. */
+export interface MethodModeSet {
+  methodId: string;
+  methodLabel: string;
+  kGrid: Grid | null;
+  qGrid: Grid | null;
+  modes: Array<{
+    id: string;
+    value: number;
+    irrep: string | null;
+    branch: 'TO' | 'LO' | null;
+    degeneracy: number | null;
+    activity: string | null;
+    sourceId: string;
+  }>;
+}
+
+export interface QualityFinding {
+  code: QualityFlag['code'] | 'invalid-input';
+  severity: QualityFlag['severity'];
+  message: string;
+}
+
+export interface MethodQuality {
+  methodId: string;
+  methodLabel: string;
+  modeCount: number;
+  flags: QualityFinding[];
+  /** Checks that could not run for lack of an input, in words. */
+  skipped: string[];
+}
+
+/**
+ * Runs lib/science's qualityChecks on each method's modes of one material with the
+ * workspace's thresholds (the inputs a calculation set lacks skip their checks).
+ */
+export function materialQualityFlags(input: { materialId: string; atomsInCell: number | null; methods: MethodModeSet[]; thresholds?: QualityThresholds }): MethodQuality[] {
+  const out: MethodQuality[] = [];
+  for (const m of input.methods) {
+    if (m.modes.length === 0) continue;
+    const skipped: string[] = [];
+    if (input.atomsInCell === null) skipped.push('mode count and k-point density: the material has no atoms-in-cell');
+    else if (!m.kGrid) skipped.push('k-point density: the method has no k-grid');
+    if (!m.kGrid || !m.qGrid) skipped.push(`grid commensurability: the method has no ${!m.kGrid && !m.qGrid ? 'k- or q-grid' : !m.kGrid ? 'k-grid' : 'q-grid'}`);
+    let flags: QualityFinding[];
+    try {
+      flags = qualityChecks({
+        modes: m.modes.map((c) =>
+          computedMode({ ...c, materialId: input.materialId, methodId: m.methodId, importId: null, uncertainty: null, temperatureK: null }),
+        ),
+        atomsInCell: input.atomsInCell ?? undefined,
+        kGrid: m.kGrid ?? undefined,
+        qGrid: m.qGrid ?? undefined,
+        thresholds: input.thresholds,
+      }).map(({ code, severity, message }) => ({ code, severity, message }));
+    } catch (error) {
+      if (!(error instanceof ScienceInputError)) throw error;
+      flags = [{ code: 'invalid-input', severity: 'error', message: `The checks could not run: ${error.message}` }];
+    }
+    flags.sort((a, b) => (a.severity === b.severity ? a.code.localeCompare(b.code) : a.severity === 'error' ? -1 : 1));
+    out.push({ methodId: m.methodId, methodLabel: m.methodLabel, modeCount: m.modes.length, flags, skipped });
+  }
+  return out;
+}
