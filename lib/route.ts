@@ -1,13 +1,16 @@
 import 'server-only';
 import { z } from 'zod';
 import { AppError, isAppError, problemResponse } from '@/lib/errors';
-import { requireMember, type MemberContext } from '@/lib/session';
+import { requireMember, requireUser, type MemberContext } from '@/lib/session';
 import type { Permission } from '@/lib/permissions';
 
 type RouteContext<P> = { params: Promise<P> };
 
+const workspaceParam = z.object({ workspaceId: z.string().min(1) });
+
 /**
- * A workspace-scoped route handler: params parsed → session → membership and role → act.
+ * A workspace-scoped route handler: session → membership and role → params parsed → act.
+ * Session and membership come first, so a caller outside the workspace learns nothing, not even which params are valid.
  * Every refusal is an RFC 9457 problem document.
  */
 export function workspaceRoute<P extends { workspaceId: string }>(
@@ -17,9 +20,14 @@ export function workspaceRoute<P extends { workspaceId: string }>(
 ) {
   return async (request: Request, context: RouteContext<unknown>): Promise<Response> => {
     try {
-      const parsed = params.safeParse(await context.params);
+      await requireUser();
+      const raw = await context.params;
+      // Membership before the other params: another workspace's request is refused whatever else it carries.
+      const scoped = workspaceParam.safeParse(raw);
+      if (!scoped.success) throw new AppError('bad-request', 'Invalid workspace id.');
+      const ctx = await requireMember(scoped.data.workspaceId, permission);
+      const parsed = params.safeParse(raw);
       if (!parsed.success) throw new AppError('bad-request', 'Invalid path parameters.', parsed.error.issues);
-      const ctx = await requireMember(parsed.data.workspaceId, permission);
       return await act(request, ctx, parsed.data);
     } catch (e) {
       if (isAppError(e)) return problemResponse(e);

@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { ExportCsvLink } from '../measurements/_components/export-link';
 import { requirePageMember } from '@/lib/session';
 import { parseValueListParams } from '@/lib/catalog/value-list-params';
 import { QUANTITIES } from '@/db/schema/values';
@@ -10,12 +11,16 @@ export const metadata: Metadata = { title: 'Calculations' };
 
 export default async function CalculationsPage({ params, searchParams }: { params: Promise<{ workspace: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const ctx = await requirePageMember((await params).workspace, 'calculations:read');
-  const list = parseValueListParams(await searchParams);
+  const query = await searchParams;
+  const list = parseValueListParams(query);
   const [{ rows, total, sort }, methods] = await Promise.all([listCalculationRows(ctx.workspace.id, list), listMethodChoices(ctx.workspace.id)]);
   return (
     <div className="space-y-4">
-      <header>
-        <h1>Calculations</h1>
+      <header className="space-y-1">
+        <div className="flex items-center justify-between gap-3">
+          <h1>Calculations</h1>
+          <ExportCsvLink workspaceId={ctx.workspace.id} kind="calculations" searchParams={query} />
+        </div>
         <p className="text-sm text-ink-muted">
           Computed modes and entropies, one row per value, with the method that produced them. The value is shown as entered (with its unit) and in canonical units.
         </p>

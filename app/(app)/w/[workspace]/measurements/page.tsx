@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { ExportCsvLink } from './_components/export-link';
 import { requirePageMember } from '@/lib/session';
 import { parseValueListParams } from '@/lib/catalog/value-list-params';
 import { QUANTITIES, TECHNIQUES } from '@/db/schema/values';
@@ -10,12 +11,16 @@ export const metadata: Metadata = { title: 'Measurements' };
 
 export default async function MeasurementsPage({ params, searchParams }: { params: Promise<{ workspace: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const ctx = await requirePageMember((await params).workspace, 'measurements:read');
-  const list = parseValueListParams(await searchParams);
+  const query = await searchParams;
+  const list = parseValueListParams(query);
   const { rows, total, sort } = await listMeasurementRows(ctx.workspace.id, list);
   return (
     <div className="space-y-4">
-      <header>
-        <h1>Measurements</h1>
+      <header className="space-y-1">
+        <div className="flex items-center justify-between gap-3">
+          <h1>Measurements</h1>
+          <ExportCsvLink workspaceId={ctx.workspace.id} kind="measurements" searchParams={query} />
+        </div>
         <p className="text-sm text-ink-muted">
           Measured peaks and entropies with their source. The value is shown as entered (with its unit) and in canonical units; every row links to its import and history.
         </p>
