@@ -64,7 +64,7 @@ describe('discussion threads', () => {
     expect(mails).toHaveLength(1);
     expect(mails[0].toAddress).toBe(ws.members.contributor.email);
     expect(mails[0].workspaceId).toBe(ws.workspaceId);
-    expect(mails[0].subject).toMatch(/^reviewer mentioned you: A (A1g|Eg) \d+ cm-1 · X-PBEsol$/);
+    expect(mails[0].subject).toMatch(/^reviewer mentioned you: (A (A1g|Eg)|B (A1g|T2g)) \d+ cm-1 · X-PBEsol$/);
     expect(mails[0].textBody).toContain(`http://localhost:3999/w/${ws.slug}/benchmarks/${bm.benchmarkId}#pair-${encodeURIComponent(pairKey)}`);
   });
 
