@@ -71,7 +71,7 @@ export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcom
   const spooled = await spool(input.body);
   try {
     if (spooled.byteCount === 0) throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
-    const stream = createReadStream(spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
+    const stream = createReadStream(/*turbopackIgnore: true*/ spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
     const table = await openCsvTable(stream, input.kind, input.mapping);
     const outcome = await commitImport({
       workspaceId: input.workspaceId,
