@@ -230,6 +230,25 @@ function materialsInScope(workspaceId: string, scope: BenchmarkScope) {
  * scope (this workspace, live rows, the scope's quantity, techniques, temperatures,
  * materials and methods): never a whole table.
  */
+type CalculationRow = BenchmarkInput['calculations'][number];
+
+function calculationFromRow(r: unknown[]): CalculationRow {
+  return {
+    id: r[0] as string,
+    materialId: r[1] as string,
+    methodId: r[2] as string,
+    sourceId: r[3] as string,
+    importId: r[4] as string | null,
+    value: r[5] as number,
+    uncertainty: r[6] as number | null,
+    temperatureK: r[7] as number | null,
+    irrep: r[8] as string | null,
+    branch: r[9] as CalculationRow['branch'],
+    activity: r[10] as CalculationRow['activity'],
+    degeneracy: r[11] as number | null,
+  };
+}
+
 export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecord): Promise<BenchmarkInput> {
   const { scope, rules } = bm;
   const methodWhere = and(
@@ -268,6 +287,7 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
       })
       .from(measurement)
       .where(measurementScope(workspaceId, scope)),
+    // The largest read (every computed mode in scope): raw rows mapped by hand skip Drizzle's per-column decoding.
     db
       .select({
         id: calculation.id,
@@ -284,7 +304,9 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         degeneracy: calculation.degeneracy,
       })
       .from(calculation)
-      .where(and(...calculationWhere)),
+      .where(and(...calculationWhere))
+      .values()
+      .then((rows) => rows.map(calculationFromRow)),
     db
       .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell })
       .from(material)
