@@ -164,7 +164,9 @@ export async function listBenchmarks(workspaceId: string) {
   const byBenchmark = new Map(latest.map((r) => [r.benchmarkId, r]));
   return rows.map((b) => {
     const r = byBenchmark.get(b.id);
-    const methods = r?.methods ? (JSON.parse(r.methods) as Array<{ label: string; n: number; rank: number | null; statistics: { meanAbsoluteError: number } | null }>) : [];
+    const methods = r?.methods
+      ? (JSON.parse(r.methods) as Array<{ label: string; n: number; rank: number | null; outliers: number; qualityFlags: number; statistics: { meanAbsoluteError: number } | null }>)
+      : [];
     const best = methods.find((m) => m.rank === 1);
     return {
       ...b,
@@ -172,6 +174,8 @@ export async function listBenchmarks(workspaceId: string) {
       revisionAt: r?.createdAt ?? null,
       methodCount: methods.length,
       pairCount: methods.reduce((s, m) => s + m.n, 0),
+      outlierCount: methods.reduce((s, m) => s + (m.outliers ?? 0), 0),
+      qualityFlagCount: methods.reduce((s, m) => s + (m.qualityFlags ?? 0), 0),
       best: best ? { label: best.label, mae: best.statistics!.meanAbsoluteError, n: best.n } : null,
     };
   });

@@ -1,21 +1,26 @@
 import Link from 'next/link';
 import { requirePageMember } from '@/lib/session';
 import { workspaceOverview } from '@/db/queries/overview';
+import { listBenchmarks } from '@/db/queries/benchmarks';
+import { listImports } from '@/db/queries/imports';
 import { Panel } from '@/components/ui/panel';
 import { ROLE_DESCRIPTIONS } from '@/lib/permissions';
+
+const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 
 export default async function OverviewPage({ params }: { params: Promise<{ workspace: string }> }) {
   const { workspace: slug } = await params;
   const ctx = await requirePageMember(slug, 'materials:read');
-  const o = await workspaceOverview(ctx.workspace.id);
+  const [o, benchmarks, imports] = await Promise.all([workspaceOverview(ctx.workspace.id), listBenchmarks(ctx.workspace.id), listImports(ctx.workspace.id, { page: 1, size: 6 })]);
   const counts = [
     { label: 'Materials', value: o.materials, href: 'materials' },
     { label: 'Sources', value: o.sources, href: 'sources' },
     { label: 'Methods', value: o.methods, href: 'methods' },
-    { label: 'Measurements', value: o.measurements, href: 'materials' },
-    { label: 'Calculations', value: o.calculations, href: 'materials' },
+    { label: 'Measurements', value: o.measurements, href: 'measurements' },
+    { label: 'Calculations', value: o.calculations, href: 'calculations' },
     { label: 'Members', value: o.members, href: 'settings/members' },
   ];
+  const flagged = benchmarks.filter((b) => b.outlierCount + b.qualityFlagCount > 0);
   return (
     <div className="space-y-6">
       <header>
@@ -35,15 +40,65 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
       </dl>
       <div className="grid gap-4 lg:grid-cols-3">
         <Panel title="Benchmarks">
-          <p className="text-sm text-ink-muted">
-            Saved comparisons of methods against measurements, with their headline MAE and N, will be listed here once a benchmark exists.
-          </p>
+          {benchmarks.length === 0 ? (
+            <p className="text-sm text-ink-muted">
+              No benchmark yet. <Link href={`/w/${slug}/benchmarks/new`}>Define one</Link>: a scope of measurements and methods, and the rules that pair them.
+            </p>
+          ) : (
+            <ul className="space-y-2 text-sm">
+              {benchmarks.map((b) => (
+                <li key={b.id}>
+                  <Link href={`/w/${slug}/benchmarks/${b.id}`} className="font-medium">
+                    {b.name}
+                  </Link>
+                  <span className="block text-xs text-ink-muted">
+                    {b.best ? (
+                      <>
+                        best MAE <span className="num">{b.best.mae.toFixed(2)}</span> ({b.best.label}, N = {b.best.n}) · {b.methodCount} methods · revision {b.revisionNumber}
+                      </>
+                    ) : (
+                      'no statistics yet'
+                    )}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          )}
         </Panel>
         <Panel title="Recent imports">
-          <p className="text-sm text-ink-muted">Upload batches of measurements and calculations, newest first, will appear here.</p>
+          {imports.items.length === 0 ? (
+            <p className="text-sm text-ink-muted">
+              No import yet. <Link href={`/w/${slug}/imports/new`}>Import measurements or calculations</Link> from a CSV file.
+            </p>
+          ) : (
+            <ul className="space-y-2 text-sm">
+              {imports.items.map((i) => (
+                <li key={i.id}>
+                  <Link href={`/w/${slug}/imports/${i.id}`}>{i.fileName ?? i.kind}</Link>
+                  <span className="block text-xs text-ink-muted">
+                    <span className="num">{i.insertedCount.toLocaleString('en')}</span> {i.kind} · {i.creatorName ?? i.tokenName ?? 'a pipeline'} · {when.format(i.createdAt)} UTC
+                    {i.status === 'undone' ? ' · undone' : ''}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          )}
         </Panel>
         <Panel title="Open flags">
-          <p className="text-sm text-ink-muted">Outliers and quality warnings awaiting a curator&apos;s decision will appear here.</p>
+          {flagged.length === 0 ? (
+            <p className="text-sm text-ink-muted">No outlier or quality warning in the latest revisions.</p>
+          ) : (
+            <ul className="space-y-2 text-sm">
+              {flagged.map((b) => (
+                <li key={b.id}>
+                  <Link href={`/w/${slug}/benchmarks/${b.id}`}>{b.name}</Link>
+                  <span className="block text-xs text-ink-muted">
+                    <span className="num">{b.outlierCount}</span> outliers flagged · <span className="num">{b.qualityFlagCount}</span> quality flags
+                  </span>
+                </li>
+              ))}
+            </ul>
+          )}
         </Panel>
       </div>
     </div>
