@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { mono, sans } from './fonts';
+import { greek, mono, sans } from './fonts';
 import './globals.css';
 
 export const metadata: Metadata = {
@@ -9,7 +9,7 @@ export const metadata: Metadata = {
 
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
-    <html lang="en" className={`${sans.variable} ${mono.variable}`}>
+    <html lang="en" className={`${sans.variable} ${greek.variable} ${mono.variable}`}>
       <body className="min-h-screen">{children}</body>
     </html>
   );

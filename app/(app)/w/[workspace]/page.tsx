@@ -54,7 +54,7 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
                   <span className="block text-xs text-ink-muted">
                     {b.best ? (
                       <>
-                        best MAE <span className="num">{b.best.mae.toFixed(2)}</span> ({b.best.label}, N = {b.best.n}) · {b.methodCount} methods · revision {b.revisionNumber}
+                        best MAE <span className="num">{b.best.mae.toFixed(2)}</span> {b.quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹'} ({b.best.label}, N = {b.best.n}) · {b.methodCount} methods · revision {b.revisionNumber}
                       </>
                     ) : (
                       'no statistics yet'
