@@ -6,7 +6,8 @@ import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { THREAD_SUBJECTS } from '@/db/schema';
 import { getThread, parsePairKey, postComment, setThreadResolved, COMMENT_MAX_CHARS } from '@/db/queries/comments';
-import { createDecision } from '@/db/queries/decisions';
+import { createDecision, createPin } from '@/db/queries/decisions';
+import { getRevision } from '@/db/queries/revisions';
 import { scheduleRecompute } from '@/lib/benchmark/recompute-queue';
 import { threadPath } from '@/lib/discussion/thread-url';
 
@@ -94,4 +95,44 @@ export const decideFromThreadAction = workspaceAction('decisions:create', decide
   scheduleRecompute(ctx.workspace.id, [thread.benchmarkId], { trigger: 'decision', decisionId: id, userId: ctx.user.id }, 0);
   refresh(ctx.workspace.slug, thread.benchmarkId);
   return { ok: true, message: 'Decision recorded; the next revision is being computed.', data: { id } };
+});
+
+const pinSchema = z.object({
+  workspaceId: z.string().min(1),
+  threadId: z.string().min(1),
+  kind: z.enum(['pin-pairing', 'no-counterpart'], 'Choose what to pin.'),
+  reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(900),
+});
+
+/**
+ * Pins the pairing a pair thread discusses (or marks its measurement as having no
+ * counterpart under the method). The calculation is read from the benchmark's latest
+ * revision, not from the form; pins have no thread column, so the reason names the thread.
+ */
+export const pinFromThreadAction = workspaceAction('decisions:create', pinSchema, async (input, ctx) => {
+  const thread = await getThread(ctx.workspace.id, input.threadId);
+  if (!thread) throw new AppError('not-found', 'No such thread in this workspace.');
+  const parsed = thread.subjectKind === 'pair' ? parsePairKey(thread.subjectId) : null;
+  if (!parsed || !thread.benchmarkId) throw new AppError('bad-request', 'Pairings are pinned from a pair thread on a benchmark.', [{ path: 'kind' }]);
+  if (parsed.measurementIds.length > 1) {
+    throw new AppError('bad-request', 'This pair averages several measurements; pin them from the benchmark page one by one.', [{ path: 'kind' }]);
+  }
+  const rev = await getRevision(ctx.workspace.id, thread.benchmarkId);
+  const pair = rev?.statistics.pairs.find((p) => p.key === thread.subjectId);
+  const calculationId = pair?.calculationIds[0] ?? null;
+  if (!calculationId) throw new AppError('conflict', 'This pair has no calculation in the latest revision; pin it from the benchmark page.', [{ path: 'kind' }]);
+  const { id } = await createPin(
+    ctx.workspace.id,
+    { userId: ctx.user.id },
+    {
+      methodId: parsed.methodId,
+      measurementId: parsed.measurementIds[0],
+      calculationId: input.kind === 'pin-pairing' ? calculationId : null,
+      reason: `${input.reason} (from discussion ${thread.id})`,
+    },
+  );
+  // Pins belong to the workspace, so every benchmark that pairs this method may change.
+  scheduleRecompute(ctx.workspace.id, undefined, { trigger: 'pin', pinId: id, userId: ctx.user.id }, 0);
+  refresh(ctx.workspace.slug, thread.benchmarkId);
+  return { ok: true, message: input.kind === 'pin-pairing' ? 'Pairing pinned; the next revision is being computed.' : 'Marked as having no counterpart; the next revision is being computed.', data: { id } };
 });

@@ -4,7 +4,8 @@ import type { ThreadView } from '@/db/queries/comments';
 import { inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
-import { decideFromThreadAction, postCommentAction, resolveThreadAction } from './actions';
+import type { ActionState } from '@/lib/action';
+import { decideFromThreadAction, pinFromThreadAction, postCommentAction, resolveThreadAction } from './actions';
 import { CommentBody } from './comment-body';
 import { useRefreshOnSuccess } from './use-refresh-on-success';
 
@@ -12,6 +13,8 @@ export interface DiscussionSubject {
   kind: 'pair' | 'measurement' | 'calculation-set' | 'material' | 'revision';
   id: string;
   benchmarkId?: string | null;
+  /** A pair with one measurement and a calculation in the shown revision: its pairing can be pinned from a thread. */
+  pinnable?: boolean;
 }
 
 export interface DiscussionPermissions {
@@ -19,6 +22,8 @@ export interface DiscussionPermissions {
   resolve: boolean;
   decide: boolean;
 }
+
+const PIN_KINDS = new Set(['pin-pairing', 'no-counterpart']);
 
 const when = (d: Date | string) => new Date(d).toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
 
@@ -74,7 +79,11 @@ function ResolveForm({ workspaceId, threadId, resolved }: { workspaceId: string;
 }
 
 function DecisionForm({ workspaceId, threadId, subject }: { workspaceId: string; threadId: string; subject: DiscussionSubject }) {
-  const [state, action] = useActionState(decideFromThreadAction, { ok: false });
+  // Exclude/keep are decisions, the two pin kinds are pins: one form, routed by the chosen kind.
+  const [state, action] = useActionState(
+    (prev: ActionState, form: FormData) => (PIN_KINDS.has(String(form.get('kind'))) ? pinFromThreadAction(prev, form) : decideFromThreadAction(prev, form)),
+    { ok: false },
+  );
   useRefreshOnSuccess(state);
   return (
     <form action={action} className="space-y-1.5 rounded-md border border-rule bg-paper p-2" aria-label="Record a decision from this thread">
@@ -85,6 +94,12 @@ function DecisionForm({ workspaceId, threadId, subject }: { workspaceId: string;
         {subject.kind === 'pair' ? <option value="exclude-pair">Exclude this pair (this method)</option> : null}
         <option value="exclude-measurement">Exclude the measurement (every method)</option>
         {subject.kind === 'pair' ? <option value="keep">Keep (flag reviewed)</option> : null}
+        {subject.kind === 'pair' && subject.pinnable ? (
+          <>
+            <option value="pin-pairing">Pin this pairing (keep it whatever new data arrive)</option>
+            <option value="no-counterpart">No counterpart: never pair this measurement under this method</option>
+          </>
+        ) : null}
       </select>
       <input name="reason" className={inputClass} aria-label="Reason for the decision" placeholder="Reason, e.g. strained thin film" required minLength={3} maxLength={1000} />
       {state.fieldErrors?.reason ? <p className="text-xs text-bad">{state.fieldErrors.reason.join(' ')}</p> : null}

@@ -113,7 +113,7 @@ describe('discussion threads', () => {
 
   it('every discussion action is gated (they live outside app/, so the generic boundary test does not list them)', async () => {
     const actions = Object.entries(discussionActions) as Array<[string, (p: unknown, f: FormData) => Promise<{ ok: boolean; code?: string }>]>;
-    expect(actions.map(([name]) => name).sort()).toEqual(['decideFromThreadAction', 'postCommentAction', 'resolveThreadAction']);
+    expect(actions.map(([name]) => name).sort()).toEqual(['decideFromThreadAction', 'pinFromThreadAction', 'postCommentAction', 'resolveThreadAction']);
     const probe = (workspaceId: string) => formData({ workspaceId, threadId, subjectKind: 'pair', subjectId: pairKey, benchmarkId: bm.benchmarkId, body: 'probe', kind: 'keep', reason: 'probe' });
     for (const [name, action] of actions) {
       expect(actionScope(action), name).toBe('workspace');

@@ -251,7 +251,7 @@ export async function BenchmarkView({
                           <td className="px-2 py-1.5">
                             <DiscussButton
                               workspaceId={workspace.id}
-                              subject={{ kind: 'pair', id: p.key, benchmarkId: bm.id }}
+                              subject={{ kind: 'pair', id: p.key, benchmarkId: bm.id, pinnable: p.measurementIds.length === 1 && p.calculationIds.length > 0 }}
                               title={`${materialName(p.materialId)} ${p.label ?? ''} · ${methodLabel.get(p.methodId) ?? ''}`}
                               threads={threads.get(`pair|${p.key}`) ?? []}
                               can={can}

@@ -11,6 +11,7 @@ import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMaterialAction, retractMaterialAction } from '../actions';
 import { MaterialValuesSection } from '../_components/material-values';
+import { MaterialDiscussion, loadMaterialThreads } from '../_components/material-discussion';
 import { AddToDeck } from '@/components/decks/add-to-deck';
 import { QualityFlags } from '@/components/quality/quality-flags';
 import { loadMaterialQuality } from '@/components/quality/load-material-quality';
@@ -25,7 +26,11 @@ export default async function MaterialPage({ params, searchParams }: { params: P
   const m = await getMaterial(ctx.workspace.id, id);
   if (!m) notFound();
   const values = await getMaterialValues(ctx.workspace.id, m.id);
-  const quality = await loadMaterialQuality(ctx.workspace.id, m, values);
+  const [quality, threads] = await Promise.all([
+    loadMaterialQuality(ctx.workspace.id, m, values),
+    loadMaterialThreads(ctx.workspace.id, m.id, values.methods.map((x) => x.methodId)),
+  ]);
+  const can = { comment: roleCan(ctx.role, 'comments:create'), resolve: roleCan(ctx.role, 'comments:resolve'), decide: roleCan(ctx.role, 'decisions:create') };
   const slug = ctx.workspace.slug;
   const fields: Array<[string, React.ReactNode]> = [
     ['Formula', m.formula],
@@ -77,6 +82,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
         </dl>
       </Panel>
       <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} selectedMethodId={(await searchParams).method} />
+      <MaterialDiscussion workspaceId={ctx.workspace.id} materialId={m.id} materialName={m.name} methods={values.methods} threads={threads} can={can} />
       <QualityFlags slug={slug} results={quality} thresholdsHref={`/w/${slug}/settings/quality`} />
       {roleCan(ctx.role, 'materials:retract') && (
         <Panel title={m.retractedAt ? 'Restore' : 'Retract'} className="max-w-xl">
