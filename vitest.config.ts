@@ -18,7 +18,7 @@ export default defineConfig({
       },
       {
         extends: true,
-        resolve: { alias: { 'server-only': fileURLToPath(new URL('./tests/support/server-only-stub.ts', import.meta.url)) } },
+        resolve: { alias: { 'server-only': fileURLToPath(new URL('./tests/support/server-only-marker.ts', import.meta.url)) } },
         test: {
           name: 'integration',
           include: ['tests/integration/**/*.test.ts'],
