@@ -11,13 +11,10 @@ import { Notice } from '@/components/ui/notice';
 import { Panel } from '@/components/ui/panel';
 import { FileDrop } from './file-drop';
 import { RowErrorTable } from './row-error-table';
+import { UploadRefused, uploadImport, type UploadState } from './upload-import';
 
 type Outcome = { importId: string; insertedCount: number; duplicateCount: number; computedCount: number; dosCount: number };
-type CommitState =
-  | { status: 'idle' }
-  | { status: 'sending' }
-  | { status: 'done'; outcome: Outcome }
-  | { status: 'refused'; message: string; errors?: ImportRefusal['errors']; errorCount?: number; firstImportId?: string };
+type CommitState = UploadState<Outcome>;
 
 type Loaded = { file: File; text: string } | { file: File; refusal: { message: string; errors: ImportRefusal['errors'] } };
 
@@ -57,18 +54,7 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
   async function send() {
     if (!loaded || !temperatures.ok) return;
     setCommit({ status: 'sending' });
-    try {
-      const res = await fetch(`/api/workspaces/${workspaceId}/imports?${dosQuery({ fileName: loaded.file.name, temperatures: temperatures.temperatures })}`, {
-        method: 'POST',
-        body: loaded.file,
-        headers: { 'content-type': 'text/csv' },
-      });
-      const body = await res.json();
-      if (res.status === 201) setCommit({ status: 'done', outcome: body });
-      else setCommit({ status: 'refused', message: body.detail ?? `HTTP ${res.status}`, errors: body.errors, errorCount: body.errorCount, firstImportId: body.firstImportId });
-    } catch (e) {
-      setCommit({ status: 'refused', message: `The upload failed: ${(e as Error).message}` });
-    }
+    setCommit(await uploadImport<Outcome>(workspaceId, dosQuery({ fileName: loaded.file.name, temperatures: temperatures.temperatures }), loaded.file));
   }
 
   const result = preview && 'result' in preview ? preview.result : null;
@@ -210,21 +196,6 @@ function DosCommitResult({ state, slug }: { state: CommitState; slug: string }) 
       </Notice>
     );
   }
-  if (state.status === 'refused') {
-    return (
-      <div className="space-y-2">
-        <Notice tone="bad">
-          {state.message}
-          {state.firstImportId && (
-            <>
-              {' '}
-              <Link href={`/w/${slug}/imports/${state.firstImportId}`}>Open the first import</Link>
-            </>
-          )}
-        </Notice>
-        {state.errors && state.errors.length > 0 && <RowErrorTable errors={state.errors} errorCount={state.errorCount ?? state.errors.length} />}
-      </div>
-    );
-  }
+  if (state.status === 'refused') return <UploadRefused state={state} slug={slug} />;
   return null;
 }

@@ -2,7 +2,6 @@
 import Link from 'next/link';
 import { useEffect, useMemo, useState } from 'react';
 import { columnsOf, type ImportableKind } from '@/lib/import/columns';
-import type { RowError } from '@/lib/import/errors';
 import type { ColumnMapping } from '@/lib/import/header';
 import type { ReferenceLists } from '@/lib/import/preview';
 import type { DefaultUnits } from '@/lib/import/units';
@@ -18,13 +17,10 @@ import { ProgressBar } from './progress-bar';
 import { RowErrorTable } from './row-error-table';
 import { DosImport } from './dos-import';
 import { usePreviewWorker } from './use-preview-worker';
+import { UploadRefused, uploadImport, type UploadState } from './upload-import';
 
 type Outcome = { importId: string; rowCount: number; insertedCount: number; duplicateCount: number; duplicates: Array<{ row: number; reason: string }> };
-type CommitState =
-  | { status: 'idle' }
-  | { status: 'sending' }
-  | { status: 'done'; outcome: Outcome }
-  | { status: 'refused'; message: string; errors?: RowError[]; errorCount?: number; firstImportId?: string };
+type CommitState = UploadState<Outcome>;
 
 type WizardKind = ImportableKind | 'dos';
 const KIND_LABEL: Record<WizardKind, string> = { measurements: 'Measurements (experiment)', calculations: 'Calculations (computed)', dos: 'Phonon DOS (computes entropies)' };
@@ -71,14 +67,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
     if (!file || !result) return;
     setCommit({ status: 'sending' });
     const query = wizardQuery({ kind: tableKind, fileName: file.name, mapping: result.mapping, units: noUnitColumn ? units : undefined });
-    try {
-      const res = await fetch(`/api/workspaces/${workspaceId}/imports?${query}`, { method: 'POST', body: file, headers: { 'content-type': 'text/csv' } });
-      const body = await res.json();
-      if (res.status === 201) setCommit({ status: 'done', outcome: body as Outcome });
-      else setCommit({ status: 'refused', message: body.detail ?? `HTTP ${res.status}`, errors: body.errors, errorCount: body.errorCount, firstImportId: body.firstImportId });
-    } catch (e) {
-      setCommit({ status: 'refused', message: `The upload failed: ${(e as Error).message}` });
-    }
+    setCommit(await uploadImport<Outcome>(workspaceId, query, file));
   }
 
   return (
@@ -231,21 +220,6 @@ function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
       </Notice>
     );
   }
-  if (state.status === 'refused') {
-    return (
-      <div className="space-y-2">
-        <Notice tone="bad">
-          {state.message}
-          {state.firstImportId && (
-            <>
-              {' '}
-              <Link href={`/w/${slug}/imports/${state.firstImportId}`}>Open the first import</Link>
-            </>
-          )}
-        </Notice>
-        {state.errors && state.errors.length > 0 && <RowErrorTable errors={state.errors} errorCount={state.errorCount ?? state.errors.length} />}
-      </div>
-    );
-  }
+  if (state.status === 'refused') return <UploadRefused state={state} slug={slug} />;
   return null;
 }

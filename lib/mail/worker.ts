@@ -23,7 +23,8 @@ export async function runMailWorkerOnce(): Promise<void> {
     do {
       s.again = false;
       const report = await deliverDueMail(getDb(), deliveryConfig());
-      if (report.sent + report.retried + report.failed > 0) s.again = s.again || report.sent > 0;
+      // a full batch may have left more due messages behind
+      if (report.sent > 0) s.again = true;
     } while (s.again);
   } catch (e) {
     console.error('[mail] delivery pass failed', e);

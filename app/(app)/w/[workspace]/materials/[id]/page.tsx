@@ -7,6 +7,7 @@ import { getMaterial } from '@/db/queries/materials';
 import { getMaterialValues } from '@/db/queries/material-values';
 import { buttonClass } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
+import { FieldList } from '@/components/ui/field-list';
 import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMaterialAction, retractMaterialAction } from '../actions';
@@ -22,6 +23,7 @@ const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeS
 
 export default async function MaterialPage({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ method?: string }> }) {
   const { workspace, id } = await params;
+  const { method: selectedMethodId } = await searchParams;
   const ctx = await requirePageMember(workspace, 'materials:read');
   const m = await getMaterial(ctx.workspace.id, id);
   if (!m) notFound();
@@ -63,7 +65,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
           <Link href={`/w/${slug}/history/material/${m.id}`} className={buttonClass('ghost', 'no-underline')}>
             History
           </Link>
-          {!m.retractedAt && <AddToDeck workspaceId={ctx.workspace.id} kinds={['material']} filters={{ materialId: m.id, methodId: (await searchParams).method }} defaultTitle={m.name} />}
+          {!m.retractedAt && <AddToDeck workspaceId={ctx.workspace.id} kinds={['material']} filters={{ materialId: m.id, methodId: selectedMethodId }} defaultTitle={m.name} />}
         </div>
       </header>
       {m.retractedAt && (
@@ -72,16 +74,9 @@ export default async function MaterialPage({ params, searchParams }: { params: P
         </Notice>
       )}
       <Panel title="Material">
-        <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2 lg:grid-cols-4">
-          {fields.map(([label, value]) => (
-            <div key={label}>
-              <dt className="text-xs text-ink-muted">{label}</dt>
-              <dd>{value}</dd>
-            </div>
-          ))}
-        </dl>
+        <FieldList fields={fields} />
       </Panel>
-      <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} selectedMethodId={(await searchParams).method} />
+      <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} selectedMethodId={selectedMethodId} />
       <MaterialDiscussion workspaceId={ctx.workspace.id} materialId={m.id} materialName={m.name} methods={values.methods} threads={threads} can={can} />
       <QualityFlags slug={slug} results={quality} thresholdsHref={`/w/${slug}/settings/quality`} />
       {roleCan(ctx.role, 'materials:retract') && (

@@ -1,11 +1,10 @@
 'use client';
-import { startTransition, useActionState, useEffect, useMemo, useState } from 'react';
-import { useRouter } from 'next/navigation';
+import { useMemo, useState } from 'react';
 import { crystalSystem, parseFormula } from '@/lib/science';
-import type { ActionState } from '@/lib/action';
 import { TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';
+import { useRecordForm } from '@/components/ui/use-record-form';
 import { createMaterialAction, updateMaterialAction } from '../actions';
 
 export interface MaterialFormValues {
@@ -36,28 +35,18 @@ function preview(formula: string, spaceGroup: string): { text: string; bad: bool
 }
 
 export function MaterialForm({ workspaceId, slug, initial }: { workspaceId: string; slug: string; initial: MaterialFormValues }) {
-  const router = useRouter();
   const editing = Boolean(initial.id);
-  const [state, action, pending] = useActionState<ActionState, FormData>(editing ? updateMaterialAction : createMaterialAction, { ok: false });
+  const { state, pending, errors, onSubmit } = useRecordForm(editing ? updateMaterialAction : createMaterialAction, `/w/${slug}/materials`);
   const [formula, setFormula] = useState(initial.formula);
   const [spaceGroup, setSpaceGroup] = useState(initial.spaceGroup);
   const derived = useMemo(() => preview(formula, spaceGroup), [formula, spaceGroup]);
-  const errors = state.fieldErrors ?? {};
 
-  useEffect(() => {
-    if (state.ok) router.push(`/w/${slug}/materials/${(state.data as { id: string }).id}`);
-  }, [state, router, slug]);
 
   return (
     <form
       className="grid max-w-2xl gap-4 sm:grid-cols-2"
       noValidate
-      onSubmit={(e) => {
-        // Submitting through startTransition keeps what was typed when the server refuses it.
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
+      onSubmit={onSubmit}
     >
       <input type="hidden" name="workspaceId" value={workspaceId} />
       {initial.id && <input type="hidden" name="id" value={initial.id} />}

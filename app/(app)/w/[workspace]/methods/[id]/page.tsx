@@ -8,6 +8,7 @@ import { APPROACH_LABELS } from '@/lib/catalog/method-schema';
 import { getMethod, listMaterialsOfMethod } from '@/db/queries/methods';
 import { buttonClass } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
+import { FieldList } from '@/components/ui/field-list';
 import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMethodAction, retractMethodAction } from '../actions';
@@ -63,14 +64,7 @@ export default async function MethodPage({ params }: { params: Promise<{ workspa
         </Notice>
       )}
       <Panel title="Recipe">
-        <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2 lg:grid-cols-3">
-          {fields.map(([label, value]) => (
-            <div key={label}>
-              <dt className="text-xs text-ink-muted">{label}</dt>
-              <dd>{value}</dd>
-            </div>
-          ))}
-        </dl>
+        <FieldList fields={fields} columns="sm:grid-cols-2 lg:grid-cols-3" />
         {m.notes && <p className="mt-3 whitespace-pre-line border-t border-rule pt-3 text-sm text-ink-muted">{m.notes}</p>}
       </Panel>
       <Panel title="k-point density per material">

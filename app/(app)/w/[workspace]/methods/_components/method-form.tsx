@@ -1,10 +1,8 @@
 'use client';
-import { startTransition, useActionState, useEffect } from 'react';
-import { useRouter } from 'next/navigation';
-import type { ActionState } from '@/lib/action';
 import { SelectField, TextField, inputClass } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';
+import { useRecordForm } from '@/components/ui/use-record-form';
 import { createMethodAction, updateMethodAction } from '../actions';
 
 export interface MethodFormValues {
@@ -35,24 +33,15 @@ export function MethodForm({
   functionals: readonly string[];
   approaches: Array<{ value: string; label: string }>;
 }) {
-  const router = useRouter();
   const editing = Boolean(initial.id);
-  const [state, action, pending] = useActionState<ActionState, FormData>(editing ? updateMethodAction : createMethodAction, { ok: false });
-  const errors = state.fieldErrors ?? {};
+  const { state, pending, errors, onSubmit } = useRecordForm(editing ? updateMethodAction : createMethodAction, `/w/${slug}/methods`);
 
-  useEffect(() => {
-    if (state.ok) router.push(`/w/${slug}/methods/${(state.data as { id: string }).id}`);
-  }, [state, router, slug]);
 
   return (
     <form
       className="grid max-w-3xl gap-4 sm:grid-cols-2"
       noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
+      onSubmit={onSubmit}
     >
       <input type="hidden" name="workspaceId" value={workspaceId} />
       {initial.id && <input type="hidden" name="id" value={initial.id} />}

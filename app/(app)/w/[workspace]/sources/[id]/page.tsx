@@ -8,6 +8,7 @@ import { doiUrl } from '@/lib/catalog/doi';
 import { getSource } from '@/db/queries/sources';
 import { buttonClass } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
+import { FieldList } from '@/components/ui/field-list';
 import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreSourceAction, retractSourceAction } from '../actions';
@@ -87,14 +88,7 @@ export default async function SourcePage({ params }: { params: Promise<{ workspa
         </Notice>
       )}
       <Panel title="Citation">
-        <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
-          {fields.map(([label, value]) => (
-            <div key={label}>
-              <dt className="text-xs text-ink-muted">{label}</dt>
-              <dd className="break-words">{value}</dd>
-            </div>
-          ))}
-        </dl>
+        <FieldList fields={fields} columns="sm:grid-cols-2" />
       </Panel>
       {roleCan(ctx.role, 'sources:retract') && (
         <Panel title={s.retractedAt ? 'Restore' : 'Retract'} className="max-w-xl">

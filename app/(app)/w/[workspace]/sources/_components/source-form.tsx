@@ -1,10 +1,9 @@
 'use client';
-import { startTransition, useActionState, useEffect, useState } from 'react';
-import { useRouter } from 'next/navigation';
-import type { ActionState } from '@/lib/action';
+import { useState } from 'react';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';
+import { useRecordForm } from '@/components/ui/use-record-form';
 import { createSourceAction, updateSourceAction } from '../actions';
 
 export interface SourceFormValues {
@@ -24,26 +23,17 @@ export interface SourceFormValues {
 }
 
 export function SourceForm({ workspaceId, slug, initial, kinds }: { workspaceId: string; slug: string; initial: SourceFormValues; kinds: Array<{ value: string; label: string }> }) {
-  const router = useRouter();
   const editing = Boolean(initial.id);
-  const [state, action, pending] = useActionState<ActionState, FormData>(editing ? updateSourceAction : createSourceAction, { ok: false });
+  const { state, pending, errors, onSubmit } = useRecordForm(editing ? updateSourceAction : createSourceAction, `/w/${slug}/sources`);
   const [kind, setKind] = useState(initial.kind);
   const notebook = kind === 'in-house-notebook';
-  const errors = state.fieldErrors ?? {};
 
-  useEffect(() => {
-    if (state.ok) router.push(`/w/${slug}/sources/${(state.data as { id: string }).id}`);
-  }, [state, router, slug]);
 
   return (
     <form
       className="grid max-w-3xl gap-4 sm:grid-cols-2"
       noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
+      onSubmit={onSubmit}
     >
       <input type="hidden" name="workspaceId" value={workspaceId} />
       {initial.id && <input type="hidden" name="id" value={initial.id} />}
