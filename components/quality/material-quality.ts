@@ -1,5 +1,5 @@
 import { qualityChecks, ScienceInputError, type QualityFlag, type QualityThresholds } from '@/lib/science';
-import { computedMode } from '@/lib/benchmark/pair-rows';
+import { qualityModes } from '@/lib/benchmark/pair-rows';
 
 type Grid = [number, number, number];
 
@@ -50,9 +50,7 @@ export function materialQualityFlags(input: { materialId: string; atomsInCell: n
     let flags: QualityFinding[];
     try {
       flags = qualityChecks({
-        modes: m.modes.map((c) =>
-          computedMode({ ...c, materialId: input.materialId, methodId: m.methodId, importId: null, uncertainty: null, temperatureK: null }),
-        ),
+        modes: qualityModes(m.modes.map((c) => ({ ...c, materialId: input.materialId, methodId: m.methodId, importId: null, uncertainty: null, temperatureK: null }))),
         atomsInCell: input.atomsInCell ?? undefined,
         kGrid: m.kGrid ?? undefined,
         qGrid: m.qGrid ?? undefined,

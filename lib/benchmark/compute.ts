@@ -21,7 +21,7 @@ import {
   type ErrorStatistics,
   type PairValue,
 } from '@/lib/science';
-import { computedMode, groupBy, mergeRepeatedMeasurements, pairEntropies, pairFrequencies } from './pair-rows';
+import { groupBy, qualityModes, mergeRepeatedMeasurements, pairEntropies, pairFrequencies } from './pair-rows';
 import type { BenchmarkRules } from './schemas';
 import type {
   BenchmarkInput,
@@ -170,7 +170,7 @@ function quality(input: BenchmarkInput, calcsByMaterialMethod: Map<string, Scope
     if (!material || !method) continue;
     try {
       const flags = qualityChecks({
-        modes: calcs.map(computedMode),
+        modes: qualityModes(calcs),
         atomsInCell: material.atomsInCell ?? undefined,
         kGrid: method.kGrid ?? undefined,
         qGrid: method.qGrid ?? undefined,

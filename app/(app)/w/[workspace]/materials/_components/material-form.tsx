@@ -62,7 +62,7 @@ export function MaterialForm({ workspaceId, slug, initial }: { workspaceId: stri
           hint="Element symbols with counts; parentheses, hydrates (·) and fractional occupancies are understood."
           required
         />
-        {derived && (
+        {derived && !(derived.bad && errors.formula) && (
           <p className={`mt-1 text-xs ${derived.bad ? 'text-warn' : 'text-ink-muted'}`} aria-live="polite">
             {derived.text}
           </p>
