@@ -14,7 +14,7 @@ export function CreateTokenForm({ workspaceId, roles }: { workspaceId: string; r
     <div className="space-y-4">
       <form action={action} className="space-y-3">
         <input type="hidden" name="workspaceId" value={workspaceId} />
-        <TextField label="Name" name="name" placeholder="e.g. phonopy pipeline on cluster A" errors={state.fieldErrors?.name} required />
+        <TextField label="Name" name="name" placeholder="e.g. DFPT pipeline on cluster A" errors={state.fieldErrors?.name} required />
         <SelectField label="Role" name="role" defaultValue={roles.includes('contributor') ? 'contributor' : roles[0]} errors={state.fieldErrors?.role} hint="Never more than your own role.">
           {roles.map((r) => (
             <option key={r} value={r}>
