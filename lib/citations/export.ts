@@ -1,0 +1,28 @@
+/**
+ * Reference files of sources, written by citation-js from their CSL items:
+ * BibTeX (@citation-js/plugin-bibtex), RIS (@citation-js/plugin-ris) and CSL-JSON.
+ */
+import { Cite, type CSL } from '@citation-js/core';
+import '@citation-js/plugin-bibtex';
+import '@citation-js/plugin-ris';
+import { sourceToCsl } from './csl';
+import type { ExportFormat } from './formats';
+import type { SourceRecord } from './record';
+
+export { EXPORT_FORMAT_NAMES, EXPORT_FORMATS, type ExportFormat } from './formats';
+
+/** RIS has no place for a particle: citation-js would drop it, so it goes in front of the family name ("van der Waals, J. D."). */
+function particlesIntoFamily(item: CSL): CSL {
+  const fold = (names: CSL['author']) =>
+    names?.map((n) => (n['non-dropping-particle'] ? { ...n, family: `${n['non-dropping-particle']} ${n.family ?? ''}`.trim(), 'non-dropping-particle': undefined } : n));
+  return { ...item, author: fold(item.author), editor: fold(item.editor) };
+}
+
+export function exportSources(sources: readonly SourceRecord[], format: ExportFormat): string {
+  const items = [...sources].sort((a, b) => a.citeKey.localeCompare(b.citeKey)).map(sourceToCsl);
+  if (format === 'csl-json') return `${JSON.stringify(items, null, 2)}\n`;
+  if (items.length === 0) return '';
+  // plugin-ris registers the "ris" output at run time; citation-js's typings list only the built-in ones.
+  if (format === 'ris') return String(new Cite(items.map(particlesIntoFamily)).format('ris' as 'bibtex', { format: 'text' }));
+  return String(new Cite(items).format('bibtex', { format: 'text' }));
+}
