@@ -152,7 +152,7 @@ export function cslToSourceRow(csl: CSL): Record<string, unknown> {
   const { inHouse, rest } = splitNote(record.note);
   const kind = kindOf(csl, inHouse);
   const authors = (csl.author ?? []).map(nameFromCsl);
-  const key = [text(csl['citation-key']), text(csl.id)].find((k) => k && CITE_KEY_PATTERN.test(k) && !/^temp_id_/.test(k));
+  const key = [text(csl['citation-key']), text(csl.id)].find((k) => k && CITE_KEY_PATTERN.test(k) && !/^(?:temp_id_|https?:)/.test(k));
   const year = csl.issued?.['date-parts']?.[0]?.[0];
   return {
     kind,

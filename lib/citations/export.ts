@@ -18,11 +18,27 @@ function particlesIntoFamily(item: CSL): CSL {
   return { ...item, author: fold(item.author), editor: fold(item.editor) };
 }
 
+/**
+ * plugin-ris maps the fields; its own text output breaks every value after 70
+ * characters, which splits titles mid-word for every reader, so the lines are
+ * written here, one tag per line, TY first and ER last.
+ */
+function risText(items: CSL[]): string {
+  // plugin-ris registers the "ris" output at run time; citation-js's typings list only the built-in ones.
+  const entries = new Cite(items.map(particlesIntoFamily)).format('ris' as 'bibtex', { format: 'object' }) as unknown as Array<Record<string, unknown>>;
+  const lines = entries.map((entry) => {
+    const tags = Object.entries(entry)
+      .filter(([tag]) => tag !== 'TY')
+      .flatMap(([tag, value]) => [value].flat().map((v) => `${tag}  - ${String(v).replace(/\s*[\r\n]+\s*/g, ' ')}`));
+    return [`TY  - ${entry.TY}`, ...tags, 'ER  - '].join('\n');
+  });
+  return `${lines.join('\n')}\n`;
+}
+
 export function exportSources(sources: readonly SourceRecord[], format: ExportFormat): string {
   const items = [...sources].sort((a, b) => a.citeKey.localeCompare(b.citeKey)).map(sourceToCsl);
   if (format === 'csl-json') return `${JSON.stringify(items, null, 2)}\n`;
   if (items.length === 0) return '';
-  // plugin-ris registers the "ris" output at run time; citation-js's typings list only the built-in ones.
-  if (format === 'ris') return String(new Cite(items.map(particlesIntoFamily)).format('ris' as 'bibtex', { format: 'text' }));
+  if (format === 'ris') return risText(items);
   return String(new Cite(items).format('bibtex', { format: 'text' }));
 }
