@@ -2,7 +2,7 @@
  * Reference files of sources, written by citation-js from their CSL items:
  * BibTeX (@citation-js/plugin-bibtex), RIS (@citation-js/plugin-ris) and CSL-JSON.
  */
-import { Cite, type CSL } from '@citation-js/core';
+import { Cite, plugins, type CSL } from '@citation-js/core';
 import '@citation-js/plugin-bibtex';
 import '@citation-js/plugin-ris';
 import { sourceToCsl } from './csl';
@@ -10,6 +10,9 @@ import type { ExportFormat } from './formats';
 import type { SourceRecord } from './record';
 
 export { EXPORT_FORMAT_NAMES, EXPORT_FORMATS, type ExportFormat } from './formats';
+
+// Our cite keys (CITE_KEY_PATTERN) are valid BibTeX keys; citation-js would replace any with "-", ":" or "/" by a label of its own.
+(plugins.config.get('@bibtex') as { format: { checkLabel: boolean } }).format.checkLabel = false;
 
 /** RIS has no place for a particle: citation-js would drop it, so it goes in front of the family name ("van der Waals, J. D."). */
 function particlesIntoFamily(item: CSL): CSL {

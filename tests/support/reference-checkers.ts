@@ -113,7 +113,7 @@ const cslItemSchema = {
     ...Object.fromEntries(STRINGS.map((k) => [k, { type: 'string' }])),
   },
 };
-const validate = new Ajv({ allErrors: true }).compile({ type: 'array', items: cslItemSchema });
+const validate = new Ajv({ allErrors: true, allowUnionTypes: true }).compile({ type: 'array', items: cslItemSchema });
 
 export function readCslJsonIndependently(text: string): { records: CheckedRecord[]; errors: string[] } {
   const data = JSON.parse(text) as Array<Record<string, unknown>>;
