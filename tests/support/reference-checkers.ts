@@ -37,7 +37,7 @@ function person(family: string, given: string, particle = ''): CheckedName {
 export function readBibtexIndependently(text: string): { records: CheckedRecord[]; errors: string[] } {
   const library = parseBib(text, { sentenceCase: false, english: false });
   return {
-    errors: library.errors.map((e) => `${e.error} (line ${e.line})`),
+    errors: library.errors.map((e) => e.error),
     records: library.entries.map((e) => ({
       key: e.key,
       authors: (e.fields.author ?? []).map((c) => (c.name ? person(c.name, '') : person(c.lastName ?? '', c.firstName ?? '', c.prefix))),
