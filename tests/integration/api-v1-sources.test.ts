@@ -7,26 +7,20 @@ import * as openapiRoute from '@/app/api/v1/openapi.json/route';
 import { callAction } from '../support/actions';
 import { createWorkspaceWith, signInAs } from '../support/users';
 
+type Action = Parameters<typeof callAction>[0];
+const run = async (action: unknown, fields: Record<string, string>) => (await callAction(action as Action, fields)).state!;
+
 const BASE = 'http://localhost:3999/api/v1';
 let ws: Awaited<ReturnType<typeof createWorkspaceWith>>;
 let token: string;
 let id: string;
 
-function form(fields: Record<string, string>) {
-  const fd = new FormData();
-  for (const [k, v] of Object.entries(fields)) fd.append(k, v);
-  return fd;
-}
-
 beforeAll(async () => {
   ws = await createWorkspaceWith(['contributor']);
   await signInAs(ws.members.contributor.email);
   // Azuhata et al., J. Phys.: Condens. Matter 7, L129 (1995) — shared/reference/check-values.md
-  const created = await createSourceAction(
-    undefined,
-    form({ workspaceId: ws.workspaceId, kind: 'journal-article', citeKey: 'azuhata1995', title: 'Polarized Raman spectra in GaN', authors: 'Azuhata T.; Sota T.; Suzuki K.; Nakamura S.', year: '1995', venue: 'J. Phys.: Condens. Matter', volume: '7', issue: '10', pages: 'L129' }),
-  );
-  id = (created.data as { id: string }).id;
+  const created = await run(createSourceAction, { workspaceId: ws.workspaceId, kind: 'journal-article', citeKey: 'azuhata1995', title: 'Polarized Raman spectra in GaN', authors: 'Azuhata T.; Sota T.; Suzuki K.; Nakamura S.', year: '1995', venue: 'J. Phys.: Condens. Matter', volume: '7', issue: '10', pages: 'L129' });
+  id = (created as unknown as { data: { id: string } }).data.id;
   const out = await callAction(createApiToken, { workspaceId: ws.workspaceId, name: 'reader', role: 'reviewer' });
   token = (out.state as unknown as { data: { token: string } }).data.token;
 });

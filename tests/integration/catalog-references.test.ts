@@ -6,7 +6,11 @@ import { importReferencesAction } from '@/app/(app)/w/[workspace]/sources/action
 import { GET as exportRoute } from '@/app/api/workspaces/[workspaceId]/sources/export/route';
 import { GET as exportBibtex } from '@/app/api/workspaces/[workspaceId]/sources/bibtex/route';
 import { parseReferences } from '@/lib/citations/import';
+import { callAction } from '../support/actions';
 import { createWorkspaceWith, signInAs } from '../support/users';
+
+type Action = Parameters<typeof callAction>[0];
+const run = async (action: unknown, fields: Record<string, string>) => (await callAction(action as Action, fields)).state!;
 
 // Real references from shared/reference/check-values.md:
 //  Azuhata et al., J. Phys.: Condens. Matter 7, L129 (1995) — GaN Raman modes
@@ -41,12 +45,6 @@ const BIB = `% references for the GaN and Si checks
 }
 `;
 
-function form(fields: Record<string, string>) {
-  const fd = new FormData();
-  for (const [k, v] of Object.entries(fields)) fd.append(k, v);
-  return fd;
-}
-
 let ws: Awaited<ReturnType<typeof createWorkspaceWith>>;
 let other: Awaited<ReturnType<typeof createWorkspaceWith>>;
 
@@ -64,7 +62,7 @@ const sourcesOf = (workspaceId: string) => db.select().from(source).where(eq(sou
 describe('reference import', () => {
   it('imports every BibTeX entry in one transaction with structured fields and an audit row each; entries already here are reported', async () => {
     await signInAs(ws.members.contributor.email);
-    const first = await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: BIB }));
+    const first = await run(importReferencesAction, { workspaceId: ws.workspaceId, references: BIB });
     expect(first).toMatchObject({ ok: true, message: 'Imported 3 sources from BibTeX.' });
     const rows = await sourcesOf(ws.workspaceId);
     expect(rows.find((r) => r.citeKey === 'azuhata1995')).toMatchObject({
@@ -87,16 +85,16 @@ describe('reference import', () => {
     const audits = await db.select().from(auditLog).where(eq(auditLog.workspaceId, ws.workspaceId));
     expect(audits.filter((a) => a.entityType === 'source' && a.action === 'create')).toHaveLength(3);
 
-    const second = await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: BIB }));
+    const second = await run(importReferencesAction, { workspaceId: ws.workspaceId, references: BIB });
     expect(second).toMatchObject({ ok: true, message: 'Imported 0 sources from BibTeX. Already present, not duplicated: azuhata1995, parker1967, example2021thesis.' });
     expect(await sourcesOf(ws.workspaceId)).toHaveLength(3);
   });
 
   it('imports RIS and CSL-JSON the same way', async () => {
     const ris = 'TY  - JOUR\nAU  - Hass M.\nAU  - Henvis B. W.\nTI  - Infrared lattice reflection spectra of III-V compound semiconductors\nT2  - J. Phys. Chem. Solids\nVL  - 23\nSP  - 1099\nPY  - 1962\nID  - hass1962\nER  - \n';
-    expect(await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: ris }))).toMatchObject({ ok: true, message: 'Imported 1 source from RIS.' });
+    expect(await run(importReferencesAction, { workspaceId: ws.workspaceId, references: ris })).toMatchObject({ ok: true, message: 'Imported 1 source from RIS.' });
     const csl = JSON.stringify([{ id: 'codata1989', type: 'book', title: 'CODATA Key Values for Thermodynamics', author: [{ family: 'Cox', given: 'J. D.' }, { family: 'Wagman', given: 'D. D.' }, { family: 'Medvedev', given: 'V. A.' }], issued: { 'date-parts': [[1989]] }, publisher: 'Hemisphere' }]);
-    expect(await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: csl, format: 'csl-json' }))).toMatchObject({ ok: true, message: 'Imported 1 source from CSL-JSON.' });
+    expect(await run(importReferencesAction, { workspaceId: ws.workspaceId, references: csl, format: 'csl-json' })).toMatchObject({ ok: true, message: 'Imported 1 source from CSL-JSON.' });
     const rows = await sourcesOf(ws.workspaceId);
     expect(rows.find((r) => r.citeKey === 'hass1962')?.authorList).toEqual([
       { family: 'Hass', given: 'M.' },
@@ -107,7 +105,7 @@ describe('reference import', () => {
 
   it('imports nothing when the text has a syntax error, and says where', async () => {
     const bib = `@article{fresh1, title={A}, doi={10.1000/a}}\n@article{fresh2, title={B}\n`;
-    const state = await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: bib }));
+    const state = await run(importReferencesAction, { workspaceId: ws.workspaceId, references: bib });
     expect(state).toMatchObject({ ok: false, code: 'unprocessable', message: 'Nothing imported: the BibTeX text has an error.' });
     expect(state.fieldErrors?.references).toEqual([expect.stringMatching(/^Entry 2 \(fresh2\), line 2: not valid BibTeX/)]);
     expect(await db.select().from(source).where(eq(source.citeKey, 'fresh1'))).toHaveLength(0);
@@ -120,11 +118,11 @@ describe('reference import', () => {
       '@article{azuhata1995, title={Something else entirely (invented)}, doi={10.9999/other}}',
       '@article{parker-again, title={Raman scattering by silicon and germanium}, doi={10.1103/PHYSREV.155.712}}',
     ].join('\n');
-    const parsed = await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: bib }));
+    const parsed = await run(importReferencesAction, { workspaceId: ws.workspaceId, references: bib });
     expect(parsed).toMatchObject({ ok: false, message: 'Nothing imported: 1 entry is refused.' });
     expect(parsed.fieldErrors?.references).toEqual([expect.stringMatching(/^Entry 2 \(untitled\), line 2: title: A title is required/)]);
 
-    const state = await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: bib.split('\n').filter((l) => !l.includes('untitled')).join('\n') }));
+    const state = await run(importReferencesAction, { workspaceId: ws.workspaceId, references: bib.split('\n').filter((l) => !l.includes('untitled')).join('\n') });
     expect(state).toMatchObject({ ok: false, message: 'Nothing imported: 2 entries are refused.' });
     expect(state.fieldErrors?.references).toEqual([
       'Entry 2 (azuhata1995), line 2: the cite key "azuhata1995" is already used by a different source in this workspace ("Polarized Raman spectra in GaN").',
@@ -135,7 +133,7 @@ describe('reference import', () => {
 
   it('refuses a reviewer', async () => {
     await signInAs(ws.members.reviewer.email);
-    expect(await importReferencesAction(undefined, form({ workspaceId: ws.workspaceId, references: BIB }))).toMatchObject({ ok: false, code: 'forbidden' });
+    expect(await run(importReferencesAction, { workspaceId: ws.workspaceId, references: BIB })).toMatchObject({ ok: false, code: 'forbidden' });
   });
 });
 

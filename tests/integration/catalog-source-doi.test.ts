@@ -5,14 +5,12 @@ import { auditLog, calculation, measurement, source } from '@/db/schema';
 import { createSourceAction, mergeSourcesAction } from '@/app/(app)/w/[workspace]/sources/actions';
 import { findDoiDuplicates } from '@/db/queries/sources';
 import { backfillStructuredSources, splitLegacyVenue } from '@/db/source-backfill';
+import { callAction } from '../support/actions';
 import { createWorkspaceWith, signInAs } from '../support/users';
-import { addCalculation, addMaterial, addMeasurement, addMethod } from './benchmark-support';
 
-function form(fields: Record<string, string>) {
-  const fd = new FormData();
-  for (const [k, v] of Object.entries(fields)) fd.append(k, v);
-  return fd;
-}
+type Action = Parameters<typeof callAction>[0];
+const run = async (action: unknown, fields: Record<string, string>) => (await callAction(action as Action, fields)).state!;
+import { addCalculation, addMaterial, addMeasurement, addMethod } from './benchmark-support';
 
 let ws: Awaited<ReturnType<typeof createWorkspaceWith>>;
 let other: Awaited<ReturnType<typeof createWorkspaceWith>>;
@@ -34,14 +32,14 @@ async function legacySource(workspaceId: string, citeKey: string, doi: string) {
 describe('one source per DOI', () => {
   it('refuses a second source with the same DOI, whatever its spelling, and names the first', async () => {
     await signInAs(ws.members.contributor.email);
-    expect(await createSourceAction(undefined, form({ workspaceId: ws.workspaceId, ...PARKER, citeKey: 'parker1967', doi: '10.1103/PhysRev.155.712' }))).toMatchObject({ ok: true });
-    const again = await createSourceAction(undefined, form({ workspaceId: ws.workspaceId, ...PARKER, citeKey: 'parker-si', doi: 'https://doi.org/10.1103/PHYSREV.155.712' }));
+    expect(await run(createSourceAction, { workspaceId: ws.workspaceId, ...PARKER, citeKey: 'parker1967', doi: '10.1103/PhysRev.155.712' })).toMatchObject({ ok: true });
+    const again = await run(createSourceAction, { workspaceId: ws.workspaceId, ...PARKER, citeKey: 'parker-si', doi: 'https://doi.org/10.1103/PHYSREV.155.712' });
     expect(again).toMatchObject({ ok: false, code: 'conflict' });
     expect(again.fieldErrors?.doi?.[0]).toBe('The DOI 10.1103/physrev.155.712 is already the source "parker1967" in this workspace: cite that one.');
   });
 
   it('refuses a malformed DOI with what a DOI looks like', async () => {
-    const bad = await createSourceAction(undefined, form({ workspaceId: ws.workspaceId, ...PARKER, citeKey: 'x1', doi: 'PhysRev.155.712' }));
+    const bad = await run(createSourceAction, { workspaceId: ws.workspaceId, ...PARKER, citeKey: 'x1', doi: 'PhysRev.155.712' });
     expect(bad.fieldErrors?.doi?.[0]).toBe('"PhysRev.155.712" is not a DOI: expected 10.NNNN/… (e.g. 10.1103/PhysRev.155.712).');
   });
 });
@@ -69,15 +67,15 @@ describe('merging sources that share a DOI', () => {
 
   it('is for curators and owners only, and within the workspace', async () => {
     await signInAs(ws.members.contributor.email);
-    expect(await mergeSourcesAction(undefined, form({ workspaceId: ws.workspaceId, keepId: keep, mergeId: twin }))).toMatchObject({ ok: false, code: 'forbidden' });
+    expect(await run(mergeSourcesAction, { workspaceId: ws.workspaceId, keepId: keep, mergeId: twin })).toMatchObject({ ok: false, code: 'forbidden' });
     await signInAs(other.members.curator.email);
-    expect(await mergeSourcesAction(undefined, form({ workspaceId: other.workspaceId, keepId: keep, mergeId: twin }))).toMatchObject({ ok: false, code: 'not-found' });
+    expect(await run(mergeSourcesAction, { workspaceId: other.workspaceId, keepId: keep, mergeId: twin })).toMatchObject({ ok: false, code: 'not-found' });
     expect(await db.select().from(measurement).where(and(eq(measurement.sourceId, twin)))).toHaveLength(2);
   });
 
   it('moves every value to the kept source, retracts the other as merged, with an audit entry on both', async () => {
     await signInAs(ws.members.curator.email);
-    const state = await mergeSourcesAction(undefined, form({ workspaceId: ws.workspaceId, keepId: keep, mergeId: twin, reason: 'entered twice' }));
+    const state = await run(mergeSourcesAction, { workspaceId: ws.workspaceId, keepId: keep, mergeId: twin, reason: 'entered twice' });
     expect(state).toMatchObject({ ok: true, message: 'Merged: 3 values now cite the kept source.' });
     expect(await db.select({ id: measurement.id }).from(measurement).where(eq(measurement.sourceId, twin))).toEqual([]);
     expect(await db.select({ id: calculation.id }).from(calculation).where(eq(calculation.sourceId, twin))).toEqual([]);
