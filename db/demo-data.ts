@@ -14,6 +14,8 @@ import { crystalSystem, createRandom, normalizeIrrep, parseFormula } from '@/lib
 import type { Executor } from '@/db/client';
 import { calculation, material, materialTag, measurement, method, source } from '@/db/schema';
 import { writeAudit } from '@/db/queries/audit';
+import { normaliseSourceRow } from '@/lib/catalog/source-schema';
+import { storedSource } from '@/lib/citations/stored';
 
 const dataDir = new URL('../data/demo/', import.meta.url);
 
@@ -35,16 +37,33 @@ const optionalNumber = z.string().transform((v, ctx) => {
   return n;
 });
 
-const sourceRow = z.object({
-  cite_key: z.string().min(1),
-  kind: z.enum(['journal-article', 'data-set', 'thesis', 'in-house-notebook', 'computed-data-set']),
-  doi: z.string(),
-  title: z.string(),
-  authors: z.string(),
-  year: optionalNumber,
-  venue: z.string(),
-  invented: z.enum(['yes', 'no']),
-});
+/** A row of sources.csv, checked and normalised like any source (authors "Family, G.; …", braces for an organisation). */
+const sourceRow = z
+  .object({
+    cite_key: z.string().min(1),
+    kind: z.string(),
+    doi: z.string(),
+    title: z.string(),
+    authors: z.string(),
+    year: z.string(),
+    venue: z.string(),
+    volume: z.string(),
+    issue: z.string(),
+    pages: z.string(),
+    publisher: z.string(),
+    notebook_ref: z.string(),
+    invented: z.enum(['yes', 'no']),
+    note: z.string(),
+  })
+  .transform((r, ctx) => {
+    const checked = normaliseSourceRow({ ...r, citeKey: r.cite_key, notebookRef: r.notebook_ref });
+    if (!checked.ok) {
+      for (const issue of checked.issues) ctx.addIssue({ code: 'custom', path: [issue.field], message: issue.message });
+      return z.NEVER;
+    }
+    if (checked.review.length) ctx.addIssue({ code: 'custom', path: ['authors'], message: `names the parser cannot split: ${checked.review.join('; ')}` });
+    return checked.source;
+  });
 const materialRow = z.object({
   name: z.string().min(1),
   display_name: z.string(),
@@ -123,23 +142,13 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
 
   const sourceIds = new Map<string, string>();
   for (const s of sources) {
+    const fields = storedSource(s);
     const [row] = await tx
       .insert(source)
-      .values({
-        workspaceId,
-        citeKey: s.cite_key,
-        kind: s.kind,
-        doi: s.doi || null,
-        title: s.title || null,
-        authors: s.authors || null,
-        year: s.year,
-        venue: s.venue || null,
-        notebookRef: s.kind === 'in-house-notebook' ? s.venue : null,
-        createdBy: userId,
-      })
+      .values({ workspaceId, ...fields, createdBy: userId })
       .returning({ id: source.id });
-    sourceIds.set(s.cite_key, row.id);
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: s, reason: 'demo seed' });
+    sourceIds.set(s.citeKey, row.id);
+    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: fields, reason: 'demo seed' });
   }
 
   const materialIds = new Map<string, { id: string; atomsPerFormulaUnit: number }>();

@@ -3,12 +3,14 @@ import { migrate } from 'drizzle-orm/libsql/migrator';
 import { drizzle } from 'drizzle-orm/libsql';
 import type { Client } from '@libsql/client';
 import { connect } from './connection';
+import { backfillStructuredSources } from './source-backfill';
 
 const migrationsFolder = fileURLToPath(new URL('../drizzle', import.meta.url));
 
-/** Applies every migration in drizzle/ to the given client (used by the script and by tests). */
+/** Applies every migration in drizzle/ to the given client (used by the script and by tests), then the one-time data steps SQL cannot do. */
 export async function migrateClient(client: Client): Promise<void> {
   await migrate(drizzle(client), { migrationsFolder });
+  await backfillStructuredSources(client);
 }
 
 async function main() {

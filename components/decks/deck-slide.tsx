@@ -8,6 +8,7 @@ import { plotPoints } from '@/lib/benchmark/pairs-export';
 import { techniqueName } from '@/lib/benchmark/describe';
 import type { PairRecord } from '@/lib/benchmark/types';
 import { Notice } from '@/components/ui/notice';
+import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import { Leaderboard } from '@/app/(app)/w/[workspace]/benchmarks/_components/leaderboard';
 import { MaterialValuesSection } from '@/app/(app)/w/[workspace]/materials/_components/material-values';
 import { fmt, signed, when } from '@/app/(app)/w/[workspace]/benchmarks/_components/format';
@@ -20,6 +21,7 @@ interface Citation {
   key: string;
   text: string;
   doi: string | null;
+  gaps: string[];
 }
 
 const CITATIONS_SHOWN = 24;
@@ -33,7 +35,8 @@ function Citations({ items, mode }: { items: Citation[]; mode: SlideMode }) {
       <ul className={mode === 'print' ? 'columns-2 gap-6' : 'columns-3 gap-6'}>
         {shown.map((c) => (
           <li key={c.key} className="break-inside-avoid">
-            <span className="font-mono">{c.key}</span> — {c.text}
+            <span className="font-mono">{c.key}</span>
+            <IncompleteMark gaps={c.gaps} /> — {c.text}
             {c.doi ? ` · doi:${c.doi}` : ''}
           </li>
         ))}
@@ -43,12 +46,12 @@ function Citations({ items, mode }: { items: Citation[]; mode: SlideMode }) {
   );
 }
 
-function citationsOf(pairs: readonly PairRecord[], sources: Map<string, { citeKey: string; citation: string; doi: string | null }>): Citation[] {
+function citationsOf(pairs: readonly PairRecord[], sources: Map<string, { citeKey: string; citation: string; doi: string | null; gaps: string[] }>): Citation[] {
   const ids = [...new Set(pairs.flatMap((p) => p.sourceIds))];
   return ids
     .map((id) => sources.get(id))
     .filter((s): s is NonNullable<typeof s> => !!s)
-    .map((s) => ({ key: s.citeKey, text: s.citation, doi: s.doi }))
+    .map((s) => ({ key: s.citeKey, text: s.citation, doi: s.doi, gaps: s.gaps }))
     .sort((a, b) => a.key.localeCompare(b.key));
 }
 
@@ -96,7 +99,8 @@ export async function DeckSlide({ workspace, entry, mode }: { workspace: { id: s
       listSubjectThreads(workspace.id, 'material', entry.material.id),
     ]);
     const selected = values.methods.find((x) => x.methodId === entry.filters.methodId) ?? values.methods[0];
-    const keys = [...new Set([...values.peaks.map((p) => p.citeKey), ...(selected?.modes ?? []).map((x) => x.citeKey), ...values.entropies.map((e) => e.citeKey)])].sort();
+    const cited = new Map([...values.peaks, ...(selected?.modes ?? []), ...values.entropies].map((v) => [v.citeKey, v.sourceGaps]));
+    const keys = [...cited.keys()].sort();
     return shell(
       <span>
         {m?.formula} · current values (a material page is not pinned to a revision)
@@ -104,7 +108,7 @@ export async function DeckSlide({ workspace, entry, mode }: { workspace: { id: s
       <MaterialValuesSection slug={workspace.slug} materialId={entry.material.id} materialName={entry.material.name} values={values} selectedMethodId={selected?.methodId} />,
       <>
         <ThreadCount count={threads.filter((t) => !t.resolvedAt).length} mode={mode} />
-        <Citations items={keys.map((k) => ({ key: k, text: 'see Sources', doi: null }))} mode={mode} />
+        <Citations items={keys.map((k) => ({ key: k, text: 'see Sources', doi: null, gaps: cited.get(k) ?? [] }))} mode={mode} />
       </>,
     );
   }

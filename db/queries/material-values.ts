@@ -25,6 +25,7 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
         sampleForm: measurement.sampleForm,
         sourceId: source.id,
         citeKey: source.citeKey,
+        sourceGaps: source.gaps,
       })
       .from(measurement)
       .innerJoin(source, eq(measurement.sourceId, source.id))
@@ -47,6 +48,7 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
         methodLabel: method.label,
         sourceId: source.id,
         citeKey: source.citeKey,
+        sourceGaps: source.gaps,
       })
       .from(calculation)
       .innerJoin(method, eq(calculation.methodId, method.id))

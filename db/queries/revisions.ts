@@ -2,6 +2,7 @@ import 'server-only';
 import { and, asc, desc, eq, inArray, max, sql } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { flag, importBatch, material, revision, source, user } from '@/db/schema';
+import { shortCitation } from '@/lib/citations/short-citation';
 import { AppError } from '@/lib/errors';
 import { computeBenchmark } from '@/lib/benchmark/compute';
 import { benchmarkFingerprint } from '@/lib/benchmark/fingerprint';
@@ -282,20 +283,7 @@ export async function sourcesOfRevision(workspaceId: string, snapshot: Benchmark
   for (let i = 0; i < ids.length; i += 500) {
     out.push(
       ...(await db
-        .select({
-          id: source.id,
-          citeKey: source.citeKey,
-          kind: source.kind,
-          doi: source.doi,
-          title: source.title,
-          authors: source.authors,
-          year: source.year,
-          venue: source.venue,
-          url: source.url,
-          notebookRef: source.notebookRef,
-          instrument: source.instrument,
-          operator: source.operator,
-        })
+        .select()
         .from(source)
         .where(and(eq(source.workspaceId, workspaceId), inArray(source.id, ids.slice(i, i + 500))))
         .orderBy(asc(source.citeKey))),
@@ -315,12 +303,8 @@ export async function pairLookups(workspaceId: string, snapshot: BenchmarkSnapsh
       .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, materialIds.slice(i, i + 500))));
     for (const r of rows) materials.set(r.id, { name: r.name, formula: r.formula });
   }
-  const sources = new Map<string, { citeKey: string; citation: string; doi: string | null }>();
-  for (const s of await sourcesOfRevision(workspaceId, snapshot)) {
-    const who = s.authors?.split(/[;,]| and /)[0]?.trim() || s.operator || s.citeKey;
-    const citation = [who + (s.authors && /;| and /.test(s.authors) ? ' et al.' : ''), s.venue, s.year].filter(Boolean).join(', ');
-    sources.set(s.id, { citeKey: s.citeKey, citation, doi: s.doi });
-  }
+  const sources = new Map<string, { citeKey: string; citation: string; doi: string | null; gaps: string[] }>();
+  for (const s of await sourcesOfRevision(workspaceId, snapshot)) sources.set(s.id, { citeKey: s.citeKey, citation: shortCitation(s), doi: s.doi, gaps: s.gaps });
   return { materials, sources };
 }
 

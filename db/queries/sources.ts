@@ -5,6 +5,7 @@ import { measurement, calculation, source, type Source } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { likePattern, type ListParams } from '@/lib/catalog/list-params';
 import type { SourceInput } from '@/lib/catalog/source-schema';
+import { storedSource } from '@/lib/citations/stored';
 import { writeAudit, type Actor } from './audit';
 
 const SORTABLE = {
@@ -47,9 +48,13 @@ export async function listSources(workspaceId: string, params: ListParams) {
         doi: source.doi,
         title: source.title,
         authors: source.authors,
+        authorList: source.authorList,
         year: source.year,
         venue: source.venue,
+        volume: source.volume,
+        pages: source.pages,
         notebookRef: source.notebookRef,
+        gaps: source.gaps,
         retractedAt: source.retractedAt,
       })
       .from(source)
@@ -106,30 +111,30 @@ async function assertCiteKeyFree(executor: Executor, workspaceId: string, citeKe
   }
 }
 
+/** One source per DOI: a second one is refused and pointed at the first (existing doubles are merged, see mergeSources). */
+async function assertDoiFree(executor: Executor, workspaceId: string, doi: string | undefined, exceptId?: string) {
+  if (!doi) return;
+  const clash = await executor
+    .select({ id: source.id, citeKey: source.citeKey })
+    .from(source)
+    .where(and(eq(source.workspaceId, workspaceId), eq(source.doi, doi), isNull(source.retractedAt)))
+    .limit(2);
+  const other = clash.find((c) => c.id !== exceptId);
+  if (other) throw new AppError('conflict', `The DOI ${doi} is already the source "${other.citeKey}" in this workspace: cite that one.`, { field: 'doi', citeKey: other.citeKey });
+}
+
 function snapshot(s: Source) {
   const { workspaceId: _w, createdBy: _c, createdAt: _a, updatedAt: _u, retractedBy: _r, retractedAt, ...fields } = s;
   return { ...fields, retractedAt: retractedAt?.toISOString() ?? null };
 }
 
 function columnsOf(input: SourceInput) {
-  return {
-    kind: input.kind,
-    citeKey: input.citeKey,
-    doi: input.doi ?? null,
-    title: input.title ?? null,
-    authors: input.authors ?? null,
-    year: input.year ?? null,
-    venue: input.venue ?? null,
-    url: input.url ?? null,
-    notebookRef: input.notebookRef ?? null,
-    instrument: input.instrument ?? null,
-    operator: input.operator ?? null,
-    recordedOn: input.recordedOn ?? null,
-  };
+  return storedSource(input);
 }
 
 async function insertSource(tx: Executor, workspaceId: string, actor: Actor, input: SourceInput, reason?: string): Promise<string> {
   await assertCiteKeyFree(tx, workspaceId, input.citeKey);
+  await assertDoiFree(tx, workspaceId, input.doi);
   const [row] = await tx.insert(source).values({ workspaceId, createdBy: actor.userId, ...columnsOf(input) }).returning();
   await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: snapshot(row), reason });
   return row.id;
@@ -139,38 +144,79 @@ export async function createSource(workspaceId: string, actor: Actor, input: Sou
   return db.transaction((tx) => insertSource(tx, workspaceId, actor, input));
 }
 
-export interface SourceImportResult {
-  created: Array<{ id: string; citeKey: string }>;
-  existing: string[];
+export interface SourceImportEntry {
+  input: SourceInput;
+  /** How the entry is named in a refusal, e.g. "Entry 2 (azuhata1995), line 14". */
+  label: string;
 }
 
+export type SourceImportResult =
+  | { ok: true; created: Array<{ id: string; citeKey: string }>; existing: string[] }
+  | { ok: false; refusals: string[] };
+
+class ImportRefused extends Error {
+  constructor(readonly refusals: string[]) {
+    super('import refused');
+  }
+}
+
+const sameTitle = (a: string | null | undefined, b: string | null | undefined) => Boolean(a && b && a.trim().toLowerCase() === b.trim().toLowerCase());
+
 /**
- * Creates every source whose cite key is new, in one transaction; cite keys already
- * in the workspace are reported, not duplicated.
+ * Creates every new source in one transaction, or none: an entry whose cite key
+ * is taken by a different source, or whose DOI is already another source, is
+ * refused by name. An entry that is already here (same cite key and the same
+ * DOI, or the same title when neither has a DOI) is reported, not duplicated.
  */
-export async function importSources(workspaceId: string, actor: Actor, inputs: SourceInput[], reason: string): Promise<SourceImportResult> {
-  return db.transaction(async (tx) => {
-    const keys = inputs.map((i) => i.citeKey);
-    const taken = new Set<string>();
-    for (let i = 0; i < keys.length; i += 500) {
-      const rows = await tx
-        .select({ citeKey: source.citeKey })
-        .from(source)
-        .where(and(eq(source.workspaceId, workspaceId), inArray(source.citeKey, keys.slice(i, i + 500))));
-      rows.forEach((r) => taken.add(r.citeKey));
-    }
-    const result: SourceImportResult = { created: [], existing: [] };
-    for (const input of inputs) {
-      if (taken.has(input.citeKey)) {
-        result.existing.push(input.citeKey);
-        continue;
+export async function importSources(workspaceId: string, actor: Actor, entries: SourceImportEntry[], reason: string): Promise<SourceImportResult> {
+  try {
+    return await db.transaction(async (tx) => {
+      const byKey = new Map<string, { citeKey: string; doi: string | null; title: string | null }>();
+      const byDoi = new Map<string, string>();
+      const keys = entries.map((e) => e.input.citeKey);
+      const dois = entries.map((e) => e.input.doi).filter((d): d is string => Boolean(d));
+      for (let i = 0; i < keys.length; i += 500) {
+        const rows = await tx
+          .select({ citeKey: source.citeKey, doi: source.doi, title: source.title })
+          .from(source)
+          .where(and(eq(source.workspaceId, workspaceId), inArray(source.citeKey, keys.slice(i, i + 500))));
+        rows.forEach((r) => byKey.set(r.citeKey, r));
       }
-      const id = await insertSource(tx, workspaceId, actor, input, reason);
-      taken.add(input.citeKey);
-      result.created.push({ id, citeKey: input.citeKey });
-    }
-    return result;
-  });
+      for (let i = 0; i < dois.length; i += 500) {
+        const rows = await tx
+          .select({ citeKey: source.citeKey, doi: source.doi })
+          .from(source)
+          .where(and(eq(source.workspaceId, workspaceId), inArray(source.doi, dois.slice(i, i + 500)), isNull(source.retractedAt)));
+        rows.forEach((r) => byDoi.set(r.doi!, r.citeKey));
+      }
+      const created: Array<{ id: string; citeKey: string }> = [];
+      const existing: string[] = [];
+      const refusals: string[] = [];
+      for (const { input, label } of entries) {
+        const same = byKey.get(input.citeKey);
+        if (same) {
+          const identical = same.doi || input.doi ? same.doi === (input.doi ?? null) : sameTitle(same.title, input.title);
+          if (identical) existing.push(input.citeKey);
+          else refusals.push(`${label}: the cite key "${input.citeKey}" is already used by a different source in this workspace${same.title ? ` ("${same.title}")` : ''}.`);
+          continue;
+        }
+        const doiOwner = input.doi ? byDoi.get(input.doi) : undefined;
+        if (doiOwner) {
+          refusals.push(`${label}: the DOI ${input.doi} is already the source "${doiOwner}" in this workspace.`);
+          continue;
+        }
+        const id = await insertSource(tx, workspaceId, actor, input, reason);
+        byKey.set(input.citeKey, { citeKey: input.citeKey, doi: input.doi ?? null, title: input.title ?? null });
+        if (input.doi) byDoi.set(input.doi, input.citeKey);
+        created.push({ id, citeKey: input.citeKey });
+      }
+      if (refusals.length) throw new ImportRefused(refusals);
+      return { ok: true as const, created, existing };
+    });
+  } catch (e) {
+    if (e instanceof ImportRefused) return { ok: false, refusals: e.refusals };
+    throw e;
+  }
 }
 
 export async function updateSource(workspaceId: string, actor: Actor, id: string, input: SourceInput): Promise<void> {
@@ -178,6 +224,7 @@ export async function updateSource(workspaceId: string, actor: Actor, id: string
     const before = await requireSource(tx, workspaceId, id);
     if (before.retractedAt) throw new AppError('conflict', 'This source is retracted: restore it before editing.');
     await assertCiteKeyFree(tx, workspaceId, input.citeKey, id);
+    await assertDoiFree(tx, workspaceId, input.doi, id);
     const [after] = await tx
       .update(source)
       .set({ ...columnsOf(input), updatedAt: new Date() })
@@ -213,8 +260,76 @@ export async function restoreSource(workspaceId: string, actor: Actor, id: strin
   });
 }
 
-/** Sources for a BibTeX export: the given ids (only those of this workspace), or every unretracted source. */
+/** Sources for an export: the given ids (only those of this workspace, read 500 at a time), or every unretracted source. */
 export async function listSourcesForExport(workspaceId: string, ids?: string[]): Promise<Source[]> {
-  const scope = ids ? inArray(source.id, ids) : isNull(source.retractedAt);
-  return db.select().from(source).where(and(eq(source.workspaceId, workspaceId), scope)).orderBy(asc(source.citeKey));
+  if (!ids) return db.select().from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))).orderBy(asc(source.citeKey));
+  const unique = [...new Set(ids)];
+  const out: Source[] = [];
+  for (let i = 0; i < unique.length; i += 500) {
+    out.push(...(await db.select().from(source).where(and(eq(source.workspaceId, workspaceId), inArray(source.id, unique.slice(i, i + 500))))));
+  }
+  return out.sort((a, b) => a.citeKey.localeCompare(b.citeKey));
+}
+
+export interface DoiDuplicate {
+  doi: string;
+  sources: Array<{ id: string; citeKey: string; title: string | null; valueCount: number; createdAt: Date }>;
+}
+
+/** Unretracted sources of this workspace that share a DOI, oldest first in each group. */
+export async function findDoiDuplicates(workspaceId: string): Promise<DoiDuplicate[]> {
+  const shared = db
+    .select({ doi: source.doi })
+    .from(source)
+    .where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt), sql`${source.doi} is not null`))
+    .groupBy(source.doi)
+    .having(sql`count(*) > 1`);
+  const rows = await db
+    .select({ id: source.id, doi: source.doi, citeKey: source.citeKey, title: source.title, createdAt: source.createdAt })
+    .from(source)
+    .where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt), inArray(source.doi, shared)))
+    .orderBy(asc(source.doi), asc(source.createdAt), asc(source.citeKey));
+  const counts = await valueCounts(workspaceId, rows.map((r) => r.id));
+  const groups = new Map<string, DoiDuplicate>();
+  for (const r of rows) {
+    const group = groups.get(r.doi!) ?? { doi: r.doi!, sources: [] };
+    group.sources.push({ id: r.id, citeKey: r.citeKey, title: r.title, createdAt: r.createdAt, valueCount: counts.get(r.id) ?? 0 });
+    groups.set(r.doi!, group);
+  }
+  return [...groups.values()];
+}
+
+/**
+ * Merges a source into another with the same DOI: its measurements and
+ * calculations (retracted ones too) now cite the kept source, and it is retracted
+ * as "merged into …". One audit entry on each source says what moved.
+ */
+export async function mergeSources(workspaceId: string, actor: Actor, keepId: string, mergeId: string, reason: string | null): Promise<{ moved: number }> {
+  if (keepId === mergeId) throw new AppError('bad-request', 'Choose two different sources to merge.');
+  return db.transaction(async (tx) => {
+    const keep = await requireSource(tx, workspaceId, keepId);
+    const merged = await requireSource(tx, workspaceId, mergeId);
+    if (keep.retractedAt || merged.retractedAt) throw new AppError('conflict', 'Both sources must be unretracted to merge them.');
+    if (!keep.doi || keep.doi !== merged.doi) throw new AppError('conflict', 'Only sources that share a DOI are merged here.');
+    let moved = 0;
+    const movedIds: Record<string, string[]> = {};
+    for (const table of [measurement, calculation]) {
+      const rows = await tx
+        .update(table)
+        .set({ sourceId: keep.id })
+        .where(and(eq(table.workspaceId, workspaceId), eq(table.sourceId, merged.id)))
+        .returning({ id: table.id });
+      movedIds[table === measurement ? 'measurements' : 'calculations'] = rows.map((r) => r.id);
+      moved += rows.length;
+    }
+    const why = `merged into ${keep.citeKey} (same DOI ${keep.doi})${reason ? `: ${reason}` : ''}`;
+    const [after] = await tx
+      .update(source)
+      .set({ retractedAt: new Date(), retractedBy: actor.userId, retractionReason: why })
+      .where(and(eq(source.workspaceId, workspaceId), eq(source.id, merged.id)))
+      .returning();
+    await writeAudit(tx, { workspaceId, actor, action: 'merge', entityType: 'source', entityId: merged.id, before: snapshot(merged), after: { ...snapshot(after), mergedInto: keep.id, moved: movedIds }, reason: why });
+    await writeAudit(tx, { workspaceId, actor, action: 'merge', entityType: 'source', entityId: keep.id, after: { mergedFrom: merged.id, mergedCiteKey: merged.citeKey, moved: movedIds }, reason: why });
+    return { moved };
+  });
 }

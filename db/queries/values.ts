@@ -177,6 +177,7 @@ function commonColumns(t: ValueTable) {
     activity: t.activity,
     sourceId: t.sourceId,
     citeKey: source.citeKey,
+    sourceGaps: source.gaps,
     importId: t.importId,
     contributorName: user.name,
     createdAt: t.createdAt,

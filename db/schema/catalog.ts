@@ -1,6 +1,7 @@
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { sql } from 'drizzle-orm';
 import { organization, user } from './auth';
+import type { PersonName } from '@/lib/citations/names';
 import { createdAt, id, retraction, timestamp } from './columns';
 
 export const material = sqliteTable(
@@ -58,16 +59,32 @@ export const source = sqliteTable(
     /** Citation key used by imports, e.g. "azuhata1995". */
     citeKey: text().notNull(),
     kind: text({ enum: SOURCE_KINDS }).notNull(),
+    /** Lower-case, without a resolver prefix (lib/catalog/doi.ts). */
     doi: text(),
     title: text(),
+    /** The authors in order; the source of truth for every display and export. */
+    authorList: text({ mode: 'json' }).$type<PersonName[]>(),
+    editorList: text({ mode: 'json' }).$type<PersonName[]>(),
+    /** Derived from authorList on every write ("Family, G.; …"), for search and sort only. */
     authors: text(),
     year: integer(),
+    /** Journal, or the container of a chapter or data set. */
     venue: text(),
+    volume: text(),
+    issue: text(),
+    pages: text(),
+    articleNumber: text(),
+    /** Publisher, or the school of a thesis. */
+    publisher: text(),
     url: text(),
+    accessedOn: text(),
     notebookRef: text(),
     instrument: text(),
     operator: text(),
     recordedOn: text(),
+    note: text(),
+    /** What keeps the source from being complete (lib/citations/completeness.ts), derived on every write; [] when complete. */
+    gaps: text({ mode: 'json' }).$type<string[]>().notNull().default(sql`'[]'`),
     createdBy: text().references(() => user.id),
     createdAt: createdAt(),
     updatedAt: timestamp(),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { APPROACHES, SOURCE_KINDS } from '@/db/schema/catalog';
+import { GAP_CODES } from '@/lib/citations/completeness';
 import { CALCULATION_COLUMNS, MEASUREMENT_COLUMNS, type ColumnDef } from '@/lib/import/columns';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 import { ACTIVITY_VALUES, BRANCH_VALUES, SAMPLE_FORM_VALUES, TECHNIQUE_VALUES } from '@/lib/import/vocabulary';
@@ -104,21 +105,42 @@ export const materialSchema = z
   })
   .meta({ title: 'Material' });
 
+export const personNameApiSchema = z
+  .object({
+    family: z.string().optional(),
+    given: z.string().optional(),
+    particle: z.string().optional().meta({ description: '"van der", "de la": kept apart from the family name (CSL non-dropping-particle).' }),
+    suffix: z.string().optional(),
+    literal: z.string().optional().meta({ description: 'An organisation, or a name kept exactly as written.' }),
+    review: z.boolean().optional().meta({ description: 'The name could not be split into family and given names: kept as written, to review.' }),
+  })
+  .meta({ title: 'PersonName' });
+
 export const sourceSchema = z
   .object({
     id: z.string(),
     citeKey: z.string(),
     kind: z.enum(SOURCE_KINDS),
-    doi: nullableText,
+    doi: nullableText.meta({ description: 'Bare and lower-case, e.g. 10.1103/physrev.155.712.' }),
     title: nullableText,
-    authors: nullableText,
+    authors: z.string().meta({ description: 'The authors in the display format used everywhere ("T. Azuhata, T. Sota and S. Nakamura"); empty when none.' }),
+    authorList: z.array(personNameApiSchema).meta({ description: 'The authors in order.' }),
+    editorList: z.array(personNameApiSchema),
     year: z.int().nullable(),
-    venue: nullableText,
+    venue: nullableText.meta({ description: 'Journal, or the container of a chapter or data set.' }),
+    volume: nullableText,
+    issue: nullableText,
+    pages: nullableText.meta({ description: 'A page range with an en dash ("712–716"), or one page ("L129").' }),
+    articleNumber: nullableText,
+    publisher: nullableText.meta({ description: 'Publisher, or the school of a thesis.' }),
     url: nullableText,
+    accessedOn: nullableText,
     notebookRef: nullableText,
     instrument: nullableText,
     operator: nullableText,
     recordedOn: nullableText,
+    note: nullableText,
+    gaps: z.array(z.enum(GAP_CODES)).meta({ description: 'Why the source is incomplete (no authors, an author name to review, no year, no DOI or notebook reference); empty when complete.' }),
     createdAt: timestamp,
     retractedAt: timestamp.nullable(),
   })
@@ -191,7 +213,7 @@ export const materialSummarySchema = materialSchema
   .meta({ title: 'MaterialSummary' });
 
 export const sourceSummarySchema = sourceSchema
-  .pick({ id: true, citeKey: true, kind: true, doi: true, title: true, authors: true, year: true, venue: true, notebookRef: true, retractedAt: true })
+  .pick({ id: true, citeKey: true, kind: true, doi: true, title: true, authors: true, authorList: true, year: true, venue: true, volume: true, pages: true, notebookRef: true, gaps: true, retractedAt: true })
   .extend({ valueCount: z.int() })
   .meta({ title: 'SourceSummary' });
 

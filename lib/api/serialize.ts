@@ -1,4 +1,6 @@
 import type { z } from 'zod';
+import { formatAuthors } from '@/lib/citations/authors';
+import type { PersonName } from '@/lib/citations/names';
 
 /** Dates become ISO strings, everything else is kept; then the API schema picks and checks the fields. */
 function jsonDates(row: Record<string, unknown>): Record<string, unknown> {
@@ -9,4 +11,9 @@ function jsonDates(row: Record<string, unknown>): Record<string, unknown> {
 
 export function toApi<S extends z.ZodType>(schema: S, row: object): z.infer<S> {
   return schema.parse(jsonDates(row as Record<string, unknown>));
+}
+
+/** A source row for the API: `authors` in the one display format, the name lists never null. */
+export function sourceForApi<R extends { authorList: PersonName[] | null; editorList?: PersonName[] | null }>(row: R) {
+  return { ...row, authors: formatAuthors(row.authorList), authorList: row.authorList ?? [], editorList: row.editorList ?? [] };
 }

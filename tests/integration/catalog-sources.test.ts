@@ -33,13 +33,23 @@ beforeAll(async () => {
 describe('sources: create, edit, retract, restore', () => {
   let id: string;
 
-  it('creates a journal article with its DOI stripped of the resolver prefix, audited', async () => {
+  it('creates a journal article with its DOI stripped of the resolver prefix and its authors split, audited', async () => {
     await signInAs(ws.members.contributor.email);
     const state = await createSourceAction(undefined, form({ workspaceId: ws.workspaceId, ...PARKER }));
     expect(state).toMatchObject({ ok: true });
     id = (state.data as { id: string }).id;
     const [row] = await db.select().from(source).where(eq(source.id, id));
-    expect(row).toMatchObject({ citeKey: 'parker1967', doi: '10.1103/PhysRev.155.712', year: 1967, kind: 'journal-article' });
+    expect(row).toMatchObject({
+      citeKey: 'parker1967',
+      doi: '10.1103/physrev.155.712',
+      year: 1967,
+      kind: 'journal-article',
+      authorList: [
+        { family: 'Parker', given: 'J. H.' },
+        { family: 'Feldman', given: 'D. W.' },
+        { family: 'Ashkin', given: 'M.' },
+      ],
+    });
     const audit = await db.select().from(auditLog).where(and(eq(auditLog.workspaceId, ws.workspaceId), eq(auditLog.entityId, id)));
     expect(audit).toHaveLength(1);
     expect(audit[0]).toMatchObject({ action: 'create', entityType: 'source' });

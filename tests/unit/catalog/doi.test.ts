@@ -1,16 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { doiUrl, normalizeDoi } from '@/lib/catalog/doi';
 
-// DOI syntax: "10." + registrant code + "/" + suffix (DOI Handbook, section 2.2).
+// DOI syntax: "10." + registrant code + "/" + suffix (DOI Handbook, section 2.2); DOIs are case-insensitive (ibid.), stored lower-case.
 describe('normalizeDoi', () => {
-  it('accepts a bare DOI unchanged', () => {
-    expect(normalizeDoi('10.1103/PhysRev.155.712')).toEqual({ ok: true, doi: '10.1103/PhysRev.155.712' });
+  it('accepts a bare DOI, lower-cased', () => {
+    expect(normalizeDoi('10.1103/PhysRev.155.712')).toEqual({ ok: true, doi: '10.1103/physrev.155.712' });
   });
 
   it('strips https://doi.org/, http://dx.doi.org/ and doi: prefixes', () => {
     expect(normalizeDoi('https://doi.org/10.1088/0953-8984/7/10/002')).toEqual({ ok: true, doi: '10.1088/0953-8984/7/10/002' });
-    expect(normalizeDoi('http://dx.doi.org/10.1103/PhysRevB.89.064305')).toEqual({ ok: true, doi: '10.1103/PhysRevB.89.064305' });
-    expect(normalizeDoi('doi:10.1103/PhysRev.155.712')).toEqual({ ok: true, doi: '10.1103/PhysRev.155.712' });
+    expect(normalizeDoi('http://dx.doi.org/10.1103/PhysRevB.89.064305')).toEqual({ ok: true, doi: '10.1103/physrevb.89.064305' });
+    expect(normalizeDoi('doi:10.1103/PhysRev.155.712')).toEqual({ ok: true, doi: '10.1103/physrev.155.712' });
     expect(normalizeDoi('  DOI: 10.5281/zenodo.1234  ')).toEqual({ ok: true, doi: '10.5281/zenodo.1234' });
   });
 

@@ -3,9 +3,9 @@ import { revalidatePath } from 'next/cache';
 import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
 import { workspaceAction } from '@/lib/action';
 import { conflictAsFieldError } from '@/lib/catalog/action-state';
-import { parseBibtex } from '@/lib/bibtex';
-import { createSource, importSources, restoreSource, retractSource, updateSource } from '@/db/queries/sources';
-import { createSourceSchema, importBibtexSchema, restoreSourceSchema, retractSourceSchema, updateSourceSchema } from './schemas';
+import { describeReferenceError, detectFormat, IMPORT_FORMAT_LABELS, parseReferences } from '@/lib/citations/import';
+import { createSource, importSources, mergeSources, restoreSource, retractSource, updateSource } from '@/db/queries/sources';
+import { createSourceSchema, importReferencesSchema, mergeSourcesSchema, restoreSourceSchema, retractSourceSchema, updateSourceSchema } from './schemas';
 
 function refresh(slug: string, id?: string) {
   revalidatePath(`/w/${slug}/sources`);
@@ -47,21 +47,39 @@ export const restoreSourceAction = workspaceAction('sources:retract', restoreSou
   return { ok: true, message: 'Source restored.', data: { id } };
 });
 
-/** Imports every entry of a .bib in one transaction, or nothing when any entry has a problem. */
-export const importBibtexAction = workspaceAction('sources:create', importBibtexSchema, async ({ bibtex }, ctx) => {
-  const parsed = parseBibtex(bibtex);
+/** Imports every entry of a BibTeX, RIS or CSL-JSON text in one transaction, or nothing when any entry has a problem. */
+export const importReferencesAction = workspaceAction('sources:create', importReferencesSchema, async ({ references, format: chosen }, ctx) => {
+  const format = chosen === 'auto' ? detectFormat(references) : chosen;
+  if (!format) {
+    return { ok: false, code: 'unprocessable', message: 'Nothing imported: the text is not BibTeX, RIS or CSL-JSON.', fieldErrors: { references: ['Expected @type{key, …} entries (BibTeX), "TY  - " records (RIS) or a JSON array of CSL items.'] } };
+  }
+  const parsed = parseReferences(references, format);
+  const label = IMPORT_FORMAT_LABELS[format];
   if (parsed.errors.length > 0) {
-    const lines = parsed.errors.map((e) => `Entry ${e.entry}${e.citeKey ? ` (${e.citeKey})` : ''}, line ${e.line}: ${e.message}`);
-    return { ok: false, code: 'unprocessable', message: `Nothing imported: ${parsed.errors.length} entr${parsed.errors.length === 1 ? 'y has' : 'ies have'} problems.`, fieldErrors: { bibtex: lines } };
+    const syntax = parsed.errors.some((e) => e.syntax);
+    const n = parsed.errors.length;
+    const message = syntax ? `Nothing imported: the ${label} text has ${n === 1 ? 'an error' : `${n} errors`}.` : `Nothing imported: ${n} entr${n === 1 ? 'y is' : 'ies are'} refused.`;
+    return { ok: false, code: 'unprocessable', message, fieldErrors: { references: parsed.errors.map(describeReferenceError) } };
   }
-  if (parsed.sources.length === 0) {
-    return { ok: false, code: 'unprocessable', message: 'No BibTeX entries found.', fieldErrors: { bibtex: ['No @type{key, …} entries in the text.'] } };
+  const entries = parsed.sources.map((input, i) => ({ input, label: `Entry ${i + 1} (${input.citeKey})${parsed.lines[i] ? `, line ${parsed.lines[i]}` : ''}` }));
+  const result = await importSources(ctx.workspace.id, { userId: ctx.user.id }, entries, `${label} import`);
+  if (!result.ok) {
+    const n = result.refusals.length;
+    return { ok: false, code: 'unprocessable', message: `Nothing imported: ${n} entr${n === 1 ? 'y is' : 'ies are'} refused.`, fieldErrors: { references: result.refusals } };
   }
-  const result = await importSources(ctx.workspace.id, { userId: ctx.user.id }, parsed.sources, 'BibTeX import');
   refresh(ctx.workspace.slug);
-  const skipped = [...new Set([...result.existing, ...parsed.repeated])];
+  const review = parsed.sources.filter((s) => s.authors.some((a) => a.review)).map((s) => s.citeKey);
   const message =
-    `Imported ${result.created.length} source${result.created.length === 1 ? '' : 's'}.` +
-    (skipped.length ? ` Already present, not duplicated: ${skipped.join(', ')}.` : '');
-  return { ok: true, message, data: { created: result.created, existing: result.existing, repeated: parsed.repeated } };
+    `Imported ${result.created.length} source${result.created.length === 1 ? '' : 's'} from ${label}.` +
+    (result.existing.length ? ` Already present, not duplicated: ${result.existing.join(', ')}.` : '') +
+    (review.length ? ` Author names to review: ${review.join(', ')}.` : '');
+  return { ok: true, message, data: { created: result.created, existing: result.existing, format } };
+});
+
+/** Curators and owners merge two sources that share a DOI: the values move to the kept one. */
+export const mergeSourcesAction = workspaceAction('sources:retract', mergeSourcesSchema, async ({ keepId, mergeId, reason }, ctx) => {
+  const { moved } = await mergeSources(ctx.workspace.id, { userId: ctx.user.id }, keepId, mergeId, reason ?? null);
+  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
+  refresh(ctx.workspace.slug, keepId);
+  return { ok: true, message: `Merged: ${moved} value${moved === 1 ? '' : 's'} now cite the kept source.`, data: { keepId, moved } };
 });

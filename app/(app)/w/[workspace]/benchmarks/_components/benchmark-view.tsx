@@ -5,6 +5,7 @@ import { importsByIds, listRevisionHistory, materialNames, pairLookups, type Rev
 import { decisionNames, listDecisions, listPins } from '@/db/queries/decisions';
 import { describeScope, techniqueName } from '@/lib/benchmark/describe';
 import { howToCite } from '@/lib/benchmark/citation';
+import { RevisionSources } from '@/components/citations/revision-sources';
 import { env } from '@/lib/env';
 import { roleCan, type WorkspaceRole } from '@/lib/permissions';
 import { EmptyState, Panel } from '@/components/ui/panel';
@@ -339,11 +340,9 @@ export async function BenchmarkView({
             <a className={buttonClass('secondary')} href={`${api}/pairs?${q}&format=csv`} download>
               Pairs (CSV)
             </a>
-            <a className={buttonClass('secondary')} href={`${api}/bibtex?${q}`} download>
-              Sources (BibTeX)
-            </a>
             <span className="self-center text-xs text-ink-muted">Plots download as SVG or PNG from their own buttons.</span>
           </div>
+          <RevisionSources pairs={snap.pairs} sources={lookups.sources} sourcesHref={`/w/${workspace.slug}/sources`} exportHref={(f) => `${api}/sources?${q}&format=${f}`} />
           <p className="text-xs text-ink-muted">
             {snap.counts.measurements.toLocaleString('en')} measurements, {snap.counts.calculations.toLocaleString('en')} calculations, {snap.counts.materials.toLocaleString('en')} materials and{' '}
             {snap.counts.methods} methods in scope; {snap.pairs.length.toLocaleString('en')} pairs.

@@ -1,4 +1,5 @@
 import Link from 'next/link';
+import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import type { ComputedModeRow, MaterialValues, MeasuredPeakRow } from '@/db/queries/material-values';
 import { StickSpectrum } from '@/components/charts/stick-spectrum';
 import { EmptyState, Panel } from '@/components/ui/panel';
@@ -34,6 +35,7 @@ function PeaksTable({ slug, peaks }: { slug: string; peaks: MeasuredPeakRow[] })
             <td className="num py-1 pr-2 text-right">{fmt(p.temperatureK, 0)}</td>
             <td className="py-1">
               <Link href={`/w/${slug}/sources/${p.sourceId}`}>{p.citeKey}</Link>
+              <IncompleteMark gaps={p.sourceGaps} />
             </td>
           </tr>
         ))}
@@ -75,8 +77,8 @@ function ModesTable({ modes }: { modes: ComputedModeRow[] }) {
 
 function EntropyTable({ slug, values }: { slug: string; values: MaterialValues }) {
   const rows = [
-    ...values.entropies.map((e) => ({ id: e.id, series: 'Measured', t: e.temperatureK, s: e.value, u: e.uncertainty, sourceId: e.sourceId, citeKey: e.citeKey })),
-    ...values.methods.flatMap((m) => m.entropies.map((e) => ({ id: e.id, series: m.methodLabel, t: e.temperatureK, s: e.value, u: null as number | null, sourceId: e.sourceId, citeKey: e.citeKey }))),
+    ...values.entropies.map((e) => ({ id: e.id, series: 'Measured', t: e.temperatureK, s: e.value, u: e.uncertainty, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+    ...values.methods.flatMap((m) => m.entropies.map((e) => ({ id: e.id, series: m.methodLabel, t: e.temperatureK, s: e.value, u: null as number | null, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps }))),
   ].sort((a, b) => (a.t ?? 0) - (b.t ?? 0) || a.series.localeCompare(b.series));
   if (rows.length === 0) return null;
   return (
@@ -100,6 +102,7 @@ function EntropyTable({ slug, values }: { slug: string; values: MaterialValues }
               <td className="num py-1 pr-2 text-right">{fmt(r.u, 2)}</td>
               <td className="py-1">
                 <Link href={`/w/${slug}/sources/${r.sourceId}`}>{r.citeKey}</Link>
+                <IncompleteMark gaps={r.sourceGaps} />
               </td>
             </tr>
           ))}

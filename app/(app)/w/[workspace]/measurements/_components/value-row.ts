@@ -17,6 +17,8 @@ export interface ValueRow {
   activity: string | null;
   sourceId: string;
   citeKey: string;
+  /** What the cited source lacks (empty when complete). */
+  sourceGaps: string[];
   importId: string | null;
   contributorName: string | null;
   created: string;

@@ -1,6 +1,7 @@
 'use client';
 import { useMemo } from 'react';
 import Link from 'next/link';
+import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import { DataTable, type DataTableState } from '@/components/data-table/data-table';
 import { DataTableToolbar, type ToolbarFilter } from '@/components/data-table/data-table-toolbar';
 import { createDataColumnHelper } from '@/components/data-table/features';
@@ -82,7 +83,17 @@ function columnsFor(slug: string, kind: 'measurements' | 'calculations') {
     helper.accessor('activity', { id: 'activity', header: 'Activity', enableSorting: false, cell: (c) => dash(c.getValue()) }),
   ]);
   const tail = helper.columns([
-    helper.accessor('citeKey', { id: 'source', header: 'Source', enableSorting: false, cell: (c) => <Link href={`${base}/sources/${c.row.original.sourceId}`}>{c.getValue()}</Link> }),
+    helper.accessor('citeKey', {
+      id: 'source',
+      header: 'Source',
+      enableSorting: false,
+      cell: (c) => (
+        <>
+          <Link href={`${base}/sources/${c.row.original.sourceId}`}>{c.getValue()}</Link>
+          <IncompleteMark gaps={c.row.original.sourceGaps} />
+        </>
+      ),
+    }),
     helper.accessor('importId', {
       id: 'import',
       header: 'Import',

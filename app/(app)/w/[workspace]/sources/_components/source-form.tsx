@@ -4,7 +4,9 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';
 import { useRecordForm } from '@/components/ui/use-record-form';
+import type { PersonName } from '@/lib/citations/names';
 import { createSourceAction, updateSourceAction } from '../actions';
+import { NameListField } from './name-list-field';
 
 export interface SourceFormValues {
   id?: string;
@@ -12,14 +14,53 @@ export interface SourceFormValues {
   citeKey: string;
   doi: string;
   title: string;
-  authors: string;
+  authors: PersonName[];
+  editors: PersonName[];
   year: string;
   venue: string;
+  volume: string;
+  issue: string;
+  pages: string;
+  articleNumber: string;
+  publisher: string;
   url: string;
+  accessedOn: string;
   notebookRef: string;
   instrument: string;
   operator: string;
   recordedOn: string;
+  note: string;
+}
+
+export const EMPTY_SOURCE: SourceFormValues = {
+  kind: 'journal-article',
+  citeKey: '',
+  doi: '',
+  title: '',
+  authors: [],
+  editors: [],
+  year: '',
+  venue: '',
+  volume: '',
+  issue: '',
+  pages: '',
+  articleNumber: '',
+  publisher: '',
+  url: '',
+  accessedOn: '',
+  notebookRef: '',
+  instrument: '',
+  operator: '',
+  recordedOn: '',
+  note: '',
+};
+
+/** Errors of a list field and of its items ("authors.2.family"). */
+function listErrors(errors: Record<string, string[]>, name: string): string[] | undefined {
+  const out = Object.entries(errors)
+    .filter(([k]) => k === name || k.startsWith(`${name}.`))
+    .flatMap(([k, v]) => (k === name ? v : v.map((m) => `Name ${Number(k.split('.')[1]) + 1}: ${m}`)));
+  return out.length ? out : undefined;
 }
 
 export function SourceForm({ workspaceId, slug, initial, kinds }: { workspaceId: string; slug: string; initial: SourceFormValues; kinds: Array<{ value: string; label: string }> }) {
@@ -27,14 +68,12 @@ export function SourceForm({ workspaceId, slug, initial, kinds }: { workspaceId:
   const { state, pending, errors, onSubmit } = useRecordForm(editing ? updateSourceAction : createSourceAction, `/w/${slug}/sources`);
   const [kind, setKind] = useState(initial.kind);
   const notebook = kind === 'in-house-notebook';
-
+  const text = (label: string, name: Exclude<keyof SourceFormValues, 'id' | 'authors' | 'editors'>, extra: Partial<React.ComponentProps<typeof TextField>> = {}) => (
+    <TextField label={label} name={name} defaultValue={initial[name]} errors={errors[name]} {...extra} />
+  );
 
   return (
-    <form
-      className="grid max-w-3xl gap-4 sm:grid-cols-2"
-      noValidate
-      onSubmit={onSubmit}
-    >
+    <form className="grid max-w-3xl gap-4 sm:grid-cols-2" noValidate onSubmit={onSubmit}>
       <input type="hidden" name="workspaceId" value={workspaceId} />
       {initial.id && <input type="hidden" name="id" value={initial.id} />}
       <SelectField label="Kind" name="kind" value={kind} onChange={(e) => setKind(e.target.value)} errors={errors.kind}>
@@ -44,31 +83,42 @@ export function SourceForm({ workspaceId, slug, initial, kinds }: { workspaceId:
           </option>
         ))}
       </SelectField>
-      <TextField label="Cite key (unique)" name="citeKey" defaultValue={initial.citeKey} errors={errors.citeKey} hint='Used by imports, e.g. "azuhata1995".' required />
+      {text('Cite key (unique)', 'citeKey', { hint: 'Used by imports, e.g. "azuhata1995".', required: true })}
       {notebook ? (
         <>
-          <TextField label="Notebook reference" name="notebookRef" defaultValue={initial.notebookRef} errors={errors.notebookRef} hint="e.g. LN-3 p. 41" required />
-          <TextField label="Date recorded" name="recordedOn" type="date" defaultValue={initial.recordedOn} errors={errors.recordedOn} />
-          <TextField label="Instrument" name="instrument" defaultValue={initial.instrument} errors={errors.instrument} />
-          <TextField label="Operator" name="operator" defaultValue={initial.operator} errors={errors.operator} />
+          {text('Notebook reference', 'notebookRef', { hint: 'e.g. LN-3 p. 41', required: true })}
+          {text('Date recorded', 'recordedOn', { type: 'date' })}
+          {text('Instrument', 'instrument')}
+          {text('Operator', 'operator')}
+          <div className="sm:col-span-2">{text('Title (optional)', 'title')}</div>
           <div className="sm:col-span-2">
-            <TextField label="Title (optional)" name="title" defaultValue={initial.title} errors={errors.title} />
+            <NameListField label="Authors (optional)" name="authors" initial={initial.authors} errors={listErrors(errors, 'authors')} />
           </div>
         </>
       ) : (
         <>
-          <TextField label="DOI" name="doi" defaultValue={initial.doi} errors={errors.doi} hint="10.NNNN/… — a https://doi.org/ or doi: prefix is removed." />
-          <TextField label="Year" name="year" inputMode="numeric" defaultValue={initial.year} errors={errors.year} />
+          {text('DOI', 'doi', { hint: '10.NNNN/… — a https://doi.org/ or doi: prefix is removed; stored lower-case.' })}
+          {text('Year', 'year', { inputMode: 'numeric' })}
+          <div className="sm:col-span-2">{text('Title', 'title', { required: true })}</div>
           <div className="sm:col-span-2">
-            <TextField label="Title" name="title" defaultValue={initial.title} errors={errors.title} />
+            <NameListField label="Authors" name="authors" initial={initial.authors} errors={listErrors(errors, 'authors')} />
           </div>
+          {text(kind === 'journal-article' ? 'Journal' : 'Container (series, journal or collection)', 'venue')}
+          {text(kind === 'thesis' ? 'School' : 'Publisher', 'publisher')}
+          <div className="grid grid-cols-2 gap-4 sm:col-span-2 sm:grid-cols-4">
+            {text('Volume', 'volume')}
+            {text('Issue', 'issue')}
+            {text('Pages', 'pages', { hint: 'e.g. 712–716 or L129' })}
+            {text('Article number', 'articleNumber')}
+          </div>
+          {text('URL', 'url', { type: 'url' })}
+          {text('Accessed on', 'accessedOn', { type: 'date', hint: 'For web pages and data sets.' })}
           <div className="sm:col-span-2">
-            <TextField label="Authors" name="authors" defaultValue={initial.authors} errors={errors.authors} hint='BibTeX style: "Family, Given and Family, Given".' />
+            <NameListField label="Editors" name="editors" initial={initial.editors} errors={listErrors(errors, 'editors')} hint="Only for a chapter or a collection; same forms as the authors." />
           </div>
-          <TextField label="Venue (journal, publisher, school)" name="venue" defaultValue={initial.venue} errors={errors.venue} />
-          <TextField label="URL" name="url" type="url" defaultValue={initial.url} errors={errors.url} />
         </>
       )}
+      <div className="sm:col-span-2">{text('Note', 'note', { hint: 'What a reader should know, e.g. “values read from Fig. 3”.' })}</div>
       <div className="flex items-center gap-3 sm:col-span-2">
         <Button type="submit" disabled={pending}>
           {pending ? 'Saving…' : editing ? 'Save source' : 'Create source'}

@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { DataTable, type DataTableState } from '@/components/data-table/data-table';
 import { DataTableToolbar } from '@/components/data-table/data-table-toolbar';
 import { createDataColumnHelper } from '@/components/data-table/features';
+import { IncompleteMark } from '@/components/citations/incomplete-mark';
 
 export interface SourceRow {
   id: string;
@@ -13,9 +14,13 @@ export interface SourceRow {
   doi: string | null;
   doiHref: string | null;
   title: string | null;
-  authors: string | null;
+  /** The one display format, at most three names. */
+  authors: string;
+  allAuthors: string;
   year: number | null;
-  venue: string | null;
+  /** Journal and volume, e.g. "Phys. Rev. 155". */
+  journal: string | null;
+  gaps: string[];
   notebookRef: string | null;
   valueCount: number;
   retracted: boolean;
@@ -28,9 +33,12 @@ function columnsFor(slug: string) {
     helper.accessor('citeKey', {
       header: 'Cite key',
       cell: (c) => (
-        <Link href={`/w/${slug}/sources/${c.row.original.id}`} className="font-medium">
-          {c.getValue()}
-        </Link>
+        <>
+          <Link href={`/w/${slug}/sources/${c.row.original.id}`} className="font-medium">
+            {c.getValue()}
+          </Link>
+          <IncompleteMark gaps={c.row.original.gaps} />
+        </>
       ),
     }),
     helper.accessor('kind', { header: 'Kind', cell: (c) => c.row.original.kindLabel }),
@@ -40,8 +48,8 @@ function columnsFor(slug: string) {
       meta: { className: 'max-w-md truncate' },
       cell: (c) => <span title={c.getValue() ?? undefined}>{c.getValue() ?? c.row.original.notebookRef ?? ''}</span>,
     }),
-    helper.accessor('authors', { header: 'Authors', meta: { className: 'max-w-xs truncate' }, cell: (c) => <span title={c.getValue() ?? undefined}>{c.getValue() ?? ''}</span> }),
-    helper.accessor('venue', { header: 'Venue', cell: (c) => c.getValue() ?? '' }),
+    helper.accessor('authors', { header: 'Authors', meta: { className: 'max-w-xs truncate' }, cell: (c) => <span title={c.row.original.allAuthors || undefined}>{c.getValue()}</span> }),
+    helper.accessor('journal', { id: 'venue', header: 'Journal', cell: (c) => c.getValue() ?? '' }),
     helper.accessor('doi', {
       header: 'DOI',
       enableSorting: false,

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requirePageMember } from '@/lib/session';
 import { SOURCE_KIND_LABELS } from '@/lib/catalog/source-schema';
-import { SourceForm } from '../_components/source-form';
+import { EMPTY_SOURCE, SourceForm } from '../_components/source-form';
 
 export const metadata: Metadata = { title: 'New source' };
 
@@ -18,7 +18,7 @@ export default async function NewSourcePage({ params }: { params: Promise<{ work
         workspaceId={ctx.workspace.id}
         slug={ctx.workspace.slug}
         kinds={Object.entries(SOURCE_KIND_LABELS).map(([value, label]) => ({ value, label }))}
-        initial={{ kind: 'journal-article', citeKey: '', doi: '', title: '', authors: '', year: '', venue: '', url: '', notebookRef: '', instrument: '', operator: '', recordedOn: '' }}
+        initial={EMPTY_SOURCE}
       />
     </div>
   );

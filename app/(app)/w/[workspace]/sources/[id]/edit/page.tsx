@@ -5,7 +5,9 @@ import { requirePageMember } from '@/lib/session';
 import { SOURCE_KIND_LABELS } from '@/lib/catalog/source-schema';
 import { getSource } from '@/db/queries/sources';
 import { Notice } from '@/components/ui/notice';
-import { SourceForm } from '../../_components/source-form';
+import { SourceForm, type SourceFormValues } from '../../_components/source-form';
+
+const TEXT_FIELDS = ['doi', 'title', 'venue', 'volume', 'issue', 'pages', 'articleNumber', 'publisher', 'url', 'accessedOn', 'notebookRef', 'instrument', 'operator', 'recordedOn', 'note'] as const;
 
 export const metadata: Metadata = { title: 'Edit source' };
 
@@ -31,17 +33,11 @@ export default async function EditSourcePage({ params }: { params: Promise<{ wor
             id: s.id,
             kind: s.kind,
             citeKey: s.citeKey,
-            doi: s.doi ?? '',
-            title: s.title ?? '',
-            authors: s.authors ?? '',
+            authors: s.authorList ?? [],
+            editors: s.editorList ?? [],
             year: s.year?.toString() ?? '',
-            venue: s.venue ?? '',
-            url: s.url ?? '',
-            notebookRef: s.notebookRef ?? '',
-            instrument: s.instrument ?? '',
-            operator: s.operator ?? '',
-            recordedOn: s.recordedOn ?? '',
-          }}
+            ...Object.fromEntries(TEXT_FIELDS.map((k) => [k, s[k] ?? ''])),
+          } as SourceFormValues}
         />
       )}
     </div>
