@@ -16,6 +16,7 @@ import {
 } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import {
+  alertThresholdsSchema,
   benchmarkDefinitionSchema,
   readAlertThresholds,
   readRules,
@@ -23,12 +24,15 @@ import {
   type BenchmarkDefinition,
   type BenchmarkDefinitionInput,
   type BenchmarkScope,
+  type BenchmarkQuantity,
+  type ResolvedAlertThresholds,
 } from '@/lib/benchmark/schemas';
 import type { BenchmarkInput, ScopeDecision } from '@/lib/benchmark/types';
 import { writeAudit, type Actor } from './audit';
 
 /** A benchmark with its scope, rules and thresholds parsed (defaults filled). */
-export type BenchmarkRecord = Omit<Benchmark, 'scope' | 'rules' | 'alertThresholds'> & BenchmarkDefinition;
+export type BenchmarkRecord = Omit<Benchmark, 'scope' | 'rules' | 'alertThresholds'> &
+  Omit<BenchmarkDefinition, 'alertThresholds'> & { alertThresholds: ResolvedAlertThresholds; storedAlertThresholds: BenchmarkDefinition['alertThresholds'] };
 
 function parseRow(row: Benchmark): BenchmarkRecord {
   return {
@@ -36,7 +40,8 @@ function parseRow(row: Benchmark): BenchmarkRecord {
     purpose: row.purpose ?? undefined,
     scope: readScope(row.scope),
     rules: readRules(row.rules),
-    alertThresholds: readAlertThresholds(row.alertThresholds),
+    alertThresholds: readAlertThresholds(row.alertThresholds, row.quantity as BenchmarkQuantity),
+    storedAlertThresholds: alertThresholdsSchema.parse(row.alertThresholds ?? {}),
   } as BenchmarkRecord;
 }
 
@@ -132,7 +137,7 @@ export async function updateBenchmark(workspaceId: string, actor: Actor, benchma
       action: 'update',
       entityType: 'benchmark',
       entityId: benchmarkId,
-      before: { name: before.name, purpose: before.purpose, scope: before.scope, rules: before.rules, alertThresholds: before.alertThresholds },
+      before: { name: before.name, purpose: before.purpose, scope: before.scope, rules: before.rules, alertThresholds: before.storedAlertThresholds },
       after: def,
     });
   });

@@ -6,6 +6,7 @@ import { createDb, db, getClient } from '@/db/client';
 import { apiToken, calculation, importBatch, material, measurement, method, source, user } from '@/db/schema';
 import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
+import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
 import type { ImportableKind } from '@/lib/import/columns';
 import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from '@/lib/import/errors';
 import type { ImportTable } from '@/lib/import/table';
@@ -47,14 +48,15 @@ export const INSERT_CHUNK_ROWS = 500;
 export async function loadImportReferences(workspaceId: string): Promise<ImportReferences> {
   const [materials, sources, methods] = await Promise.all([
     db
-      .select({ id: material.id, name: material.name, atoms: material.atomsPerFormulaUnit })
+      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
     db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
     db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), isNull(method.retractedAt))),
   ]);
   return {
-    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atoms }])),
+    // Values per formula unit are per the reduced formula's unit (GaN, not Ga2N2).
+    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: atomsPerReducedFormulaUnit(m.reducedFormula) }])),
     sources: new Map(sources.map((s) => [s.key, s.id])),
     methods: new Map(methods.map((m) => [m.label, m.id])),
   };
