@@ -280,7 +280,7 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
     calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
   }
 
-  const [measurements, calculations, materials, tags, methods, pins, decisions, settings] = await Promise.all([
+  const [measurements, calculations, materials, tags, methods, pins, decisions, settings, dielectricRows] = await Promise.all([
     db
       .select({
         id: measurement.id,
@@ -317,14 +317,17 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
       .values()
       .then((rows) => rows.map(calculationFromRow)),
     db
-      .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell })
+      .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell, spaceGroup: material.spaceGroup })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scopedMaterials))),
     db
       .select({ materialId: materialTag.materialId, tag: materialTag.tag })
       .from(materialTag)
       .where(and(eq(materialTag.workspaceId, workspaceId), inArray(materialTag.materialId, scopedMaterials))),
-    db.select({ id: method.id, label: method.label, kGrid: method.kGrid, qGrid: method.qGrid }).from(method).where(methodWhere),
+    db
+      .select({ id: method.id, label: method.label, kGrid: method.kGrid, qGrid: method.qGrid, nonAnalyticCorrection: method.nonAnalyticCorrection })
+      .from(method)
+      .where(methodWhere),
     db
       .select({ id: pairPin.id, methodId: pairPin.methodId, measurementId: pairPin.measurementId, calculationId: pairPin.calculationId, reason: pairPin.reason })
       .from(pairPin)
@@ -348,11 +351,35 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         ),
       ),
     db.select().from(workspaceSettings).where(eq(workspaceSettings.workspaceId, workspaceId)).limit(1),
+    // Dielectric constants and Born charges, where stored, for the LST and neutrality checks.
+    scope.quantity === 'frequency'
+      ? db
+          .select({ materialId: calculation.materialId, methodId: calculation.methodId, quantity: calculation.quantity, value: calculation.value, modeIndex: calculation.modeIndex, id: calculation.id })
+          .from(calculation)
+          .where(
+            and(
+              eq(calculation.workspaceId, workspaceId),
+              isNull(calculation.retractedAt),
+              inArray(calculation.quantity, ['eps-inf', 'eps-static', 'born-charge']),
+              inArray(calculation.methodId, methodIds),
+              inArray(calculation.materialId, scopedMaterials),
+            ),
+          )
+      : Promise.resolve([]),
   ]);
 
   const tagsByMaterial = new Map<string, string[]>();
   for (const t of tags) (tagsByMaterial.get(t.materialId) ?? tagsByMaterial.set(t.materialId, []).get(t.materialId)!).push(t.tag);
   const s = settings[0];
+  const dielectric = new Map<string, NonNullable<BenchmarkInput['dielectric']>[number] & { born: Array<{ index: number; id: string; z: number }> }>();
+  for (const r of dielectricRows) {
+    const key = `${r.materialId}|${r.methodId}`;
+    let d = dielectric.get(key);
+    if (!d) dielectric.set(key, (d = { materialId: r.materialId, methodId: r.methodId, epsInf: null, eps0: null, bornCharges: [], born: [] }));
+    if (r.quantity === 'eps-inf') d.epsInf = r.value;
+    else if (r.quantity === 'eps-static') d.eps0 = r.value;
+    else d.born.push({ index: r.modeIndex ?? 0, id: r.id, z: r.value });
+  }
   return {
     quantity: scope.quantity,
     rules,
@@ -372,6 +399,10 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         }
       : undefined,
     entropyWindow: scope.quantity === 'entropy' ? { temperatureK: scope.entropyTemperatureK, toleranceK: scope.entropyToleranceK } : undefined,
+    dielectric: [...dielectric.values()].map(({ born, ...d }) => ({
+      ...d,
+      bornCharges: born.sort((a, b) => a.index - b.index || (a.id < b.id ? -1 : 1)).map((b) => b.z),
+    })),
   };
 }
 

@@ -42,7 +42,7 @@ async function prepare(w: ActiveWatch, target: AlertRevision): Promise<Prepared 
   if (w.lastAnnouncedRevisionId === target.id) return null;
   const baseline = w.lastAnnouncedRevisionId ? await revisionSnapshot(w.workspaceId, w.lastAnnouncedRevisionId) : null;
   if (baseline && baseline.number >= target.number) return null;
-  const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds), readWatchThresholds(w.thresholds));
+  const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds, target.statistics.quantity), readWatchThresholds(w.thresholds));
   const summary = summarizeShift(baseline?.statistics ?? null, target.statistics, thresholds);
   if (!summary.shifted) return null;
   const steps = await revisionSteps(w.workspaceId, w.benchmarkId, baseline?.number ?? 0, target.number);
@@ -141,7 +141,7 @@ export async function sendDueDigests(now: Date = new Date()): Promise<{ digests:
       if (!target) continue;
       const ready = await prepare(w, target);
       if (!ready) continue;
-      const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds), readWatchThresholds(w.thresholds));
+      const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds, target.statistics.quantity), readWatchThresholds(w.thresholds));
       const mail = digestMail({
         ...ready.content,
         dedupeKey: digestDedupeKey(w.id, day),
