@@ -76,7 +76,7 @@ describe('alerts after new revisions', () => {
     expect(row).toContain(`+${change.toFixed(2)} cm⁻¹ (+${((change / first.mae) * 100).toFixed(1)} %)`);
     expect(row).toContain(`${first.n} → ${last.n}`);
     // the quiet import of mode 13 did not move the baseline, so it counts in this alert
-    for (const i of [13, 14, 15, 16]) expect(mail.textBody).toContain(`raman-mode-${i}.csv — contributor (1 row in scope)`);
+    for (const i of [13, 14, 15, 16]) expect(mail.textBody).toContain(`Import “raman-mode-${i}.csv” by contributor: 1 row entered the scope`);
     expect(mail.textBody).toContain('New outliers:');
     expect(mail.textBody).toContain(`/w/${s.ws.slug}/benchmarks/${s.benchmarkId}/revisions/5`);
     expect(mail.htmlBody).toContain('Oxides &lt;Raman&gt; &amp; IR');
