@@ -170,8 +170,18 @@ export async function listBenchmarks(workspaceId: string) {
   return rows.map((b) => {
     const r = byBenchmark.get(b.id);
     const methods = r?.methods
-      ? (JSON.parse(r.methods) as Array<{ label: string; n: number; rank: number | null; outliers: number; qualityFlags: number; statistics: { meanAbsoluteError: number } | null }>)
+      ? (JSON.parse(r.methods) as Array<{
+          label: string;
+          n: number;
+          rank: number | null;
+          outliers: number;
+          qualityFlags: number;
+          statistics: { meanAbsoluteError: number } | null;
+          coverage?: number | null;
+          common?: { n: number; meanAbsoluteError: number } | null;
+        }>)
       : [];
+    // The headline follows the ranking rule: the rank-1 method on the common pairs (older revisions: its own MAE).
     const best = methods.find((m) => m.rank === 1);
     return {
       ...b,
@@ -181,7 +191,16 @@ export async function listBenchmarks(workspaceId: string) {
       pairCount: methods.reduce((s, m) => s + m.n, 0),
       outlierCount: methods.reduce((s, m) => s + (m.outliers ?? 0), 0),
       qualityFlagCount: methods.reduce((s, m) => s + (m.qualityFlags ?? 0), 0),
-      best: best ? { label: best.label, mae: best.statistics!.meanAbsoluteError, n: best.n } : null,
+      best: best
+        ? {
+            label: best.label,
+            mae: best.common?.meanAbsoluteError ?? best.statistics!.meanAbsoluteError,
+            n: best.common?.n ?? best.n,
+            common: best.common != null,
+            coverage: best.coverage ?? null,
+            ranked: methods.filter((m) => m.rank !== null).length,
+          }
+        : null,
     };
   });
 }
