@@ -9,24 +9,15 @@ import { db } from '@/db/client';
 import { measurement } from '@/db/schema';
 import { createDecision } from '@/db/queries/decisions';
 import { recomputeBenchmark } from '@/db/queries/revisions';
-import { watchAction } from '@/app/(app)/w/[workspace]/watches/actions';
 import { whenAlertsIdle } from '@/lib/alerts/scheduler';
-import { startFakeResend, type FakeResend } from '@/lib/mail/fake-resend-server';
-import { callAction } from '@/tests/support/actions';
-import { signInAs } from '@/tests/support/users';
-import { alertScenario, outboxTo } from './alerts-support';
+import type { FakeResend } from '@/lib/mail/fake-resend-server';
+import { alertScenario, alertSetup, outboxTo } from './alerts-support';
 
 let s: Awaited<ReturnType<typeof alertScenario>>;
 let fake: FakeResend;
 
 beforeAll(async () => {
-  process.env.ALERT_DEBOUNCE_MS = '200';
-  fake = await startFakeResend();
-  process.env.RESEND_BASE_URL = fake.url;
-  s = await alertScenario();
-  await whenAlertsIdle();
-  await signInAs(s.ws.members.curator.email);
-  expect((await callAction(watchAction, { workspaceId: s.workspaceId, benchmarkId: s.benchmarkId })).state).toMatchObject({ ok: true });
+  ({ s, fake } = await alertSetup(['curator']));
 });
 afterAll(async () => {
   await fake.close();
