@@ -49,7 +49,7 @@ export function alertLinks(c: Pick<AlertContent, 'baseUrl' | 'workspace' | 'benc
   const token = encodeURIComponent(c.unsubscribeToken);
   return {
     revision: `${benchmark}/revisions/${c.toRevision.number}`,
-    history: benchmark,
+    history: `${benchmark}#revision-history`,
     watches: `${base}/w/${encodeURIComponent(c.workspace.slug)}/watches`,
     unsubscribePage: `${base}/unsubscribe?token=${token}`,
     oneClick: `${base}/api/unsubscribe?token=${token}`,

@@ -83,7 +83,7 @@ describe('cause attribution', () => {
     };
     const mail = alertMail(content);
     expect(mail.textBody).toContain('…and 2,699 more: 2,699 imports');
-    expect(mail.textBody).toContain('The revision history lists them all: https://ledger.example.org/w/halden/benchmarks/bm-1');
+    expect(mail.textBody).toContain('The revision history lists them all: https://ledger.example.org/w/halden/benchmarks/bm-1#revision-history');
     // Before, the alert listed every import (345 KB for 2,705); now it stays small.
     expect(mail.textBody.length + mail.htmlBody.length).toBeLessThan(12_000);
   });

@@ -370,9 +370,11 @@ export async function BenchmarkView({
         </Panel>
       </div>
 
-      <Panel title="Revision history">
-        <RevisionHistory history={history} base={base} current={rev.number} imports={importMap} decisions={decisionMap} />
-      </Panel>
+      <div id="revision-history">
+        <Panel title="Revision history">
+          <RevisionHistory history={history} base={base} current={rev.number} imports={importMap} decisions={decisionMap} />
+        </Panel>
+      </div>
 
       <Panel title="Cite and download">
         <div className="space-y-3 text-sm">
