@@ -56,7 +56,10 @@ describe('partial mode lists keep their lowest optical lines', () => {
 describe('LO peaks and calculations without the non-analytic correction', () => {
   // GaAs TO 273.3, LO 297.3 cm⁻¹: Hass & Henvis, J. Phys. Chem. Solids (1962), IR reflection at liquid-helium temperature.
   const lo = { id: 'lo', frequencyCm1: 297.3, technique: 'raman' as const, branch: 'LO' as const };
-  const computedTO: ComputedMode[] = [{ id: 'to', frequencyCm1: 265, irrep: 'T2', degeneracy: 3 }];
+  const computedTO: ComputedMode[] = [
+    { id: 'acoustic', frequencyCm1: 0.2, acoustic: true, degeneracy: 3 },
+    { id: 'to', frequencyCm1: 265, irrep: 'T2', degeneracy: 3 },
+  ];
 
   it('without the correction an LO peak never pairs with an unbranched line (a TO line)', () => {
     const result = pairModes([lo], computedTO, { nonAnalyticCorrection: false });
