@@ -19,7 +19,16 @@ import { DosImport } from './dos-import';
 import { usePreviewWorker } from './use-preview-worker';
 import { UploadRefused, uploadImport, type UploadState } from './upload-import';
 
-type Outcome = { importId: string; rowCount: number; insertedCount: number; duplicateCount: number; duplicates: Array<{ row: number; reason: string }> };
+type Outcome = {
+  importId: string;
+  rowCount: number;
+  insertedCount: number;
+  duplicateCount: number;
+  duplicates: Array<{ row: number; reason: string }>;
+  warnings?: ModeSetWarning[];
+  warningCount?: number;
+};
+type ModeSetWarning = { row: number; message: string };
 type CommitState = UploadState<Outcome>;
 
 type WizardKind = ImportableKind | 'dos';
@@ -160,6 +169,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                   <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{result.errorCount.toLocaleString('en')} errors</span>
                 </p>
                 {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
+                <ModeSetWarnings warnings={result.warnings ?? []} count={result.warningCount ?? 0} />
                 <PreviewTable headers={result.headers} rows={result.preview} />
                 <div className="flex items-center gap-3">
                   <Button type="button" onClick={send} disabled={!canCommit} aria-disabled={!canCommit}>
@@ -209,15 +219,38 @@ function PreviewTable({ headers, rows }: { headers: string[]; rows: Array<{ row:
   );
 }
 
+/** Warnings about the mode sets of a calculation import: imported all the same. */
+function ModeSetWarnings({ warnings, count }: { warnings: ModeSetWarning[]; count: number }) {
+  if (warnings.length === 0) return null;
+  return (
+    <div role="note" aria-label="Mode-set warnings" data-testid="mode-set-warnings" className="rounded-md border border-rule bg-panel px-3 py-2 text-xs">
+      <p className="mb-1 font-medium">
+        {count.toLocaleString('en')} mode set{count === 1 ? '' : 's'} to check (imported all the same)
+      </p>
+      <ul className="list-disc space-y-1 pl-4">
+        {warnings.map((w) => (
+          <li key={`${w.row}-${w.message}`}>
+            Row {w.row}: {w.message}
+          </li>
+        ))}
+      </ul>
+      {count > warnings.length && <p className="mt-1 text-ink-muted">…and {(count - warnings.length).toLocaleString('en')} more.</p>}
+    </div>
+  );
+}
+
 function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
   if (state.status === 'done') {
     const o = state.outcome;
     return (
-      <Notice tone="good">
-        Imported {o.insertedCount.toLocaleString('en')} of {o.rowCount.toLocaleString('en')} rows
-        {o.duplicateCount > 0 && <> ({o.duplicateCount.toLocaleString('en')} identical to existing rows, skipped)</>}.{' '}
-        <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link>
-      </Notice>
+      <>
+        <Notice tone="good">
+          Imported {o.insertedCount.toLocaleString('en')} of {o.rowCount.toLocaleString('en')} rows
+          {o.duplicateCount > 0 && <> ({o.duplicateCount.toLocaleString('en')} identical to existing rows, skipped)</>}.{' '}
+          <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link>
+        </Notice>
+        <ModeSetWarnings warnings={o.warnings ?? []} count={o.warningCount ?? 0} />
+      </>
     );
   }
   if (state.status === 'refused') return <UploadRefused state={state} slug={slug} />;

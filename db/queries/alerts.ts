@@ -1,7 +1,9 @@
 import 'server-only';
-import { and, asc, desc, eq, gt, isNull, like, lt, lte, or, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, gte, inArray, isNull, like, lt, lte, or, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/sqlite-core';
+import type { CauseLookups } from '@/lib/alerts/causes';
 import { db } from '@/db/client';
-import { mailOutbox, revision, watch, type NewMail } from '@/db/schema';
+import { auditLog, decision, importBatch, mailOutbox, method, pairPin, revision, user, watch, type NewMail } from '@/db/schema';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 import type { RevisionCause } from './revisions';
 import { enqueueMail } from './mail';
@@ -149,4 +151,75 @@ export async function listAlertLog(workspaceId: string, watchId: string, limit =
     )
     .orderBy(desc(mailOutbox.createdAt))
     .limit(limit);
+}
+
+const LOOKUP_CHUNK = 500;
+
+async function inChunks<T>(ids: readonly string[], read: (chunk: string[]) => Promise<T[]>): Promise<T[]> {
+  const out: T[] = [];
+  const unique = [...new Set(ids)];
+  for (let i = 0; i < unique.length; i += LOOKUP_CHUNK) out.push(...(await read(unique.slice(i, i + LOOKUP_CHUNK))));
+  return out;
+}
+
+/**
+ * Names for the causes of an alert (this workspace only): imports, decisions, pins and
+ * users by id, and the edits of the benchmark's alert thresholds between two instants.
+ */
+export async function causeLookups(
+  workspaceId: string,
+  benchmarkId: string,
+  ids: { imports: string[]; decisions: string[]; pins: string[]; users: string[] },
+  between: { from: Date | null; to: Date },
+): Promise<CauseLookups> {
+  const reverter = alias(user, 'reverter');
+  const [imports, decisions, pins, users, edits] = await Promise.all([
+    inChunks(ids.imports, (chunk) =>
+      db
+        .select({ id: importBatch.id, fileName: importBatch.fileName, by: user.name })
+        .from(importBatch)
+        .leftJoin(user, eq(importBatch.createdBy, user.id))
+        .where(and(eq(importBatch.workspaceId, workspaceId), inArray(importBatch.id, chunk))),
+    ),
+    inChunks(ids.decisions, (chunk) =>
+      db
+        .select({ id: decision.id, kind: decision.kind, reason: decision.reason, by: user.name, method: method.label, revertedBy: reverter.name, revertReason: decision.revertReason })
+        .from(decision)
+        .leftJoin(user, eq(decision.createdBy, user.id))
+        .leftJoin(reverter, eq(decision.revertedBy, reverter.id))
+        .leftJoin(method, eq(decision.methodId, method.id))
+        .where(and(eq(decision.workspaceId, workspaceId), inArray(decision.id, chunk))),
+    ),
+    inChunks(ids.pins, (chunk) =>
+      db
+        .select({ id: pairPin.id, reason: pairPin.reason, by: user.name, method: method.label, calculationId: pairPin.calculationId })
+        .from(pairPin)
+        .leftJoin(user, eq(pairPin.createdBy, user.id))
+        .leftJoin(method, eq(pairPin.methodId, method.id))
+        .where(and(eq(pairPin.workspaceId, workspaceId), inArray(pairPin.id, chunk))),
+    ),
+    inChunks(ids.users, (chunk) => db.select({ id: user.id, name: user.name }).from(user).where(inArray(user.id, chunk))),
+    db
+      .select({ at: auditLog.createdAt, before: auditLog.before, after: auditLog.after, by: user.name })
+      .from(auditLog)
+      .leftJoin(user, eq(auditLog.actorUserId, user.id))
+      .where(
+        and(
+          eq(auditLog.workspaceId, workspaceId),
+          eq(auditLog.entityType, 'benchmark'),
+          eq(auditLog.entityId, benchmarkId),
+          eq(auditLog.action, 'update'),
+          between.from ? gte(auditLog.createdAt, between.from) : undefined,
+          lte(auditLog.createdAt, between.to),
+        ),
+      ),
+  ]);
+  const thresholds = (v: unknown) => JSON.stringify((v as { alertThresholds?: unknown } | null)?.alertThresholds ?? null);
+  return {
+    imports: new Map(imports.map((i) => [i.id, { fileName: i.fileName, by: i.by }])),
+    decisions: new Map(decisions.map((d) => [d.id, { kind: d.kind, reason: d.reason, by: d.by, method: d.method, revertedBy: d.revertedBy, revertReason: d.revertReason }])),
+    pins: new Map(pins.map((p) => [p.id, { reason: p.reason, by: p.by, method: p.method, noCounterpart: p.calculationId === null }])),
+    users: new Map(users.map((u) => [u.id, u.name])),
+    thresholdEdits: edits.filter((e) => thresholds(e.before) !== thresholds(e.after)).map((e) => ({ by: e.by, at: e.at })),
+  };
 }

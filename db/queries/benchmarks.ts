@@ -16,6 +16,7 @@ import {
 } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import {
+  alertThresholdsSchema,
   benchmarkDefinitionSchema,
   readAlertThresholds,
   readRules,
@@ -23,12 +24,15 @@ import {
   type BenchmarkDefinition,
   type BenchmarkDefinitionInput,
   type BenchmarkScope,
+  type BenchmarkQuantity,
+  type ResolvedAlertThresholds,
 } from '@/lib/benchmark/schemas';
 import type { BenchmarkInput, ScopeDecision } from '@/lib/benchmark/types';
 import { writeAudit, type Actor } from './audit';
 
 /** A benchmark with its scope, rules and thresholds parsed (defaults filled). */
-export type BenchmarkRecord = Omit<Benchmark, 'scope' | 'rules' | 'alertThresholds'> & BenchmarkDefinition;
+export type BenchmarkRecord = Omit<Benchmark, 'scope' | 'rules' | 'alertThresholds'> &
+  Omit<BenchmarkDefinition, 'alertThresholds'> & { alertThresholds: ResolvedAlertThresholds; storedAlertThresholds: BenchmarkDefinition['alertThresholds'] };
 
 function parseRow(row: Benchmark): BenchmarkRecord {
   return {
@@ -36,7 +40,8 @@ function parseRow(row: Benchmark): BenchmarkRecord {
     purpose: row.purpose ?? undefined,
     scope: readScope(row.scope),
     rules: readRules(row.rules),
-    alertThresholds: readAlertThresholds(row.alertThresholds),
+    alertThresholds: readAlertThresholds(row.alertThresholds, row.quantity as BenchmarkQuantity),
+    storedAlertThresholds: alertThresholdsSchema.parse(row.alertThresholds ?? {}),
   } as BenchmarkRecord;
 }
 
@@ -132,7 +137,7 @@ export async function updateBenchmark(workspaceId: string, actor: Actor, benchma
       action: 'update',
       entityType: 'benchmark',
       entityId: benchmarkId,
-      before: { name: before.name, purpose: before.purpose, scope: before.scope, rules: before.rules, alertThresholds: before.alertThresholds },
+      before: { name: before.name, purpose: before.purpose, scope: before.scope, rules: before.rules, alertThresholds: before.storedAlertThresholds },
       after: def,
     });
   });
@@ -165,8 +170,18 @@ export async function listBenchmarks(workspaceId: string) {
   return rows.map((b) => {
     const r = byBenchmark.get(b.id);
     const methods = r?.methods
-      ? (JSON.parse(r.methods) as Array<{ label: string; n: number; rank: number | null; outliers: number; qualityFlags: number; statistics: { meanAbsoluteError: number } | null }>)
+      ? (JSON.parse(r.methods) as Array<{
+          label: string;
+          n: number;
+          rank: number | null;
+          outliers: number;
+          qualityFlags: number;
+          statistics: { meanAbsoluteError: number } | null;
+          coverage?: number | null;
+          common?: { n: number; meanAbsoluteError: number } | null;
+        }>)
       : [];
+    // The headline follows the ranking rule: the rank-1 method on the common pairs (older revisions: its own MAE).
     const best = methods.find((m) => m.rank === 1);
     return {
       ...b,
@@ -176,7 +191,16 @@ export async function listBenchmarks(workspaceId: string) {
       pairCount: methods.reduce((s, m) => s + m.n, 0),
       outlierCount: methods.reduce((s, m) => s + (m.outliers ?? 0), 0),
       qualityFlagCount: methods.reduce((s, m) => s + (m.qualityFlags ?? 0), 0),
-      best: best ? { label: best.label, mae: best.statistics!.meanAbsoluteError, n: best.n } : null,
+      best: best
+        ? {
+            label: best.label,
+            mae: best.common?.meanAbsoluteError ?? best.statistics!.meanAbsoluteError,
+            n: best.common?.n ?? best.n,
+            common: best.common != null,
+            coverage: best.coverage ?? null,
+            ranked: methods.filter((m) => m.rank !== null).length,
+          }
+        : null,
     };
   });
 }
@@ -275,7 +299,7 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
     calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
   }
 
-  const [measurements, calculations, materials, tags, methods, pins, decisions, settings] = await Promise.all([
+  const [measurements, calculations, materials, tags, methods, pins, decisions, settings, dielectricRows] = await Promise.all([
     db
       .select({
         id: measurement.id,
@@ -312,14 +336,17 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
       .values()
       .then((rows) => rows.map(calculationFromRow)),
     db
-      .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell })
+      .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell, spaceGroup: material.spaceGroup })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scopedMaterials))),
     db
       .select({ materialId: materialTag.materialId, tag: materialTag.tag })
       .from(materialTag)
       .where(and(eq(materialTag.workspaceId, workspaceId), inArray(materialTag.materialId, scopedMaterials))),
-    db.select({ id: method.id, label: method.label, kGrid: method.kGrid, qGrid: method.qGrid }).from(method).where(methodWhere),
+    db
+      .select({ id: method.id, label: method.label, kGrid: method.kGrid, qGrid: method.qGrid, nonAnalyticCorrection: method.nonAnalyticCorrection })
+      .from(method)
+      .where(methodWhere),
     db
       .select({ id: pairPin.id, methodId: pairPin.methodId, measurementId: pairPin.measurementId, calculationId: pairPin.calculationId, reason: pairPin.reason })
       .from(pairPin)
@@ -343,11 +370,35 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         ),
       ),
     db.select().from(workspaceSettings).where(eq(workspaceSettings.workspaceId, workspaceId)).limit(1),
+    // Dielectric constants and Born charges, where stored, for the LST and neutrality checks.
+    scope.quantity === 'frequency'
+      ? db
+          .select({ materialId: calculation.materialId, methodId: calculation.methodId, quantity: calculation.quantity, value: calculation.value, modeIndex: calculation.modeIndex, id: calculation.id })
+          .from(calculation)
+          .where(
+            and(
+              eq(calculation.workspaceId, workspaceId),
+              isNull(calculation.retractedAt),
+              inArray(calculation.quantity, ['eps-inf', 'eps-static', 'born-charge']),
+              inArray(calculation.methodId, methodIds),
+              inArray(calculation.materialId, scopedMaterials),
+            ),
+          )
+      : Promise.resolve([]),
   ]);
 
   const tagsByMaterial = new Map<string, string[]>();
   for (const t of tags) (tagsByMaterial.get(t.materialId) ?? tagsByMaterial.set(t.materialId, []).get(t.materialId)!).push(t.tag);
   const s = settings[0];
+  const dielectric = new Map<string, NonNullable<BenchmarkInput['dielectric']>[number] & { born: Array<{ index: number; id: string; z: number }> }>();
+  for (const r of dielectricRows) {
+    const key = `${r.materialId}|${r.methodId}`;
+    let d = dielectric.get(key);
+    if (!d) dielectric.set(key, (d = { materialId: r.materialId, methodId: r.methodId, epsInf: null, eps0: null, bornCharges: [], born: [] }));
+    if (r.quantity === 'eps-inf') d.epsInf = r.value;
+    else if (r.quantity === 'eps-static') d.eps0 = r.value;
+    else d.born.push({ index: r.modeIndex ?? 0, id: r.id, z: r.value });
+  }
   return {
     quantity: scope.quantity,
     rules,
@@ -367,6 +418,10 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         }
       : undefined,
     entropyWindow: scope.quantity === 'entropy' ? { temperatureK: scope.entropyTemperatureK, toleranceK: scope.entropyToleranceK } : undefined,
+    dielectric: [...dielectric.values()].map(({ born, ...d }) => ({
+      ...d,
+      bornCharges: born.sort((a, b) => a.index - b.index || (a.id < b.id ? -1 : 1)).map((b) => b.z),
+    })),
   };
 }
 

@@ -6,6 +6,7 @@ import { calculation, importBatch, material, method, source } from '@/db/schema'
 import { writeAudit } from '@/db/queries/audit';
 import { findImportBySha, INSERT_CHUNK_ROWS, type DuplicateRow, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
 import { AppError } from '@/lib/errors';
+import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
 import { computeAllDosValues, resolveDosBlocks, type ComputedDosValue, type DosReferences } from '@/lib/import/dos-compute';
 import type { DosParseResult } from '@/lib/import/dos-parse';
 import { ImportRefusal, MAX_REPORTED_ERRORS } from '@/lib/import/errors';
@@ -14,14 +15,15 @@ import { ImportRefusal, MAX_REPORTED_ERRORS } from '@/lib/import/errors';
 export async function loadDosReferences(workspaceId: string): Promise<DosReferences> {
   const [materials, sources, methods] = await Promise.all([
     db
-      .select({ id: material.id, name: material.name, atomsPerFormulaUnit: material.atomsPerFormulaUnit, atomsInCell: material.atomsInCell })
+      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsInCell: material.atomsInCell })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
     db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
     db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), isNull(method.retractedAt))),
   ]);
   return {
-    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: m.atomsInCell }])),
+    // Per formula unit = per the reduced formula's unit (GaN, not Ga2N2).
+    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: atomsPerReducedFormulaUnit(m.reducedFormula), atomsInCell: m.atomsInCell }])),
     sources: new Map(sources.map((s) => [s.key, s.id])),
     methods: new Map(methods.map((m) => [m.label, m.id])),
   };

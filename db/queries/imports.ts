@@ -6,11 +6,13 @@ import { createDb, db, getClient } from '@/db/client';
 import { apiToken, calculation, importBatch, material, measurement, method, source, user } from '@/db/schema';
 import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
+import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
 import type { ImportableKind } from '@/lib/import/columns';
 import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from '@/lib/import/errors';
+import { ModeSetTally, type ImportWarning } from '@/lib/import/mode-set-warnings';
 import type { ImportTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
-import { validateRow, type ImportReferences, type ValidRow } from '@/lib/import/validate-row';
+import { modeSetFacts, validateRow, type ImportReferences, type ValidRow } from '@/lib/import/validate-row';
 
 /** Who commits an import: a member through the wizard, or a pipeline through an API token. */
 export interface ImportActor {
@@ -38,6 +40,9 @@ export interface ImportOutcome {
   duplicateCount: number;
   /** Rows skipped because an identical row exists (first MAX_REPORTED_ERRORS). */
   duplicates: DuplicateRow[];
+  /** Calculation imports: incomplete mode sets and sets without acoustic marks; imported all the same. */
+  warnings?: ImportWarning[];
+  warningCount?: number;
 }
 
 /** Rows per multi-row INSERT (26 columns × 500 stays far below SQLite's variable limit). */
@@ -47,14 +52,15 @@ export const INSERT_CHUNK_ROWS = 500;
 export async function loadImportReferences(workspaceId: string): Promise<ImportReferences> {
   const [materials, sources, methods] = await Promise.all([
     db
-      .select({ id: material.id, name: material.name, atoms: material.atomsPerFormulaUnit })
+      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsInCell: material.atomsInCell })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
     db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
     db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), isNull(method.retractedAt))),
   ]);
   return {
-    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atoms }])),
+    // Values per formula unit are per the reduced formula's unit (GaN, not Ga2N2).
+    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: atomsPerReducedFormulaUnit(m.reducedFormula), atomsInCell: m.atomsInCell }])),
     sources: new Map(sources.map((s) => [s.key, s.id])),
     methods: new Map(methods.map((m) => [m.label, m.id])),
   };
@@ -193,6 +199,7 @@ export async function commitImport(args: {
   let rowCount = 0;
   let insertedCount = 0;
   let pending: PendingRow[] = [];
+  const tally = new ModeSetTally();
 
   const flush = async () => {
     if (pending.length === 0) return;
@@ -265,6 +272,7 @@ export async function commitImport(args: {
           continue;
         }
         if (errorCount > 0) continue;
+        tally.add(r.row, valid);
         const hash = hashOf(valid.identity);
         if (seenInChunk.has(hash)) {
           duplicateCount++;
@@ -304,7 +312,8 @@ export async function commitImport(args: {
   } finally {
     raw.close();
   }
-  return { importId, rowCount, insertedCount, duplicateCount, duplicates };
+  const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
+  return { importId, rowCount, insertedCount, duplicateCount, duplicates, warnings, warningCount };
 }
 
 /**

@@ -25,6 +25,8 @@ export interface AlertContent {
   summary: ShiftSummary;
   materialNames: Record<string, string>;
   imports: AlertImport[];
+  /** Every cause between the two revisions, in words with its share (causes.ts); replaces `imports` when given. */
+  causes?: { lines: string[]; rest: string | null };
   unsubscribeToken: string;
   dedupeKey: string;
 }
@@ -47,7 +49,7 @@ export function alertLinks(c: Pick<AlertContent, 'baseUrl' | 'workspace' | 'benc
   const token = encodeURIComponent(c.unsubscribeToken);
   return {
     revision: `${benchmark}/revisions/${c.toRevision.number}`,
-    history: benchmark,
+    history: `${benchmark}#revision-history`,
     watches: `${base}/w/${encodeURIComponent(c.workspace.slug)}/watches`,
     unsubscribePage: `${base}/unsubscribe?token=${token}`,
     oneClick: `${base}/api/unsubscribe?token=${token}`,
@@ -104,10 +106,29 @@ function importLines(c: AlertContent): string[] {
   return c.imports.map((i) => `${i.fileName ?? 'an import without a file name'} — ${i.by ?? 'unknown'} (${i.rows} row${i.rows === 1 ? '' : 's'} in scope)`);
 }
 
+function causeSection(c: AlertContent, historyUrl: string): { text: string[]; html: string } {
+  const a = (label: string, url: string) => `<a href="${escapeHtml(url)}">${escapeHtml(label)}</a>`;
+  if (c.causes) {
+    const head = c.fromRevision === null ? 'What changed' : `What changed since revision ${c.fromRevision}`;
+    const rest = c.causes.rest ? [`${c.causes.rest} The revision history lists them all: ${historyUrl}`] : [];
+    return {
+      text: [`${head}:`, [...c.causes.lines, ...rest].map((l) => `- ${l}`).join('\n')],
+      html: `<h2 style="font-size:14px">${escapeHtml(head)}</h2><ul>${c.causes.lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}${
+        c.causes.rest ? `<li>${escapeHtml(c.causes.rest)} ${a('The revision history lists them all', historyUrl)}.</li>` : ''
+      }</ul>`,
+    };
+  }
+  const imports = importLines(c);
+  const none = 'No import caused it: a decision, a pin or a change of the benchmark did.';
+  return imports.length
+    ? { text: ['Caused by these imports:', imports.map((l) => `- ${l}`).join('\n')], html: `<h2 style="font-size:14px">Caused by these imports</h2><ul>${imports.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>` }
+    : { text: [none], html: `<p style="margin:0 0 12px">${escapeHtml(none)}</p>` };
+}
+
 function render(c: AlertContent, title: string, intro: string, extra: { text: string[]; html: string }): { text: string; html: string } {
   const links = alertLinks(c);
   const outliers = outlierLines(c, links.revision);
-  const imports = importLines(c);
+  const causes = causeSection(c, links.history);
   const p = (s: string) => `<p style="margin:0 0 12px">${escapeHtml(s)}</p>`;
   const a = (label: string, url: string) => `<a href="${escapeHtml(url)}">${escapeHtml(label)}</a>`;
 
@@ -116,7 +137,7 @@ function render(c: AlertContent, title: string, intro: string, extra: { text: st
     intro,
     textTable(c.summary),
     ...(outliers.length ? ['New outliers:', outliers.map((o) => `- ${o.text}\n  ${o.url}`).join('\n')] : []),
-    ...(imports.length ? ['Caused by these imports:', imports.map((l) => `- ${l}`).join('\n')] : ['No import caused it: a decision, a pin or a change of the benchmark did.']),
+    ...causes.text,
     ...extra.text,
     `Revision ${c.toRevision.number}: ${links.revision}`,
     `Benchmark and revision history: ${links.history}`,
@@ -127,11 +148,7 @@ function render(c: AlertContent, title: string, intro: string, extra: { text: st
 
   const html = `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1a1a1a;max-width:720px;margin:24px auto;padding:0 16px"><h1 style="font-size:18px">${escapeHtml(title)}</h1>${p(`Hello ${c.recipientName},`)}${p(intro)}${htmlTable(c.summary)}${
     outliers.length ? `<h2 style="font-size:14px">New outliers</h2><ul>${outliers.map((o) => `<li>${a(o.text, o.url)}</li>`).join('')}</ul>` : ''
-  }${
-    imports.length
-      ? `<h2 style="font-size:14px">Caused by these imports</h2><ul>${imports.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`
-      : p('No import caused it: a decision, a pin or a change of the benchmark did.')
-  }${extra.html}<p style="margin:16px 0">${a(`Open revision ${c.toRevision.number}`, links.revision)} · ${a('Benchmark and revision history', links.history)} · ${a('Your watches and thresholds', links.watches)}</p><hr style="border:none;border-top:1px solid #ddd;margin:24px 0"><p style="font-size:12px;color:#666">You get this because you watch “${escapeHtml(c.benchmark.name)}” in ${escapeHtml(c.workspace.name)}. ${a('Unsubscribe', links.unsubscribePage)} (one click, no sign-in).</p><p style="font-size:12px;color:#666">Lattice Ledger</p></body></html>`;
+  }${causes.html}${extra.html}<p style="margin:16px 0">${a(`Open revision ${c.toRevision.number}`, links.revision)} · ${a('Benchmark and revision history', links.history)} · ${a('Your watches and thresholds', links.watches)}</p><hr style="border:none;border-top:1px solid #ddd;margin:24px 0"><p style="font-size:12px;color:#666">You get this because you watch “${escapeHtml(c.benchmark.name)}” in ${escapeHtml(c.workspace.name)}. ${a('Unsubscribe', links.unsubscribePage)} (one click, no sign-in).</p><p style="font-size:12px;color:#666">Lattice Ledger</p></body></html>`;
   return { text, html };
 }
 

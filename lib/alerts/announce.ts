@@ -2,9 +2,10 @@ import 'server-only';
 import { readAlertThresholds } from '@/lib/benchmark/schemas';
 import { env } from '@/lib/env';
 import { detectShift } from '@/lib/science';
-import { importsByIds, materialNames } from '@/db/queries/revisions';
+import { materialNames } from '@/db/queries/revisions';
 import {
   alertDedupeKey,
+  causeLookups,
   digestDedupeKey,
   latestRevisionSnapshot,
   recordAlert,
@@ -14,19 +15,30 @@ import {
   type RevisionStep,
 } from '@/db/queries/alerts';
 import { activeDigestWatches, activeWatchesOf, type ActiveWatch } from '@/db/queries/watches';
-import { alertMail, digestMail, type AlertContent, type AlertImport } from './alert-mail';
+import { alertMail, digestMail, type AlertContent } from './alert-mail';
+import { attributeCauses, causeLine, summariseCauses } from './causes';
 import { describeReason, summarizeShift, type ShiftSummary } from './shift-summary';
 import { effectiveThresholds, readWatchThresholds } from './thresholds';
 import { signUnsubscribeToken } from './unsubscribe-token';
 
-/** Imports that brought rows into the scope between two revisions, with file name and who made them. */
-async function causingImports(workspaceId: string, steps: RevisionStep[]): Promise<AlertImport[]> {
-  const rows = new Map<string, number>();
-  for (const step of steps) for (const i of step.cause?.imports ?? []) rows.set(i.id, (rows.get(i.id) ?? 0) + i.rows);
-  const found = await importsByIds(workspaceId, [...rows.keys()]);
-  return found
-    .map((i) => ({ fileName: i.fileName, by: i.by, rows: rows.get(i.id) ?? 0 }))
-    .sort((a, b) => b.rows - a.rows || (a.fileName ?? '').localeCompare(b.fileName ?? ''));
+/** Every cause of the steps between the baseline and the target, in words with its share (causes.ts). */
+async function describeCauses(w: ActiveWatch, baseline: AlertRevision | null, target: AlertRevision, steps: RevisionStep[]) {
+  const ids = { imports: [] as string[], decisions: [] as string[], pins: [] as string[], users: [] as string[] };
+  for (const step of steps) {
+    const c = step.cause;
+    if (!c) continue;
+    ids.imports.push(...c.imports.map((i) => i.id));
+    ids.decisions.push(...c.decisions.added, ...c.decisions.reverted);
+    ids.pins.push(...c.pins.added, ...c.pins.revoked);
+    for (const r of c.reported) {
+      if (r.importId) ids.imports.push(r.importId);
+      if (r.userId) ids.users.push(r.userId);
+    }
+  }
+  const lookups = await causeLookups(w.workspaceId, w.benchmarkId, ids, { from: baseline?.createdAt ?? null, to: target.createdAt });
+  const { headline, causes } = attributeCauses(baseline?.statistics.methods ?? null, steps, lookups);
+  const { listed, rest } = summariseCauses(causes);
+  return { lines: listed.map((c) => causeLine(c, headline)), rest };
 }
 
 interface Prepared {
@@ -42,12 +54,12 @@ async function prepare(w: ActiveWatch, target: AlertRevision): Promise<Prepared 
   if (w.lastAnnouncedRevisionId === target.id) return null;
   const baseline = w.lastAnnouncedRevisionId ? await revisionSnapshot(w.workspaceId, w.lastAnnouncedRevisionId) : null;
   if (baseline && baseline.number >= target.number) return null;
-  const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds), readWatchThresholds(w.thresholds));
+  const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds, target.statistics.quantity), readWatchThresholds(w.thresholds));
   const summary = summarizeShift(baseline?.statistics ?? null, target.statistics, thresholds);
   if (!summary.shifted) return null;
   const steps = await revisionSteps(w.workspaceId, w.benchmarkId, baseline?.number ?? 0, target.number);
-  const [imports, names] = await Promise.all([
-    causingImports(w.workspaceId, steps),
+  const [causes, names] = await Promise.all([
+    describeCauses(w, baseline, target, steps),
     materialNames(
       w.workspaceId,
       summary.newOutliers.map((o) => o.materialId),
@@ -69,7 +81,8 @@ async function prepare(w: ActiveWatch, target: AlertRevision): Promise<Prepared 
       toRevision: { number: target.number, createdAt: target.createdAt },
       summary,
       materialNames: Object.fromEntries(names),
-      imports,
+      imports: [],
+      causes,
       unsubscribeToken: signUnsubscribeToken(w.id, e.BETTER_AUTH_SECRET),
     },
   };
@@ -141,7 +154,7 @@ export async function sendDueDigests(now: Date = new Date()): Promise<{ digests:
       if (!target) continue;
       const ready = await prepare(w, target);
       if (!ready) continue;
-      const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds), readWatchThresholds(w.thresholds));
+      const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds, target.statistics.quantity), readWatchThresholds(w.thresholds));
       const mail = digestMail({
         ...ready.content,
         dedupeKey: digestDedupeKey(w.id, day),

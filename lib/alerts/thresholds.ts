@@ -1,12 +1,14 @@
 /**
  * A watcher's own alert thresholds, merged over the benchmark's defaults.
- * Units are those of detectShift: cm⁻¹ (or the benchmark's unit) for maeCm1,
- * fractions (0.05 = 5 %) for the relative ones.
+ * Units are those of detectShift: the benchmark's unit (cm⁻¹ or J mol⁻¹ K⁻¹) for
+ * maeAbsolute (maeCm1 is its older name, still accepted), fractions (0.05 = 5 %) for
+ * the relative ones.
  */
 import { z } from 'zod';
 import type { ShiftThresholds } from '@/lib/science';
 
 export const watchThresholdsSchema = z.object({
+  maeAbsolute: z.number().positive().optional(),
   maeCm1: z.number().positive().optional(),
   maeRelative: z.number().positive().optional(),
   nRelative: z.number().positive().optional(),
@@ -20,10 +22,15 @@ export function readWatchThresholds(value: unknown): WatchThresholds {
   return parsed.success ? parsed.data : {};
 }
 
+export type EffectiveThresholds = Required<Pick<ShiftThresholds, 'maeAbsolute' | 'maeRelative' | 'nRelative'>>;
+
 /** The thresholds one watch uses: each override the watcher set, the benchmark's value otherwise. */
-export function effectiveThresholds(benchmark: Required<ShiftThresholds>, override: WatchThresholds): Required<ShiftThresholds> {
+export function effectiveThresholds(
+  benchmark: { maeAbsolute?: number; maeCm1?: number; maeRelative: number; nRelative: number },
+  override: WatchThresholds,
+): EffectiveThresholds {
   return {
-    maeCm1: override.maeCm1 ?? benchmark.maeCm1,
+    maeAbsolute: override.maeAbsolute ?? override.maeCm1 ?? benchmark.maeAbsolute ?? benchmark.maeCm1 ?? 0.5,
     maeRelative: override.maeRelative ?? benchmark.maeRelative,
     nRelative: override.nRelative ?? benchmark.nRelative,
   };
@@ -31,5 +38,5 @@ export function effectiveThresholds(benchmark: Required<ShiftThresholds>, overri
 
 /** True when the watch has at least one override. */
 export function hasOverride(override: WatchThresholds): boolean {
-  return override.maeCm1 !== undefined || override.maeRelative !== undefined || override.nRelative !== undefined;
+  return override.maeAbsolute !== undefined || override.maeCm1 !== undefined || override.maeRelative !== undefined || override.nRelative !== undefined;
 }

@@ -1,42 +1,75 @@
 /**
  * The benchmark computation: scope rows → pairs → decisions → statistics per
- * method, per material class and per frequency band → outlier flags → method
- * comparisons → quality checks. Pure and deterministic: pairs are sorted by key
- * before any statistic, so the order of the input rows never matters.
+ * method, per material class, frequency band, species, branch and technique, and
+ * per material → outlier flags → ranking on common ground → method comparisons →
+ * quality checks. Pure and deterministic: pairs are sorted by key before any
+ * statistic, so the order of the input rows never matters.
  *
  * Decisions: 'exclude-pair' (method + measurement) and 'exclude-measurement'
  * (every method) keep the pair in the list, marked excluded with the reason, and
- * out of every statistic; 'keep' records that a flag was reviewed. Outlier rules
- * run on the included pairs. Methods with fewer than MIN_PAIRS_FOR_STATISTICS
- * included pairs show N only. Breakdowns (class, band) skip the bootstrap.
+ * out of every statistic; 'keep' records that a flag was reviewed. Methods with
+ * fewer than MIN_PAIRS_FOR_STATISTICS included pairs show N only. Breakdowns skip
+ * the bootstrap.
+ *
+ * Intervals: the modes of one material share its errors, so every statistic is
+ * computed with the material as the cluster: the bootstrap resamples whole
+ * materials, and the out-of-sample RMSE after scaling leaves one material out.
+ *
+ * Outliers: the rule runs on a method's included pairs, the modified z and Tukey
+ * rules only from `outlierRule.minN` (default 10) pairs, on the scale of
+ * outlierScaleOf (relative for frequency benchmarks unless the rule says otherwise).
+ *
+ * Ranking: ranking.ts (coverage, the ranking rule, common pairs). The rank is the
+ * rank on the pairs every ranked method shares.
+ *
+ * Entropy basis (`rules.entropyBasis`): values are stored per mole of formula units of
+ * the reduced formula; 'atom' divides measured and computed values (and their
+ * uncertainties) by the atoms of that unit, so Al2O3 no longer weighs five times Al.
+ *
+ * Quality: each material × method runs qualityReport with the material's atoms in
+ * the cell and space group, the method's grids and, where stored, its dielectric
+ * constants and Born charges (types.ts, ScopeDielectric).
  */
 import {
+  atomsPerReducedFormulaUnit,
   compareMethods,
   errorStatistics,
   flagOutliers,
+  isSampleRule,
   modifiedZScores,
-  qualityChecks,
+  outlierScaleValues,
+  qualityReport,
   ScienceInputError,
   tukeyFences,
   type ErrorStatistics,
   type PairValue,
 } from '@/lib/science';
 import { groupBy, qualityModes, mergeRepeatedMeasurements, pairEntropies, pairFrequencies } from './pair-rows';
-import type { BenchmarkRules } from './schemas';
+import { rankOnCommonGround } from './ranking';
+import { outlierScaleOf, type BenchmarkRules } from './schemas';
+import { MIN_PAIRS_FOR_STATISTICS } from './statistics-minimum';
 import type {
   BenchmarkInput,
   BenchmarkSnapshot,
   BreakdownRow,
   ComparisonRecord,
+  MaterialRow,
   MethodResult,
   PairRecord,
   QualityRecord,
   ScopeCalculation,
+  ScopeMeasurement,
   StoredStatistics,
 } from './types';
 
-export const MIN_PAIRS_FOR_STATISTICS = 3;
+export { MIN_PAIRS_FOR_STATISTICS };
 export const UNTAGGED = 'untagged';
+export const UNLABELLED = 'unlabelled';
+export const NO_BRANCH = 'no branch given';
+
+/** What a harmonic vibrational entropy leaves out, shown beside every entropy benchmark. */
+export const ENTROPY_CAUTION =
+  'A harmonic vibrational entropy leaves out the volume (quasi-harmonic) term from Cp − Cv, the electronic entropy of metals, and magnetic and configurational entropy; a calorimetric S° holds them all. Compare insulators without magnetic order or disorder, and expect the harmonic value to fall below S° at 298 K.';
 
 export function unitOf(quantity: BenchmarkInput['quantity']): string {
   return quantity === 'frequency' ? 'cm⁻¹' : 'J mol⁻¹ K⁻¹';
@@ -54,10 +87,10 @@ function stored(s: ErrorStatistics, pairs: PairRecord[]): StoredStatistics {
   return { ...rest, maxAbsoluteErrorPair: pairs[maxAbsoluteErrorIndex].key };
 }
 
-/** Statistics of a group of pairs, or null below the minimum N. */
+/** Statistics of a group of pairs, clustered by material, or null below the minimum N. */
 export function groupStatistics(pairs: PairRecord[], bootstrapSamples: number): StoredStatistics | null {
   if (pairs.length < MIN_PAIRS_FOR_STATISTICS) return null;
-  return stored(errorStatistics(pairs.map(pairValue), { bootstrapSamples, seed: 1 }), pairs);
+  return stored(errorStatistics(pairs.map(pairValue), { bootstrapSamples, seed: 1, clusters: pairs.map((p) => p.materialId) }), pairs);
 }
 
 function format(value: number, digits = 2): string {
@@ -65,20 +98,24 @@ function format(value: number, digits = 2): string {
 }
 
 /** Marks the included pairs of one method that the rule flags, with the reason in words. */
-export function markOutliers(pairs: PairRecord[], rule: BenchmarkRules['outlierRule'], unit: string): void {
+export function markOutliers(pairs: PairRecord[], rule: BenchmarkRules['outlierRule'], unit: string, scale: 'absolute' | 'relative' = rule.scale ?? 'absolute'): void {
   if (pairs.length === 0) return;
-  const flags = flagOutliers(pairs.map(pairValue), rule);
-  const errors = pairs.map((p) => p.error);
-  const scores = rule.kind === 'modified-z' ? modifiedZScores(errors) : null;
-  const fences = rule.kind === 'tukey' ? tukeyFences(errors, rule.threshold) : null;
+  if (isSampleRule(rule.kind) && pairs.length < (rule.minN ?? 1)) return;
+  const values = pairs.map(pairValue);
+  const flags = flagOutliers(values, { ...rule, scale });
+  const scaled = outlierScaleValues(values, scale);
+  const scores = rule.kind === 'modified-z' ? modifiedZScores(scaled) : null;
+  const fences = rule.kind === 'tukey' ? tukeyFences(scaled, rule.threshold) : null;
+  const relative = scale === 'relative';
+  const shown = (v: number) => (relative ? `${format(100 * v, 1)} %` : `${format(v)} ${unit}`);
   pairs.forEach((p, i) => {
     if (!flags[i]) return;
     switch (rule.kind) {
       case 'modified-z':
-        p.outlier = `modified z-score ${format(scores![i])} beyond ±${rule.threshold}`;
+        p.outlier = `modified z-score${relative ? ' of the relative error' : ''} ${format(scores![i])} beyond ±${rule.threshold}`;
         break;
       case 'tukey':
-        p.outlier = `error ${format(p.error)} ${unit} outside the Tukey fences [${format(fences!.lower)}, ${format(fences!.upper)}] (k = ${rule.threshold})`;
+        p.outlier = `${relative ? 'relative error' : 'error'} ${shown(scaled[i])} outside the Tukey fences [${shown(fences!.lower)}, ${shown(fences!.upper)}] (k = ${rule.threshold})`;
         break;
       case 'relative':
         p.outlier = `relative error ${format(100 * Math.abs(p.relativeError), 1)} % above ${format(100 * rule.threshold, 1)} %`;
@@ -158,31 +195,101 @@ function comparisons(methodIds: string[], included: Map<string, PairRecord[]>): 
   return out;
 }
 
-function quality(input: BenchmarkInput, calcsByMaterialMethod: Map<string, ScopeCalculation[]>): QualityRecord[] {
-  if (input.quantity !== 'frequency') return [];
+type NotApplied = NonNullable<BenchmarkSnapshot['qualityNotApplied']>;
+
+function quality(input: BenchmarkInput, calcsByMaterialMethod: Map<string, ScopeCalculation[]>): { records: QualityRecord[]; notApplied: NotApplied } {
+  if (input.quantity !== 'frequency') return { records: [], notApplied: [] };
   const materials = new Map(input.materials.map((m) => [m.id, m]));
   const methods = new Map(input.methods.map((m) => [m.id, m]));
+  const dielectric = new Map((input.dielectric ?? []).map((d) => [`${d.materialId}|${d.methodId}`, d]));
   const out: QualityRecord[] = [];
+  const notApplied: NotApplied = [];
   for (const [key, calcs] of calcsByMaterialMethod) {
     const [materialId, methodId] = key.split('|');
     const material = materials.get(materialId);
     const method = methods.get(methodId);
     if (!material || !method) continue;
+    const stored = dielectric.get(key);
     try {
-      const flags = qualityChecks({
+      const report = qualityReport({
         modes: qualityModes(calcs),
         atomsInCell: material.atomsInCell ?? undefined,
+        spaceGroupNumber: material.spaceGroup ?? undefined,
         kGrid: method.kGrid ?? undefined,
         qGrid: method.qGrid ?? undefined,
+        dielectric: stored && stored.epsInf !== null && stored.eps0 !== null ? { epsInf: stored.epsInf, eps0: stored.eps0 } : undefined,
+        // One isotropic charge per atom: the diagonal tensor Z·I.
+        bornCharges: stored && stored.bornCharges.length ? stored.bornCharges.map((z) => [[z, 0, 0], [0, z, 0], [0, 0, z]]) : undefined,
         thresholds: input.qualityThresholds,
       });
-      for (const f of flags) out.push({ methodId, materialId, code: f.code, severity: f.severity, message: f.message });
+      for (const f of report.flags) out.push({ methodId, materialId, code: f.code, severity: f.severity, message: f.message });
+      for (const n of report.notApplied) notApplied.push({ methodId, materialId, code: n.code, reason: n.reason });
     } catch (error) {
       if (!(error instanceof ScienceInputError)) throw error;
       out.push({ methodId, materialId, code: 'invalid-input', severity: 'error', message: error.message });
     }
   }
-  return out.sort((a, b) => a.methodId.localeCompare(b.methodId) || a.materialId.localeCompare(b.materialId) || a.code.localeCompare(b.code));
+  const order = (a: { methodId: string; materialId: string; code: string }, b: typeof a) =>
+    a.methodId.localeCompare(b.methodId) || a.materialId.localeCompare(b.materialId) || a.code.localeCompare(b.code);
+  return { records: out.sort(order), notApplied: notApplied.sort(order) };
+}
+
+/** Entropy values per mole of atoms instead of formula units (module header). */
+function perAtom<T extends ScopeMeasurement | ScopeCalculation>(rows: readonly T[], atoms: ReadonlyMap<string, number>): T[] {
+  return rows.map((r) => {
+    const a = atoms.get(r.materialId);
+    if (!a) return r;
+    return { ...r, value: r.value / a, uncertainty: r.uncertainty === null ? null : r.uncertainty / a };
+  });
+}
+
+function reducedAtoms(materials: BenchmarkInput['materials']): Map<string, number> {
+  const out = new Map<string, number>();
+  for (const m of materials) {
+    try {
+      out.set(m.id, atomsPerReducedFormulaUnit(m.formula));
+    } catch (error) {
+      if (!(error instanceof ScienceInputError)) throw error;
+    }
+  }
+  return out;
+}
+
+function push<K, V>(map: Map<K, V[]>, key: K, value: V): void {
+  const list = map.get(key);
+  if (list) list.push(value);
+  else map.set(key, [value]);
+}
+
+/** Per material × method: the rows of the per-material table. */
+function materialRows(input: BenchmarkInput, byMethod: Map<string, PairRecord[]>, qualityRecords: QualityRecord[]): MaterialRow[] {
+  const materials = new Map(input.materials.map((m) => [m.id, m]));
+  const flags = new Map<string, number>();
+  for (const q of qualityRecords) flags.set(`${q.methodId}|${q.materialId}`, (flags.get(`${q.methodId}|${q.materialId}`) ?? 0) + 1);
+  const rows: MaterialRow[] = [];
+  for (const [methodId, pairs] of byMethod) {
+    const byMaterial = groupBy(pairs, (p) => p.materialId);
+    for (const [materialId, list] of byMaterial) {
+      const inc = list.filter((p) => p.excluded === null);
+      const abs = inc.map((p) => Math.abs(p.error));
+      const m = materials.get(materialId);
+      rows.push({
+        methodId,
+        materialId,
+        name: m?.name ?? materialId,
+        formula: m?.formula ?? '',
+        n: inc.length,
+        meanAbsoluteError: inc.length ? abs.reduce((a, b) => a + b, 0) / inc.length : null,
+        meanSignedError: inc.length ? inc.reduce((a, p) => a + p.error, 0) / inc.length : null,
+        maxAbsoluteError: inc.length ? Math.max(...abs) : null,
+        outliers: inc.filter((p) => p.outlier !== null).length,
+        ambiguous: inc.filter((p) => p.ambiguous).length,
+        excluded: list.length - inc.length,
+        qualityFlags: flags.get(`${methodId}|${materialId}`) ?? 0,
+      });
+    }
+  }
+  return rows.sort((a, b) => (b.meanAbsoluteError ?? -1) - (a.meanAbsoluteError ?? -1) || a.methodId.localeCompare(b.methodId) || a.name.localeCompare(b.name));
 }
 
 function byKey(a: PairRecord, b: PairRecord): number {
@@ -199,16 +306,31 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
     [...input.calculations].sort((a, b) => (a.id < b.id ? -1 : 1)),
     (c) => `${c.materialId}|${c.methodId}`,
   );
-  const measurements = [...input.measurements].sort((a, b) => (a.id < b.id ? -1 : 1));
+  let measurements = [...input.measurements].sort((a, b) => (a.id < b.id ? -1 : 1));
+  const entropyBasis = quantity === 'entropy' ? (rules.entropyBasis ?? 'formula-unit') : undefined;
 
   let pairs: PairRecord[];
   let unpaired: Map<string, number>;
+  let measuredInScope = measurements.length;
   if (quantity === 'frequency') {
     const pins = [...input.pins].sort((a, b) => (a.id < b.id ? -1 : 1));
-    ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod, methodIds, pins, rules));
+    const context = {
+      atomsInCell: new Map(input.materials.map((m) => [m.id, m.atomsInCell])),
+      nonAnalyticCorrection: new Map(input.methods.map((m) => [m.id, m.nonAnalyticCorrection])),
+      acousticThresholdCm1: input.qualityThresholds?.acousticCm1,
+    };
+    ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod, methodIds, pins, rules, context));
   } else {
     const scope = { temperatureK: 298.15, toleranceK: 1, ...input.entropyWindow };
-    ({ pairs, unpaired } = pairEntropies(measurements, calcsByMaterialMethod, methodIds, scope.temperatureK, scope.toleranceK));
+    let calcs = calcsByMaterialMethod;
+    if (entropyBasis === 'atom') {
+      const atoms = reducedAtoms(input.materials);
+      measurements = perAtom(measurements, atoms);
+      calcs = new Map([...calcsByMaterialMethod].map(([k, v]) => [k, perAtom(v, atoms)]));
+    }
+    const near = (t: number | null) => t !== null && Math.abs(t - scope.temperatureK) <= scope.toleranceK;
+    measuredInScope = measurements.filter((m) => near(m.temperatureK)).length;
+    ({ pairs, unpaired } = pairEntropies(measurements, calcs, methodIds, scope.temperatureK, scope.toleranceK));
   }
   applyDecisions(pairs, input.decisions);
   if (rules.repeatedMeasurements === 'weighted-mean') pairs = mergeRepeatedMeasurements(pairs);
@@ -216,12 +338,13 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
 
   const byMethod = groupBy(pairs, (p) => p.methodId);
   const included = new Map<string, PairRecord[]>();
+  const outlierScale = outlierScaleOf(rules.outlierRule, quantity);
   for (const id of methodIds) {
     const list = (byMethod.get(id) ?? []).filter((p) => p.excluded === null);
-    markOutliers(list, rules.outlierRule, unit);
+    markOutliers(list, rules.outlierRule, unit, outlierScale);
     included.set(id, list);
   }
-  const qualityRecords = quality(input, calcsByMaterialMethod);
+  const { records: qualityRecords, notApplied } = quality(input, calcsByMaterialMethod);
 
   const results: MethodResult[] = methods.map((m) => {
     const all = byMethod.get(m.id) ?? [];
@@ -241,33 +364,43 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
       rank: null,
     };
   });
-  const ranked = results.filter((r) => r.statistics !== null);
-  for (const r of ranked) r.rank = 1 + ranked.filter((o) => o.statistics!.meanAbsoluteError < r.statistics!.meanAbsoluteError).length;
+  const ranking = rankOnCommonGround(results, included, pairs, measuredInScope, rules.ranking);
   results.sort((a, b) => (a.rank ?? Infinity) - (b.rank ?? Infinity) || b.n - a.n || a.label.localeCompare(b.label));
 
   const tagsOf = new Map(input.materials.map((m) => [m.id, m.tags.length ? m.tags : [UNTAGGED]]));
   const includedAll = [...included.values()].flat().sort(byKey);
   const classGroups = new Map<string, PairRecord[]>();
   const bandGroups = new Map<string, PairRecord[]>();
+  const speciesGroups = new Map<string, PairRecord[]>();
+  const branchGroups = new Map<string, PairRecord[]>();
+  const techniqueGroups = new Map<string, PairRecord[]>();
   for (const p of includedAll) {
-    for (const tag of tagsOf.get(p.materialId) ?? [UNTAGGED]) {
-      const key = `${tag}|${p.methodId}`;
-      (classGroups.get(key) ?? classGroups.set(key, []).get(key)!).push(p);
-    }
+    for (const tag of tagsOf.get(p.materialId) ?? [UNTAGGED]) push(classGroups, `${tag}|${p.methodId}`, p);
+    push(techniqueGroups, `${p.technique ?? 'not stated'}|${p.methodId}`, p);
     if (quantity === 'frequency') {
-      const key = `${bandOf(p.measured, rules.bandEdgesCm1)}|${p.methodId}`;
-      (bandGroups.get(key) ?? bandGroups.set(key, []).get(key)!).push(p);
+      push(bandGroups, `${bandOf(p.measured, rules.bandEdgesCm1)}|${p.methodId}`, p);
+      push(speciesGroups, `${p.species ?? UNLABELLED}|${p.methodId}`, p);
+      push(branchGroups, `${p.branch ?? NO_BRANCH}|${p.methodId}`, p);
     }
   }
 
   return {
-    version: 1,
+    version: 2,
     quantity,
     unit,
     rules,
     methods: results,
     classes: breakdown(classGroups),
     bands: breakdown(bandGroups, bandLabels(rules.bandEdgesCm1)),
+    species: breakdown(speciesGroups),
+    branches: breakdown(branchGroups, ['TO', 'LO', NO_BRANCH]),
+    techniques: breakdown(techniqueGroups),
+    materialRows: materialRows(input, byMethod, qualityRecords),
+    ranking,
+    entropyBasis,
+    caution: quantity === 'entropy' ? ENTROPY_CAUTION : null,
+    outlierScale,
+    qualityNotApplied: notApplied,
     comparisons: comparisons(methodIds, included),
     pairs,
     quality: qualityRecords,
@@ -278,6 +411,7 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
       calculations: input.calculations.length,
       materials: input.materials.length,
       methods: methods.length,
+      measuredInScope,
     },
     empty: pairs.length === 0 ? emptyReason(input) : null,
   };

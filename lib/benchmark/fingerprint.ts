@@ -59,8 +59,11 @@ export function benchmarkFingerprint(input: BenchmarkInput, scope: unknown): str
   h.add(['entropy', canonicalJson(input.entropyWindow ?? null)]);
   for (const m of byId(input.measurements)) h.add(['M', m.id, m.materialId, m.sourceId, m.value, m.uncertainty, m.temperatureK, m.irrep, m.branch, m.technique]);
   for (const c of byId(input.calculations)) h.add(['C', c.id, c.materialId, c.methodId, c.sourceId, c.value, c.uncertainty, c.temperatureK, c.irrep, c.branch, c.activity, c.degeneracy]);
-  for (const m of byId(input.materials)) h.add(['T', m.id, m.name, m.atomsInCell, [...m.tags].sort().join(',')]);
-  for (const m of byId(input.methods)) h.add(['K', m.id, m.label, m.kGrid?.join('x'), m.qGrid?.join('x')]);
+  for (const m of byId(input.materials)) h.add(['T', m.id, m.name, m.formula, m.atomsInCell, m.spaceGroup, [...m.tags].sort().join(',')]);
+  for (const m of byId(input.methods)) h.add(['K', m.id, m.label, m.kGrid?.join('x'), m.qGrid?.join('x'), m.nonAnalyticCorrection === undefined ? undefined : String(m.nonAnalyticCorrection)]);
+  for (const d of [...(input.dielectric ?? [])].sort((a, b) => (`${a.materialId}|${a.methodId}` < `${b.materialId}|${b.methodId}` ? -1 : 1))) {
+    h.add(['E', d.materialId, d.methodId, d.epsInf, d.eps0, d.bornCharges.join(',')]);
+  }
   for (const d of byId(input.decisions)) h.add(['D', d.id, d.kind, d.measurementId, d.methodId, d.reason]);
   for (const p of byId(input.pins)) h.add(['P', p.id, p.methodId, p.measurementId, p.calculationId]);
   return h.digest();

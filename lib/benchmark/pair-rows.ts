@@ -5,7 +5,10 @@
  * source, technique and temperature), because pairModes assigns each computed
  * line to at most one peak and two spectra of the same crystal must both be able
  * to pair with the same mode. Each spectrum is paired with the method's computed
- * modes by `pairModes`, with the workspace's pins.
+ * modes by `pairModes`, with the workspace's pins, the material's atoms in the cell
+ * (the acoustic rule for complete lists), the method's LO–TO correction flag and the
+ * benchmark's windows. A stored optical activity (raman, ir, raman+ir, silent) marks
+ * the mode `acoustic: false`, so it is never taken as acoustic; 'acoustic' marks it true.
  *
  * With `repeatedMeasurements: 'weighted-mean'`, the pairs of one method that land
  * on the same computed line (several measurements of one mode) are merged into one
@@ -18,7 +21,7 @@
  * is compared with the method's computed entropy of the same material closest in
  * temperature (no mode pairing).
  */
-import { pairModes, ScienceInputError, type ComputedMode, type MeasuredPeak, type Technique } from '@/lib/science';
+import { irrepBranch, irrepSpecies, pairModes, ScienceInputError, type ComputedMode, type MeasuredPeak, type Technique } from '@/lib/science';
 import type { BenchmarkRules } from './schemas';
 import type { PairRecord, ScopeCalculation, ScopeMeasurement, ScopePin } from './types';
 
@@ -55,18 +58,22 @@ export function computedMode(c: ScopeCalculation): ComputedMode {
     case 'raman':
       mode.ramanActive = true;
       mode.irActive = false;
+      mode.acoustic = false;
       break;
     case 'ir':
       mode.ramanActive = false;
       mode.irActive = true;
+      mode.acoustic = false;
       break;
     case 'raman+ir':
       mode.ramanActive = true;
       mode.irActive = true;
+      mode.acoustic = false;
       break;
     case 'silent':
       mode.ramanActive = false;
       mode.irActive = false;
+      mode.acoustic = false;
       break;
     case 'acoustic':
       mode.acoustic = true;
@@ -94,6 +101,17 @@ export function groupBy<T>(rows: readonly T[], keyOf: (row: T) => string): Map<s
   return groups;
 }
 
+/** Species and branch of a label, or nulls when it is absent or not a label normalizeIrrep reads. */
+export function labelParts(label: string | null, branch: 'TO' | 'LO' | null): { species: string | null; branch: 'TO' | 'LO' | null } {
+  if (!label || label.trim() === '') return { species: null, branch };
+  try {
+    return { species: irrepSpecies(label), branch: branch ?? irrepBranch(label) ?? null };
+  } catch (error) {
+    if (error instanceof ScienceInputError) return { species: null, branch };
+    throw error;
+  }
+}
+
 export function pairKey(methodId: string, measurementIds: readonly string[]): string {
   return `${methodId}|${measurementIds.join('+')}`;
 }
@@ -110,6 +128,7 @@ function newPair(
   label: string | null,
 ): PairRecord {
   const error = calculated - m.value;
+  const parts = labelParts(label, m.branch);
   return {
     key: pairKey(methodId, [m.id]),
     methodId,
@@ -123,6 +142,8 @@ function newPair(
     measuredUncertainty: m.uncertainty,
     calculatedUncertainty,
     label,
+    species: parts.species,
+    branch: parts.branch,
     technique: m.technique,
     temperatureK: m.temperatureK,
     basis,
@@ -150,6 +171,13 @@ function usablePins(peaks: MeasuredPeak[], pinsByMeasurement: Map<string, ScopeP
   return pins;
 }
 
+/** What pairing needs to know of materials and methods beyond their rows. */
+export interface PairingContext {
+  atomsInCell: ReadonlyMap<string, number | null>;
+  nonAnalyticCorrection: ReadonlyMap<string, boolean | null | undefined>;
+  acousticThresholdCm1?: number;
+}
+
 export interface FrequencyPairing {
   pairs: PairRecord[];
   unpaired: Map<string, number>;
@@ -163,6 +191,7 @@ export function pairFrequencies(
   methodIds: readonly string[],
   pins: readonly ScopePin[],
   rules: BenchmarkRules,
+  context?: PairingContext,
 ): FrequencyPairing {
   const pinsByMethod = new Map<string, Map<string, ScopePin>>();
   for (const pin of pins) {
@@ -186,6 +215,10 @@ export function pairFrequencies(
         const peaks = spectrum.map(measuredPeak);
         const options = {
           maxRelativeDeviation: rules.maxRelativeDeviation,
+          labelledMaxRelativeDeviation: rules.labelledMaxRelativeDeviation,
+          atomsInCell: context?.atomsInCell.get(materialId) ?? undefined,
+          nonAnalyticCorrection: context?.nonAnalyticCorrection.get(methodId) ?? undefined,
+          acousticThresholdCm1: context?.acousticThresholdCm1,
           ambiguityCm1: rules.ambiguityCm1,
           ambiguityRelative: rules.ambiguityRelative,
           pins: usablePins(peaks, methodPins),

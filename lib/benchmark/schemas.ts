@@ -48,14 +48,43 @@ export const scopeSchema = z
     path: ['temperatureMaxK'],
   });
 
+export const OUTLIER_SCALES = ['absolute', 'relative'] as const;
+export const ENTROPY_BASES = ['formula-unit', 'atom'] as const;
+export type EntropyBasis = (typeof ENTROPY_BASES)[number];
+
+/** Outlier rules flag nothing below this many included pairs of a method (modified z and Tukey). */
+export const DEFAULT_OUTLIER_MIN_N = 10;
+/** A method is ranked from this many included pairs… */
+export const DEFAULT_RANKING_MIN_N = 10;
+/** …and this coverage (paired / measured in scope). */
+export const DEFAULT_RANKING_MIN_COVERAGE = 0.5;
+
 export const outlierRuleSchema = z.object({
   kind: z.enum(OUTLIER_RULE_KINDS).default('modified-z'),
   threshold: z.number().positive().default(DEFAULT_OUTLIER_THRESHOLDS['modified-z']),
+  /** Scale of the modified z and Tukey rules; unset: relative for frequencies, absolute for entropies. */
+  scale: z.enum(OUTLIER_SCALES).optional(),
+  /** Below this many included pairs of a method the modified z and Tukey rules flag nothing. */
+  minN: z.number().int().min(1).max(10000).default(DEFAULT_OUTLIER_MIN_N),
+});
+
+/** The outlier scale a benchmark uses: the rule's, else relative for frequencies and absolute otherwise. */
+export function outlierScaleOf(rule: { scale?: (typeof OUTLIER_SCALES)[number] }, quantity: BenchmarkQuantity): (typeof OUTLIER_SCALES)[number] {
+  return rule.scale ?? (quantity === 'frequency' ? 'relative' : 'absolute');
+}
+
+export const rankingRuleSchema = z.object({
+  /** Fewer included pairs than this: listed, not ranked. 0 switches the rule off. */
+  minN: z.number().int().min(0).max(100000).default(DEFAULT_RANKING_MIN_N),
+  /** Coverage (paired / measured in scope) below this: listed, not ranked. 0 switches the rule off. */
+  minCoverage: z.number().min(0).max(1).default(DEFAULT_RANKING_MIN_COVERAGE),
 });
 
 export const rulesSchema = z.object({
   /** Largest |ω − ν|/ν that may pair (pairModes default 0.25). */
   maxRelativeDeviation: z.number().positive().max(1).default(0.25),
+  /** The same when both sides carry a label of the same species (pairModes default 0.5). */
+  labelledMaxRelativeDeviation: z.number().positive().max(1).default(0.5),
   /** Ambiguity window, cm⁻¹ and relative (pairModes defaults 2 and 0.01). */
   ambiguityCm1: z.number().min(0).default(2),
   ambiguityRelative: z.number().min(0).max(1).default(0.01),
@@ -69,14 +98,40 @@ export const rulesSchema = z.object({
     .max(10)
     .default([200, 500, 1000])
     .refine((edges) => edges.every((e, i) => i === 0 || e > edges[i - 1]), 'Band edges must increase.'),
+  /** Which methods are ranked (on the pairs every ranked method shares). */
+  ranking: rankingRuleSchema.prefault({}),
+  /** Entropy benchmarks: compare per mole of formula units (the reduced formula) or per mole of atoms. */
+  entropyBasis: z.enum(ENTROPY_BASES).default('formula-unit'),
 });
 
-/** Defaults of a watch on this benchmark (the watch issue reads them; units of detectShift). */
+/**
+ * Defaults of a watch on this benchmark. `maeAbsolute` is in the benchmark's unit (cm⁻¹
+ * or J mol⁻¹ K⁻¹); `maeCm1` is its older name, still accepted (maeAbsolute wins when both
+ * are given). Unset, it takes the default of the benchmark's quantity
+ * (DEFAULT_MAE_ABSOLUTE). The relative ones are fractions (0.05 = 5 %).
+ */
 export const alertThresholdsSchema = z.object({
-  maeCm1: z.number().positive().default(0.5),
+  maeAbsolute: z.number().positive().optional(),
+  maeCm1: z.number().positive().optional(),
   maeRelative: z.number().positive().default(0.05),
   nRelative: z.number().positive().default(0.1),
 });
+
+/**
+ * Default absolute MAE change that alerts, per quantity, in its unit: 0.5 cm⁻¹ (below the
+ * 1–2 cm⁻¹ resolution of a routine Raman spectrum) and 0.2 J mol⁻¹ K⁻¹ (about twice the
+ * ±0.1 uncertainty of the CODATA key-value entropies) — common practice, no single source.
+ */
+export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = { frequency: 0.5, entropy: 0.2 };
+
+/** The thresholds detectShift uses for a benchmark of this quantity (maeCm1 is the alias). */
+export function resolveAlertThresholds(thresholds: AlertThresholds, quantity: BenchmarkQuantity): { maeAbsolute: number; maeRelative: number; nRelative: number } {
+  return {
+    maeAbsolute: thresholds.maeAbsolute ?? thresholds.maeCm1 ?? DEFAULT_MAE_ABSOLUTE[quantity],
+    maeRelative: thresholds.maeRelative,
+    nRelative: thresholds.nRelative,
+  };
+}
 
 export type BenchmarkScope = z.infer<typeof scopeSchema>;
 export type BenchmarkRules = z.infer<typeof rulesSchema>;
@@ -100,6 +155,15 @@ export function readScope(value: unknown): BenchmarkScope {
 export function readRules(value: unknown): BenchmarkRules {
   return rulesSchema.parse(value ?? {});
 }
-export function readAlertThresholds(value: unknown): AlertThresholds {
-  return alertThresholdsSchema.parse(value ?? {});
+/** Alert thresholds with the quantity's default filled in; `maeCm1` repeats maeAbsolute for older readers. */
+export interface ResolvedAlertThresholds {
+  maeAbsolute: number;
+  maeCm1: number;
+  maeRelative: number;
+  nRelative: number;
+}
+
+export function readAlertThresholds(value: unknown, quantity: BenchmarkQuantity = 'frequency'): ResolvedAlertThresholds {
+  const resolved = resolveAlertThresholds(alertThresholdsSchema.parse(value ?? {}), quantity);
+  return { ...resolved, maeCm1: resolved.maeAbsolute };
 }

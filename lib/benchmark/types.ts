@@ -40,6 +40,8 @@ export interface ScopeMaterial {
   formula: string;
   atomsInCell: number | null;
   tags: string[];
+  /** International Tables number, for the LST check (non-cubic crystals skip it). */
+  spaceGroup?: number | null;
 }
 
 export interface ScopeMethod {
@@ -47,6 +49,21 @@ export interface ScopeMethod {
   label: string;
   kGrid: [number, number, number] | null;
   qGrid: [number, number, number] | null;
+  /** Whether the method applies the LO–TO (non-analytic) correction; null: not recorded. */
+  nonAnalyticCorrection?: boolean | null;
+}
+
+/**
+ * Dielectric constants and Born charges stored as calculation rows of one material ×
+ * method ('eps-inf', 'eps-static', 'born-charge'). Nothing imports them yet; when rows
+ * exist the quality checks use them (born-charge: one isotropic charge per atom).
+ */
+export interface ScopeDielectric {
+  materialId: string;
+  methodId: string;
+  epsInf: number | null;
+  eps0: number | null;
+  bornCharges: number[];
 }
 
 export interface ScopePin {
@@ -80,6 +97,8 @@ export interface BenchmarkInput {
   qualityThresholds?: QualityThresholds;
   /** Entropy benchmarks: the comparison temperature and its tolerance, K. */
   entropyWindow?: { temperatureK: number; toleranceK: number };
+  /** Dielectric constants and Born charges where stored (see ScopeDielectric). */
+  dielectric?: ScopeDielectric[];
 }
 
 /** Statistics of a group of pairs, as stored (errorStatistics without the index). */
@@ -93,12 +112,25 @@ export interface StoredStatistics {
   maxAbsoluteError: number;
   maxAbsoluteErrorPair: string;
   meanAbsolutePercentageError: number;
+  /** Absent on revisions computed before it existed. */
+  meanAbsoluteRelativeError?: number;
   scaleFactor: number;
   rmseAfterScaling: number;
+  /** λ fitted without the pair's own material (leave one material out). */
+  rmseAfterScalingOutOfSample?: number;
+  reducedChiSquare?: number;
+  chiSquarePairs?: number;
+  clusterCount?: number;
   pearsonR: number;
   concordance: number;
   blandAltman: { bias: number; lower: number; upper: number };
-  bootstrap?: { confidence: number; meanAbsoluteError: [number, number]; meanSignedError: [number, number] };
+  bootstrap?: {
+    confidence: number;
+    meanAbsoluteError: [number, number];
+    meanSignedError: [number, number];
+    resampled?: 'pairs' | 'clusters';
+    clusterCount?: number;
+  };
   withinOneSigma?: number;
   withinTwoSigma?: number;
 }
@@ -117,6 +149,10 @@ export interface PairRecord {
   measuredUncertainty: number | null;
   calculatedUncertainty: number | null;
   label: string | null;
+  /** Symmetry species of the label ("E2g" for "E¹₂g"); absent on older revisions. */
+  species?: string | null;
+  /** TO / LO of the measured peak (given, or written in its label). */
+  branch?: 'TO' | 'LO' | null;
   technique: string | null;
   temperatureK: number | null;
   basis: 'label' | 'frequency' | 'pinned' | 'temperature';
@@ -141,7 +177,43 @@ export interface MethodResult {
   unpairedMeasurements: number;
   /** Absent when n < 3: only N is shown. */
   statistics: StoredStatistics | null;
+  /** Rank on the common pairs (ranking rule); null when the method is not ranked. */
   rank: number | null;
+  /** Measured values in scope that this method paired (excluded pairs included). */
+  paired?: number;
+  /** paired / measured values in scope; null when nothing is in scope. */
+  coverage?: number | null;
+  /** Why the method is listed but not ranked; null when it is ranked. */
+  unranked?: string | null;
+  /** The method's statistics on the common pairs (ranked methods only). */
+  common?: { n: number; meanAbsoluteError: number; rootMeanSquareError: number; meanSignedError: number } | null;
+}
+
+/** How the leaderboard was ranked. */
+export interface RankingRecord {
+  /** Pairs (measured values) that every ranked method shares: the N the ranking rests on. */
+  commonN: number;
+  minN: number;
+  minCoverage: number;
+  rankedMethods: number;
+  /** Why there is no ranking, when there is none. */
+  note: string | null;
+}
+
+/** One material of one method: the per-material table. */
+export interface MaterialRow {
+  methodId: string;
+  materialId: string;
+  name: string;
+  formula: string;
+  n: number;
+  meanAbsoluteError: number | null;
+  meanSignedError: number | null;
+  maxAbsoluteError: number | null;
+  outliers: number;
+  ambiguous: number;
+  excluded: number;
+  qualityFlags: number;
 }
 
 export interface BreakdownRow {
@@ -170,21 +242,35 @@ export interface QualityRecord {
   message: string;
 }
 
-/** The snapshot a Revision stores. */
+/** The snapshot a Revision stores (version 2 adds the fields marked optional; older ones lack them). */
 export interface BenchmarkSnapshot {
-  version: 1;
+  version: 1 | 2;
   quantity: BenchmarkQuantity;
   unit: string;
   rules: BenchmarkRules;
   methods: MethodResult[];
   classes: BreakdownRow[];
   bands: BreakdownRow[];
+  /** By irreducible-representation species, by TO/LO branch, by technique. */
+  species?: BreakdownRow[];
+  branches?: BreakdownRow[];
+  techniques?: BreakdownRow[];
+  materialRows?: MaterialRow[];
+  ranking?: RankingRecord;
+  /** Entropy benchmarks: what one value is per. */
+  entropyBasis?: 'formula-unit' | 'atom';
+  /** Entropy benchmarks: what a harmonic value leaves out. */
+  caution?: string | null;
+  /** The outlier scale in force. */
+  outlierScale?: 'absolute' | 'relative';
+  /** Quality checks that had their inputs but were not applied, and why. */
+  qualityNotApplied?: Array<{ methodId: string; materialId: string; code: string; reason: string }>;
   comparisons: ComparisonRecord[];
   pairs: PairRecord[];
   quality: QualityRecord[];
   decisions: ScopeDecision[];
   pins: ScopePin[];
-  counts: { measurements: number; calculations: number; materials: number; methods: number };
+  counts: { measurements: number; calculations: number; materials: number; methods: number; measuredInScope?: number };
   /** Why a computation produced nothing, for the empty state. */
   empty: string | null;
 }

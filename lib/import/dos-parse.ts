@@ -22,7 +22,16 @@ export interface DosBlock {
   lastRow: number;
   /** Rows of this DOS refused with an error (their points are not in the grid). */
   rejectedRows: number;
+  /** Rows at negative frequency, kept out of the grid; checked against NEGATIVE_TAIL_LIMIT at the end. */
+  negativeRows?: Array<{ row: number; frequencyText: string; density: number; densityText: string }>;
 }
+
+/**
+ * A negative-frequency row is a numerical tail, and is accepted (and left out of the
+ * grid), when its density is 0 or at most this fraction of the DOS's largest density
+ * (0.01 %). Larger density at a negative frequency is real imaginary weight: refused.
+ */
+export const NEGATIVE_TAIL_LIMIT = 1e-4;
 
 export interface DosParseResult {
   headers: string[];
@@ -44,8 +53,12 @@ const EMPTY: RowError = { row: 0, column: null, reason: 'The file is empty.' };
  * the browser passes it whole): detects the delimiter from the header line, checks
  * the header, and groups rows into blocks per (material, method). Row problems are
  * collected with row, column and reason; file-level problems throw ImportRefusal.
- * Negative frequencies (imaginary modes) are refused, not dropped: a harmonic
- * entropy of an unstable structure would be silently wrong.
+ * Negative frequencies: phonon codes often write a short tail below 0 with zero
+ * density; such rows are accepted and left out of the grid when their density is 0 or
+ * at most NEGATIVE_TAIL_LIMIT (0.01 %) of the DOS's largest density, and they must come
+ * before the first non-negative row. Real imaginary weight (more density than that) is
+ * refused with its row and column, not dropped: a harmonic entropy of an unstable
+ * structure would be silently wrong.
  */
 export class DosFileReader {
   private head = '';
@@ -77,6 +90,18 @@ export class DosFileReader {
     } else this.take(this.reader.end());
     if (this.rowCount === 0) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
     for (const block of this.blocks.values()) {
+      const peak = block.density.reduce((m, g) => Math.max(m, g), 0);
+      for (const t of block.negativeRows ?? []) {
+        if (t.density === 0 || (peak > 0 && t.density <= NEGATIVE_TAIL_LIMIT * peak)) continue;
+        block.rejectedRows++;
+        const share = peak > 0 ? ` (${Number(((100 * t.density) / peak).toPrecision(3))} % of this DOS's largest density)` : '';
+        this.fail(
+          t.row,
+          'density',
+          `Imaginary weight: density ${t.densityText} at the negative frequency ${t.frequencyText}${share}. A negative-frequency tail is accepted only with density 0 or at most ${100 * NEGATIVE_TAIL_LIMIT} % of the largest density; this is an unstable structure, whose harmonic entropy is undefined. Fix the calculation or cut the imaginary part from the DOS.`,
+          t.densityText,
+        );
+      }
       if (block.frequency.length < 2 && block.rejectedRows === 0) {
         this.fail(block.firstRow, 'frequency', `The DOS of ${block.material} / ${block.method} has ${block.frequency.length} grid point; it needs at least 2.`);
       } else if (block.rejectedRows === 0 && block.frequency.length >= 2 && !block.density.some((g) => g > 0)) {
@@ -165,14 +190,6 @@ export class DosFileReader {
     const frequency = number('frequency');
     const density = number('density');
     const frequencyText = cell('frequency');
-    if (frequency !== null && frequency < 0) {
-      this.fail(
-        row,
-        'frequency',
-        `Negative (imaginary) frequency ${frequencyText}: the harmonic entropy of a dynamically unstable structure is undefined. Fix the calculation or cut the imaginary part from the DOS.`,
-        frequencyText,
-      );
-    }
     if (density !== null && density < 0) this.fail(row, 'density', `A density of states cannot be negative (got ${cell('density')}).`, cell('density'));
     if (frequency === 0 && density !== null && density > 0) {
       this.fail(row, 'density', 'The density at zero frequency must be 0: a zero-frequency mode has no harmonic entropy.', cell('density'));
@@ -202,6 +219,21 @@ export class DosFileReader {
       this.fail(row, 'unit', `The DOS of ${material} / ${method} started in ${block.unit} (row ${block.firstRow}); one DOS has one unit.`, unitText);
     }
     const n = block.frequency.length;
+    if (frequency !== null && frequency < 0) {
+      const tail = (block.negativeRows ??= []);
+      const previous = tail.length ? Number(parseDecimal(tail[tail.length - 1].frequencyText)) : null;
+      if (n > 0 || (previous !== null && !(frequency > previous))) {
+        this.fail(
+          row,
+          'frequency',
+          `Frequencies must increase strictly within one DOS: ${frequencyText} follows ${n > 0 ? block.frequency[n - 1] : previous} (row ${n > 0 ? block.lastRow : tail[tail.length - 1].row}) of ${material} / ${method}; a negative tail comes first.`,
+          frequencyText,
+        );
+      }
+      if (this.errorCount !== before || density === null) block.rejectedRows++;
+      else tail.push({ row, frequencyText, density, densityText: cell('density') });
+      return;
+    }
     if (frequency !== null && frequency >= 0 && n > 0 && !(frequency > block.frequency[n - 1])) {
       this.fail(
         row,

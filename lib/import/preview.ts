@@ -5,18 +5,19 @@ import { detectDelimiter, delimiterName, type Delimiter } from './delimiter';
 import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from './errors';
 import { autoMapColumns, resolveHeader, type ColumnMapping } from './header';
 import type { DefaultUnits } from './units';
-import { validateRow, type ImportReferences } from './validate-row';
+import { ModeSetTally, type ImportWarning } from './mode-set-warnings';
+import { modeSetFacts, validateRow, type ImportReferences } from './validate-row';
 
 /** Reference lists as the wizard fetches them (JSON-friendly). */
 export interface ReferenceLists {
-  materials: Array<{ name: string; id: string; atomsPerFormulaUnit: number }>;
+  materials: Array<{ name: string; id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null }>;
   sources: Array<{ citeKey: string; id: string }>;
   methods: Array<{ label: string; id: string }>;
 }
 
 export function referencesFrom(lists: ReferenceLists): ImportReferences {
   return {
-    materials: new Map(lists.materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit }])),
+    materials: new Map(lists.materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: m.atomsInCell ?? null }])),
     sources: new Map(lists.sources.map((s) => [s.citeKey, s.id])),
     methods: new Map(lists.methods.map((m) => [m.label, m.id])),
   };
@@ -42,6 +43,9 @@ export interface PreviewResult {
   errors: RowError[];
   /** The first data rows as read (cells in header order) with their row numbers. */
   preview: Array<{ row: number; cells: string[]; ok: boolean }>;
+  /** Calculation imports: incomplete mode sets and sets without acoustic marks (mode-set-warnings.ts). */
+  warnings: ImportWarning[];
+  warningCount: number;
 }
 
 export const PREVIEW_ROWS = 50;
@@ -66,6 +70,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
   let header: ReturnType<typeof resolveHeader> | null = null;
   let mapping: ColumnMapping = {};
   const preview: PreviewResult['preview'] = [];
+  const tally = new ModeSetTally();
   const addError = (e: RowError) => {
     errorCount++;
     if (errors.length < MAX_REPORTED_ERRORS) errors.push(e);
@@ -103,6 +108,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           if (valid) {
             validCount++;
             ok = true;
+            tally.add(row, valid);
           } else {
             errorCount += Math.max(1, errors.length - before);
             if (errors.length > MAX_REPORTED_ERRORS) errors.length = MAX_REPORTED_ERRORS;
@@ -120,5 +126,6 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
   const resolved = header as ReturnType<typeof resolveHeader>;
   if (resolved.errors.length) throw new ImportRefusal('The header row has problems.', resolved.errors);
   if (rowCount === 0) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
-  return { headers, delimiter, delimiterName: delimiterName(delimiter), mapping, ignored: resolved.ignored, rowCount, validCount, errorCount, errors, preview };
+  const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
+  return { headers, delimiter, delimiterName: delimiterName(delimiter), mapping, ignored: resolved.ignored, rowCount, validCount, errorCount, errors, preview, warnings, warningCount };
 }

@@ -17,7 +17,7 @@ import {
 
 /** What a row may refer to, by the handles people write in files. */
 export interface ImportReferences {
-  materials: Map<string, { id: string; atomsPerFormulaUnit: number }>;
+  materials: Map<string, { id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null }>;
   sources: Map<string, string>;
   methods: Map<string, string>;
 }
@@ -248,5 +248,18 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     sampleForm,
     modeIndex,
     identity,
+  };
+}
+
+/** Names and atom counts by id, for the mode-set warnings of a calculation import. */
+export function modeSetFacts(refs: ImportReferences) {
+  const materials = new Map<string, { name: string; atomsInCell: number | null }>();
+  for (const [name, m] of refs.materials) materials.set(m.id, { name, atomsInCell: m.atomsInCell ?? null });
+  const methods = new Map<string, string>();
+  for (const [label, id] of refs.methods) methods.set(id, label);
+  return {
+    atomsInCell: (id: string) => materials.get(id)?.atomsInCell,
+    materialName: (id: string) => materials.get(id)?.name ?? id,
+    methodLabel: (id: string) => methods.get(id) ?? id,
   };
 }

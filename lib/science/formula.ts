@@ -7,6 +7,10 @@
  *   group    := Element count? | "(" group+ ")" count? | "[" group+ "]" count?
  *   count    := digits ("." digits)?             fractional occupancies allowed ("Ba0.5Sr0.5TiO3")
  * A "." is always a decimal point, never a hydrate separator: write "CuSO4·5H2O" or "CuSO4*5H2O".
+ *
+ * Formula units: a value "per formula unit" (an entropy in J mol⁻¹ K⁻¹) is per mole of
+ * the reduced formula's unit, as thermochemical tables give it: "Ga2N2" and "GaN" both
+ * mean per GaN (atomsPerReducedFormulaUnit 2), never per Ga2N2.
  * Element symbols are case-sensitive (Co is cobalt, CO is carbon + oxygen).
  */
 import { isElementSymbol } from './elements';
@@ -15,8 +19,11 @@ import { ScienceInputError } from './errors';
 /** A parsed formula: element counts per formula unit, their total, and the reduced formula. */
 export interface ParsedFormula {
   counts: Record<string, number>;
+  /** Atoms of the formula as written ("Ga2N2": 4). */
   atomsPerFormulaUnit: number;
   reduced: string;
+  /** Atoms of the reduced formula ("Ga2N2" → GaN: 2): the unit of every per-formula-unit value. */
+  atomsPerReducedFormulaUnit: number;
 }
 
 const HYDRATE_SEPARATORS = new Set(['·', '•', '∙', '⋅', '*']);
@@ -152,5 +159,10 @@ export function parseFormula(formula: string): ParsedFormula {
   const reduced = Object.entries(counts)
     .map(([symbol, count]) => symbol + formatCount(cleanCount(count / divisor)))
     .join('');
-  return { counts, atomsPerFormulaUnit: cleanCount(atomsPerFormulaUnit), reduced };
+  return { counts, atomsPerFormulaUnit: cleanCount(atomsPerFormulaUnit), reduced, atomsPerReducedFormulaUnit: cleanCount(atomsPerFormulaUnit / divisor) };
+}
+
+/** Atoms per reduced formula unit ("Ga2N2" → 2), the unit of values per formula unit. */
+export function atomsPerReducedFormulaUnit(formula: string): number {
+  return parseFormula(formula).atomsPerReducedFormulaUnit;
 }

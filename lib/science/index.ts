@@ -6,14 +6,22 @@ export * from './constants';
 export { ScienceInputError } from './errors';
 export { convertFrequency, convertEntropy, frequencyCm1ToKelvin, FREQUENCY_UNITS, ENTROPY_UNITS } from './units';
 export type { FrequencyUnit, EntropyUnit } from './units';
-export { parseFormula } from './formula';
+export { parseFormula, atomsPerReducedFormulaUnit } from './formula';
 export type { ParsedFormula } from './formula';
 export { ELEMENT_SYMBOLS, isElementSymbol } from './elements';
 export { crystalSystem, normalizeIrrep, irrepSpecies, irrepBranch } from './symmetry';
 export type { CrystalSystem } from './symmetry';
-export { acousticModeIds, collapseDegenerateModes, DEGENERACY_TOLERANCE_CM1 } from './modes';
-export type { MeasuredPeak, ComputedMode, ModeLine, Technique } from './modes';
-export { pairModes, DEFAULT_MAX_RELATIVE_DEVIATION, DEFAULT_AMBIGUITY_CM1, DEFAULT_AMBIGUITY_RELATIVE } from './pairing';
+export {
+  acousticModeIds,
+  collapseDegenerateModes,
+  isCompleteModeList,
+  isStatedOptical,
+  modeCount,
+  DEFAULT_ACOUSTIC_THRESHOLD_CM1,
+  DEGENERACY_TOLERANCE_CM1,
+} from './modes';
+export type { MeasuredPeak, ComputedMode, ModeLine, Technique, AcousticOptions } from './modes';
+export { pairModes, DEFAULT_MAX_RELATIVE_DEVIATION, DEFAULT_LABELLED_MAX_RELATIVE_DEVIATION, DEFAULT_AMBIGUITY_CM1, DEFAULT_AMBIGUITY_RELATIVE } from './pairing';
 export type { PairingOptions, Pair, PairingResult } from './pairing';
 export {
   mean,
@@ -33,13 +41,13 @@ export type { BootstrapIntervals } from './bootstrap';
 export { createRandom } from './random';
 export type { RandomSource } from './random';
 export { normalCdf, erfc } from './normal';
-export { modifiedZScores, tukeyFences, flagOutliers, MODIFIED_Z_CONSTANT, MODIFIED_Z_THRESHOLD, TUKEY_K } from './outliers';
+export { modifiedZScores, tukeyFences, flagOutliers, isSampleRule, outlierScaleValues, MODIFIED_Z_CONSTANT, MODIFIED_Z_THRESHOLD, TUKEY_K } from './outliers';
 export type { OutlierRule } from './outliers';
 export { compareMethods, wilcoxonSignedRank, WILCOXON_EXACT_MAX_N } from './wilcoxon';
 export type { MethodComparison, WilcoxonResult } from './wilcoxon';
 export { harmonicMode, harmonicFromDos, debyeHeatCapacity } from './thermodynamics';
 export type { HarmonicModeQuantities, HarmonicDosQuantities } from './thermodynamics';
-export { qualityChecks, DEFAULT_QUALITY_THRESHOLDS } from './quality';
-export type { QualityInput, QualityFlag, QualityThresholds } from './quality';
+export { qualityChecks, qualityReport, DEFAULT_QUALITY_THRESHOLDS } from './quality';
+export type { QualityInput, QualityFlag, QualityThresholds, QualityNotApplied, QualityReport } from './quality';
 export { detectShift, DEFAULT_SHIFT_THRESHOLDS } from './shift';
 export type { MethodSummary, ShiftReason, ShiftThresholds } from './shift';

@@ -1,6 +1,27 @@
 /**
  * Mode lists: validation, acoustic-mode detection and the collapse of degenerate
- * computed modes into lines. Shared by pairing and the quality checks.
+ * computed modes into lines. Shared by pairing and the quality checks, so both
+ * call the same modes acoustic.
+ *
+ * Acoustic modes (acousticModeIds), in order:
+ * 1. A mode marked `acoustic: true` is acoustic (a mode both marked acoustic and stated
+ *    Raman- or IR-active contradicts itself; rule 2 wins and it is optical).
+ * 2. A mode marked `acoustic: false`, or with a stated optical activity
+ *    (`ramanActive` or `irActive` true), is never acoustic, whatever the list.
+ * 3. When some mode is marked `acoustic: true`, no other mode is acoustic.
+ * 4. Otherwise, among the remaining modes: when the atom count is given and the
+ *    list is complete (Σ degeneracy = 3 × atomsInCell), the modes of lowest |ω| are
+ *    acoustic until their degeneracies add up to three (ties by input order).
+ *    When the list is partial, or the atom count is unknown, only modes with
+ *    |ω| below the acoustic threshold (default 10 cm⁻¹) are, again at most three
+ *    by degeneracy, lowest |ω| first. An optical-only list therefore keeps its
+ *    lowest optical lines.
+ *
+ * Degenerate lines (collapseDegenerateModes): modes in frequency order join the
+ * open line of the same species, branch, activity and acoustic status whose running
+ * (degeneracy-weighted) mean is within DEGENERACY_TOLERANCE_CM1 (0.5 cm⁻¹), the
+ * nearest such line when there are several; otherwise they open a new line. A
+ * triplet at 517.0 / 517.3 / 517.6 is one line; two modes 1.2 cm⁻¹ apart stay apart.
  */
 import { ScienceInputError, requireFinite, requireNonNegative } from './errors';
 import { irrepBranch, irrepSpecies, normalizeIrrep } from './symmetry';
@@ -104,28 +125,60 @@ export function validateComputedModes(computed: readonly ComputedMode[]): void {
   });
 }
 
-/**
- * Ids of the acoustic modes. When any mode carries the `acoustic` field the marks
- * decide; otherwise the modes of lowest |ω| are acoustic until their degeneracies
- * add up to three (ties broken by input order).
- */
-export function acousticModeIds(computed: readonly ComputedMode[]): Set<string> {
+/** Options of acousticModeIds. */
+export interface AcousticOptions {
+  /** Atoms in the cell: with a complete list (3N modes) the three lowest |ω| are acoustic. */
+  atomsInCell?: number;
+  /** Below this |ω| an unmarked mode of a partial list is acoustic; default 10 cm⁻¹. */
+  acousticThresholdCm1?: number;
+}
+
+/** Default |ω| below which an unmarked mode of a partial list counts as acoustic, cm⁻¹. */
+export const DEFAULT_ACOUSTIC_THRESHOLD_CM1 = 10;
+
+/** True when a mode states that it is optical: marked `acoustic: false`, or Raman- or IR-active. */
+export function isStatedOptical(mode: ComputedMode): boolean {
+  return mode.acoustic === false || mode.ramanActive === true || mode.irActive === true;
+}
+
+/** Σ degeneracy of a mode list: the number of modes counted with degeneracy. */
+export function modeCount(computed: readonly ComputedMode[]): number {
+  let count = 0;
+  for (const mode of computed) count += mode.degeneracy ?? 1;
+  return count;
+}
+
+/** True when the list holds all 3N modes of a cell of `atomsInCell` atoms (counted with degeneracy). */
+export function isCompleteModeList(computed: readonly ComputedMode[], atomsInCell: number | undefined): boolean {
+  return atomsInCell !== undefined && modeCount(computed) === 3 * atomsInCell;
+}
+
+/** Ids of the acoustic modes, by the rules of the module header. */
+export function acousticModeIds(computed: readonly ComputedMode[], options: AcousticOptions = {}): Set<string> {
+  const threshold = options.acousticThresholdCm1 ?? DEFAULT_ACOUSTIC_THRESHOLD_CM1;
+  requireNonNegative('options.acousticThresholdCm1', threshold);
+  if (options.atomsInCell !== undefined && !(Number.isInteger(options.atomsInCell) && options.atomsInCell >= 1)) {
+    throw new ScienceInputError('options.atomsInCell', `must be a positive integer, got ${String(options.atomsInCell)}`);
+  }
   const ids = new Set<string>();
-  if (computed.some((m) => m.acoustic !== undefined)) {
-    for (const mode of computed) if (mode.acoustic === true) ids.add(mode.id);
+  const marked = (m: ComputedMode) => m.acoustic === true && m.ramanActive !== true && m.irActive !== true;
+  if (computed.some(marked)) {
+    for (const mode of computed) if (marked(mode)) ids.add(mode.id);
     return ids;
   }
-  const taken = new Uint8Array(computed.length);
+  const complete = isCompleteModeList(computed, options.atomsInCell);
+  const candidates: number[] = [];
+  for (let i = 0; i < computed.length; i++) {
+    if (isStatedOptical(computed[i])) continue;
+    if (complete || Math.abs(computed[i].frequencyCm1) < threshold) candidates.push(i);
+  }
+  // lowest |ω| first, ties by input order
+  candidates.sort((i, j) => Math.abs(computed[i].frequencyCm1) - Math.abs(computed[j].frequencyCm1) || i - j);
   let count = 0;
-  while (count < 3 && ids.size < computed.length) {
-    let best = -1;
-    for (let i = 0; i < computed.length; i++) {
-      if (taken[i]) continue;
-      if (best < 0 || Math.abs(computed[i].frequencyCm1) < Math.abs(computed[best].frequencyCm1)) best = i;
-    }
-    taken[best] = 1;
-    ids.add(computed[best].id);
-    count += computed[best].degeneracy ?? 1;
+  for (const i of candidates) {
+    if (count >= 3) break;
+    ids.add(computed[i].id);
+    count += computed[i].degeneracy ?? 1;
   }
   return ids;
 }
@@ -143,7 +196,7 @@ export function branchOf(branch: 'TO' | 'LO' | undefined, irrep: string | undefi
 
 interface OpenLine {
   line: ModeLine;
-  lowestCm1: number;
+  highestCm1: number;
   weightedSum: number;
 }
 
@@ -158,14 +211,14 @@ function sameKind(line: ModeLine, species: string | undefined, branch: string | 
 }
 
 /**
- * Collapses degenerate modes into lines: modes with the same label species, branch,
- * activity and acoustic status whose frequencies lie within DEGENERACY_TOLERANCE_CM1
- * of the lowest member. Unlabelled modes collapse with unlabelled modes by the same rule.
+ * Collapses degenerate modes into lines (module header): a mode joins the nearest open
+ * line of the same kind whose running mean is within DEGENERACY_TOLERANCE_CM1.
+ * Unlabelled modes collapse with unlabelled modes by the same rule.
  * Lines come out in order of frequency.
  */
 export function collapseDegenerateModes(computed: readonly ComputedMode[], acoustic: Set<string>): ModeLine[] {
   const order = Array.from(computed.keys()).sort((i, j) => computed[i].frequencyCm1 - computed[j].frequencyCm1 || i - j);
-  const open: OpenLine[] = [];
+  let open: OpenLine[] = [];
   const lines: ModeLine[] = [];
   for (const index of order) {
     const mode = computed[index];
@@ -173,19 +226,22 @@ export function collapseDegenerateModes(computed: readonly ComputedMode[], acous
     const branch = branchOf(mode.branch, mode.irrep);
     const isAcoustic = acoustic.has(mode.id);
     const degeneracy = mode.degeneracy ?? 1;
-    let joined = false;
-    // candidates are the recent lines whose lowest member is within the tolerance
-    for (let k = open.length - 1; k >= 0 && mode.frequencyCm1 - open[k].lowestCm1 <= DEGENERACY_TOLERANCE_CM1; k--) {
-      const candidate = open[k];
-      if (!sameKind(candidate.line, species, branch, mode, isAcoustic)) continue;
-      candidate.line.ids.push(mode.id);
-      candidate.line.degeneracy += degeneracy;
-      candidate.weightedSum += degeneracy * mode.frequencyCm1;
-      candidate.line.frequencyCm1 = candidate.weightedSum / candidate.line.degeneracy;
-      joined = true;
-      break;
+    // Frequencies only grow: a line whose highest member is more than the tolerance below can take no more members.
+    if (open.length > 8) open = open.filter((o) => mode.frequencyCm1 - o.highestCm1 <= DEGENERACY_TOLERANCE_CM1);
+    let best: OpenLine | undefined;
+    for (const candidate of open) {
+      const distance = Math.abs(mode.frequencyCm1 - candidate.line.frequencyCm1);
+      if (distance > DEGENERACY_TOLERANCE_CM1 || !sameKind(candidate.line, species, branch, mode, isAcoustic)) continue;
+      if (!best || distance < Math.abs(mode.frequencyCm1 - best.line.frequencyCm1)) best = candidate;
     }
-    if (joined) continue;
+    if (best) {
+      best.line.ids.push(mode.id);
+      best.line.degeneracy += degeneracy;
+      best.weightedSum += degeneracy * mode.frequencyCm1;
+      best.line.frequencyCm1 = best.weightedSum / best.line.degeneracy;
+      best.highestCm1 = mode.frequencyCm1;
+      continue;
+    }
     const line: ModeLine = {
       ids: [mode.id],
       frequencyCm1: mode.frequencyCm1,
@@ -196,7 +252,7 @@ export function collapseDegenerateModes(computed: readonly ComputedMode[], acous
       irActive: mode.irActive,
       acoustic: isAcoustic,
     };
-    open.push({ line, lowestCm1: mode.frequencyCm1, weightedSum: degeneracy * mode.frequencyCm1 });
+    open.push({ line, highestCm1: mode.frequencyCm1, weightedSum: degeneracy * mode.frequencyCm1 });
     lines.push(line);
   }
   return lines;

@@ -7,6 +7,18 @@
  * √(π/2) ≈ 1.2533 being σ/MeanAD for a normal distribution (the scaling used by
  * IBM SPSS and others); when MeanAD is also 0 every value equals the median and
  * every score is 0. No score is ever infinite or NaN.
+ *
+ * Scale (`rule.scale`, default 'absolute'): the sample rules (modified z, Tukey) run on
+ * e itself, or with 'relative' on e / |measured|. Frequency errors grow with the
+ * frequency (a uniform −3.5 % bias gives the highest lines the largest |e|), so on the
+ * absolute scale the highest lines look like outliers when they are not; on the
+ * relative scale they do not. The per-pair rules ('relative', 'sigma') have their own
+ * scale and ignore it.
+ *
+ * Minimum N (`rule.minN`, default 1): the sample rules estimate a centre and a spread
+ * from the sample itself, meaningless on a handful of values (at N = 3 one error of
+ * −2.55 cm⁻¹ is "beyond 3.5"), so below minN they flag nothing. The per-pair rules
+ * compare each pair with a fixed threshold, estimate nothing, and apply at any N.
  */
 import { quantileOfSorted } from './descriptive';
 import { ScienceInputError, requireFiniteArray, requirePositive } from './errors';
@@ -24,6 +36,20 @@ export const TUKEY_K = 1.5;
 export interface OutlierRule {
   kind: 'modified-z' | 'tukey' | 'relative' | 'sigma';
   threshold: number;
+  /** Scale of the sample rules: e ('absolute', default) or e / |measured| ('relative'). */
+  scale?: 'absolute' | 'relative';
+  /** Smallest sample on which the sample rules flag anything; default 1. */
+  minN?: number;
+}
+
+/** True for the rules that estimate a centre and spread from the sample (modified z, Tukey). */
+export function isSampleRule(kind: OutlierRule['kind']): boolean {
+  return kind === 'modified-z' || kind === 'tukey';
+}
+
+/** The values a sample rule runs on: e, or e / |measured| on the relative scale. */
+export function outlierScaleValues(pairs: readonly PairValue[], scale: OutlierRule['scale']): number[] {
+  return pairs.map((p) => (scale === 'relative' ? (p.calculated - p.measured) / Math.abs(p.measured) : p.calculated - p.measured));
 }
 
 function sortedCopy(values: readonly number[]): Float64Array {
@@ -63,15 +89,22 @@ export function tukeyFences(values: number[], k: number = TUKEY_K): { lower: num
 export function flagOutliers(pairs: PairValue[], rule: OutlierRule): boolean[] {
   if (!rule || typeof rule !== 'object') throw new ScienceInputError('rule', 'must be an outlier rule');
   requirePositive('rule.threshold', rule.threshold);
+  if (rule.scale !== undefined && rule.scale !== 'absolute' && rule.scale !== 'relative') {
+    throw new ScienceInputError('rule.scale', `must be "absolute" or "relative", got ${String(rule.scale)}`);
+  }
+  const minN = rule.minN ?? 1;
+  if (!(Number.isInteger(minN) && minN >= 1)) throw new ScienceInputError('rule.minN', `must be a positive integer, got ${String(rule.minN)}`);
   validatePairs(pairs, 0);
   const errors = pairs.map((p) => p.calculated - p.measured);
   if (errors.length === 0) return [];
+  if (isSampleRule(rule.kind) && pairs.length < minN) return pairs.map(() => false);
+  const values = outlierScaleValues(pairs, rule.scale);
   switch (rule.kind) {
     case 'modified-z':
-      return modifiedZScores(errors).map((m) => Math.abs(m) > rule.threshold);
+      return modifiedZScores(values).map((m) => Math.abs(m) > rule.threshold);
     case 'tukey': {
-      const { lower, upper } = tukeyFences(errors, rule.threshold);
-      return errors.map((e) => e < lower || e > upper);
+      const { lower, upper } = tukeyFences(values, rule.threshold);
+      return values.map((e) => e < lower || e > upper);
     }
     case 'relative':
       return pairs.map((p, i) => Math.abs(errors[i]) / Math.abs(p.measured) > rule.threshold);

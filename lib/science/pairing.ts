@@ -2,11 +2,15 @@
  * Pairing of the measured peaks of one material with the computed modes of one method.
  *
  * Rules, in order:
- * 1. Acoustic modes are those marked `acoustic` (when any mode carries the field),
- *    else the lowest-|ω| modes up to a degeneracy of three. They never pair
- *    automatically and are not listed in `unpairedComputed`.
+ * 1. Acoustic modes follow acousticModeIds (modes.ts): `acoustic: true` is acoustic;
+ *    `acoustic: false` or a stated optical activity (ramanActive or irActive true) never
+ *    is; otherwise, with `atomsInCell` given and a complete list (3N modes counted with
+ *    degeneracy), the three lowest |ω|; for a partial list or an unknown atom count only
+ *    modes below `acousticThresholdCm1` (10 cm⁻¹), at most three. Acoustic modes never
+ *    pair automatically and are not listed in `unpairedComputed`.
  * 2. Degenerate computed modes (same label species, branch and activity, within
- *    0.5 cm⁻¹) collapse into one line; a pair names every id of its line.
+ *    0.5 cm⁻¹ of the line's running mean) collapse into one line; a pair names every
+ *    id of its line.
  * 3. Pins come first and override every rule below (window, activity, label,
  *    acoustic). `computedId: null` marks "no counterpart": the peak stays unpaired.
  *    A pin whose measured or computed id is not in the input is inert, so pins
@@ -18,8 +22,16 @@
  *    (undefined) activity does not exclude. TO pairs only with TO and LO with LO when
  *    both sides state a branch (a branch written in the label, "A1(TO)", counts).
  *    When both sides carry a label their species must match after normalizeIrrep,
- *    ignoring high/low and TO/LO qualifiers ("E2(high)" matches a computed "E2").
- *    The relative deviation |ω − ν|/ν must not exceed maxRelativeDeviation (0.25).
+ *    ignoring high/low and TO/LO qualifiers ("E2(high)" matches a computed "E2") and the
+ *    ordinal of layered crystals ("E¹₂g" matches a computed "E2g").
+ *    `nonAnalyticCorrection: false` (the calculation has no LO–TO splitting, so Γ gives
+ *    the TO frequencies): computed lines without a branch are TO lines, and a measured
+ *    LO peak never pairs with them. Undefined (unknown) keeps lines without a branch
+ *    open to either branch.
+ *    The relative deviation |ω − ν|/ν must not exceed maxRelativeDeviation (0.25), or
+ *    labelledMaxRelativeDeviation (0.5; never narrower than maxRelativeDeviation) when
+ *    both sides carry a label (their species then match): a labelled pair is a firm assignment, and dropping a badly computed
+ *    labelled line would hide the worst errors.
  * 5. Assignment (Kuhn–Munkres, package `munkres`): the largest number of eligible
  *    pairs, and among those the smallest total relative deviation.
  * 6. A pair is ambiguous when another eligible unpinned line's deviation |ω' − ν|
@@ -47,6 +59,14 @@ import {
 export interface PairingOptions {
   /** Largest |ω − ν|/ν that may pair; default 0.25. */
   maxRelativeDeviation?: number;
+  /** Largest |ω − ν|/ν when both sides carry a label of the same species; default 0.5. */
+  labelledMaxRelativeDeviation?: number;
+  /** Atoms in the cell, for the acoustic rule (a complete list has 3N modes). */
+  atomsInCell?: number;
+  /** Below this |ω| an unmarked mode of a partial list is acoustic; default 10 cm⁻¹. */
+  acousticThresholdCm1?: number;
+  /** false: lines without a branch are TO lines and never pair with LO peaks; undefined: unknown. */
+  nonAnalyticCorrection?: boolean;
   /** Ambiguity window in cm⁻¹; default 2. */
   ambiguityCm1?: number;
   /** Ambiguity window relative to the measured value; default 0.01. */
@@ -78,6 +98,8 @@ export interface PairingResult {
 
 /** Default pairing window. */
 export const DEFAULT_MAX_RELATIVE_DEVIATION = 0.25;
+/** Default pairing window when both sides carry a label of the same species. */
+export const DEFAULT_LABELLED_MAX_RELATIVE_DEVIATION = 0.5;
 /** Default absolute ambiguity window, cm⁻¹. */
 export const DEFAULT_AMBIGUITY_CM1 = 2;
 /** Default relative ambiguity window. */
@@ -89,7 +111,15 @@ interface PeakView {
   branch?: 'TO' | 'LO';
 }
 
-function isEligible(view: PeakView, line: ModeLine, maxRelativeDeviation: number): boolean {
+interface Windows {
+  maxRelativeDeviation: number;
+  labelledMaxRelativeDeviation: number;
+  ambiguityCm1: number;
+  ambiguityRelative: number;
+  nonAnalyticCorrection: boolean | undefined;
+}
+
+function isEligible(view: PeakView, line: ModeLine, windows: Windows): boolean {
   if (line.acoustic) return false;
   const { peak } = view;
   switch (peak.technique) {
@@ -105,9 +135,12 @@ function isEligible(view: PeakView, line: ModeLine, maxRelativeDeviation: number
     case 'ins':
       break;
   }
-  if (view.branch && line.branch && view.branch !== line.branch) return false;
-  if (view.species !== undefined && line.species !== undefined && view.species !== line.species) return false;
-  return Math.abs(line.frequencyCm1 - peak.frequencyCm1) <= maxRelativeDeviation * peak.frequencyCm1;
+  const lineBranch = line.branch ?? (windows.nonAnalyticCorrection === false ? 'TO' : undefined);
+  if (view.branch && lineBranch && view.branch !== lineBranch) return false;
+  const labelled = view.species !== undefined && line.species !== undefined;
+  if (labelled && view.species !== line.species) return false;
+  const window = labelled ? Math.max(windows.labelledMaxRelativeDeviation, windows.maxRelativeDeviation) : windows.maxRelativeDeviation;
+  return Math.abs(line.frequencyCm1 - peak.frequencyCm1) <= window * peak.frequencyCm1;
 }
 
 function makePair(peak: MeasuredPeak, line: ModeLine, basis: Pair['basis'], ambiguous: boolean): Pair {
@@ -126,6 +159,11 @@ function makePair(peak: MeasuredPeak, line: ModeLine, basis: Pair['basis'], ambi
 
 function readOptions(options: PairingOptions) {
   const maxRelativeDeviation = options.maxRelativeDeviation ?? DEFAULT_MAX_RELATIVE_DEVIATION;
+  const labelledMaxRelativeDeviation = options.labelledMaxRelativeDeviation ?? DEFAULT_LABELLED_MAX_RELATIVE_DEVIATION;
+  requirePositive('options.labelledMaxRelativeDeviation', labelledMaxRelativeDeviation);
+  if (options.nonAnalyticCorrection !== undefined && typeof options.nonAnalyticCorrection !== 'boolean') {
+    throw new ScienceInputError('options.nonAnalyticCorrection', `must be true, false or undefined, got ${String(options.nonAnalyticCorrection)}`);
+  }
   const ambiguityCm1 = options.ambiguityCm1 ?? DEFAULT_AMBIGUITY_CM1;
   const ambiguityRelative = options.ambiguityRelative ?? DEFAULT_AMBIGUITY_RELATIVE;
   requirePositive('options.maxRelativeDeviation', maxRelativeDeviation);
@@ -133,14 +171,15 @@ function readOptions(options: PairingOptions) {
   requireNonNegative('options.ambiguityRelative', ambiguityRelative);
   const pins = options.pins ?? [];
   if (!Array.isArray(pins)) throw new ScienceInputError('options.pins', 'must be an array');
-  return { maxRelativeDeviation, ambiguityCm1, ambiguityRelative, pins };
+  const windows: Windows = { maxRelativeDeviation, labelledMaxRelativeDeviation, ambiguityCm1, ambiguityRelative, nonAnalyticCorrection: options.nonAnalyticCorrection };
+  return { windows, pins };
 }
 
 /** Optimal assignment of the unpinned peaks to the unpinned optical lines (rules 4–7). */
 function assignByFrequency(
   views: PeakView[],
   pool: ModeLine[],
-  windows: { maxRelativeDeviation: number; ambiguityCm1: number; ambiguityRelative: number },
+  windows: Windows,
   pairByMeasured: Map<string, Pair>,
 ): void {
   const columns = pool.length;
@@ -150,7 +189,7 @@ function assignByFrequency(
   for (let r = 0; r < views.length; r++) {
     let any = false;
     for (let c = 0; c < columns; c++) {
-      if (isEligible(views[r], pool[c], windows.maxRelativeDeviation)) {
+      if (isEligible(views[r], pool[c], windows)) {
         eligible[r * columns + c] = 1;
         usedColumn[c] = 1;
         any = true;
@@ -163,7 +202,7 @@ function assignByFrequency(
   if (rows.length === 0) return;
 
   // A cost above any sum of real costs makes the optimum maximise the number of pairs first.
-  const forbidden = (rows.length + 1) * (windows.maxRelativeDeviation + 1);
+  const forbidden = (rows.length + 1) * (Math.max(windows.maxRelativeDeviation, windows.labelledMaxRelativeDeviation) + 1);
   const cost: number[][] = rows.map((r) => {
     const measuredCm1 = views[r].peak.frequencyCm1;
     return cols.map((c) => (eligible[r * columns + c] ? Math.abs(pool[c].frequencyCm1 - measuredCm1) / measuredCm1 : forbidden));
@@ -194,9 +233,10 @@ function assignByFrequency(
 export function pairModes(measured: MeasuredPeak[], computed: ComputedMode[], options: PairingOptions = {}): PairingResult {
   validateMeasuredPeaks(measured);
   validateComputedModes(computed);
-  const { maxRelativeDeviation, ambiguityCm1, ambiguityRelative, pins } = readOptions(options);
+  const { windows, pins } = readOptions(options);
 
-  const lines = collapseDegenerateModes(computed, acousticModeIds(computed));
+  const acoustic = acousticModeIds(computed, { atomsInCell: options.atomsInCell, acousticThresholdCm1: options.acousticThresholdCm1 });
+  const lines = collapseDegenerateModes(computed, acoustic);
   const lineOfId = new Map<string, ModeLine>();
   for (const line of lines) for (const id of line.ids) lineOfId.set(id, line);
   const peakById = new Map(measured.map((peak) => [peak.id, peak]));
@@ -236,7 +276,7 @@ export function pairModes(measured: MeasuredPeak[], computed: ComputedMode[], op
   }
   const pool: ModeLine[] = [];
   for (const line of lines) if (!line.acoustic && !pinnedLines.has(line)) pool.push(line);
-  assignByFrequency(views, pool, { maxRelativeDeviation, ambiguityCm1, ambiguityRelative }, pairByMeasured);
+  assignByFrequency(views, pool, windows, pairByMeasured);
 
   const pairs: Pair[] = [];
   const unpairedMeasured: string[] = [];

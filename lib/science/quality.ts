@@ -10,9 +10,21 @@
  * lyddane-sachs-teller   (warning) |Π(ω_LO/ω_TO)² / (ε₀/ε∞) − 1| > lstRelative (0.05), using the
  *                                   TO and LO lines (degenerates collapsed); the isotropic form, so
  *                                   it is evaluated only when there are as many LO as TO lines.
+ *                                   Scalar ε₀ and ε∞ describe a cubic crystal only: with
+ *                                   `spaceGroupNumber` of a non-cubic crystal (below 195) the
+ *                                   product over all TO/LO lines mixes polarisations (wurtzite
+ *                                   gives a false +88 %), so the check is not applied and
+ *                                   qualityReport says so in `notApplied`. Without a space group
+ *                                   the check runs as for a cubic crystal.
+ *
+ * Acoustic modes are those of acousticModeIds (modes.ts), with `atomsInCell` and the
+ * acousticCm1 threshold: a stated optical mode is never called acoustic, and in a partial
+ * list only modes below acousticCm1 are, so an optical-only list raises no
+ * acoustic-sum-rule warning about an optical line.
  */
 import { ScienceInputError, requireFinite, requirePositive } from './errors';
 import { acousticModeIds, collapseDegenerateModes, validateComputedModes, type ComputedMode } from './modes';
+import { crystalSystem } from './symmetry';
 
 /** Input of qualityChecks. */
 export interface QualityInput {
@@ -23,7 +35,21 @@ export interface QualityInput {
   /** [atom][3][3] Born effective charges in units of e. */
   bornCharges?: number[][][];
   dielectric?: { epsInf: number; eps0: number };
+  /** International Tables number (1–230): the LST check needs a cubic crystal for scalar ε. */
+  spaceGroupNumber?: number;
   thresholds?: QualityThresholds;
+}
+
+/** A check that had its inputs but was not applied, and why. */
+export interface QualityNotApplied {
+  code: QualityFlag['code'];
+  reason: string;
+}
+
+/** qualityReport's result: the flags and the checks deliberately not applied. */
+export interface QualityReport {
+  flags: QualityFlag[];
+  notApplied: QualityNotApplied[];
 }
 
 /** Thresholds of the quality checks (defaults in DEFAULT_QUALITY_THRESHOLDS). */
@@ -77,7 +103,7 @@ function formatCm1(value: number): string {
 
 function modeChecks(modes: ComputedMode[], limits: Required<QualityThresholds>, atomsInCell?: number): QualityFlag[] {
   const flags: QualityFlag[] = [];
-  const acoustic = acousticModeIds(modes);
+  const acoustic = acousticModeIds(modes, { atomsInCell, acousticThresholdCm1: limits.acousticCm1 });
   const acousticModes = modes.filter((m) => acoustic.has(m.id));
   if (acousticModes.length > 0) {
     const worst = acousticModes.reduce((a, b) => (Math.abs(b.frequencyCm1) > Math.abs(a.frequencyCm1) ? b : a));
@@ -144,10 +170,10 @@ function bornCheck(bornCharges: number[][][], limit: number, atomsInCell?: numbe
   ];
 }
 
-function lstCheck(modes: ComputedMode[], dielectric: { epsInf: number; eps0: number }, limit: number): QualityFlag[] {
-  requirePositive('dielectric.epsInf', dielectric.epsInf);
-  requirePositive('dielectric.eps0', dielectric.eps0);
-  const lines = collapseDegenerateModes(modes, acousticModeIds(modes)).filter((l) => !l.acoustic);
+function lstCheck(modes: ComputedMode[], dielectric: { epsInf: number; eps0: number }, limits: Required<QualityThresholds>, atomsInCell?: number): QualityFlag[] {
+  const limit = limits.lstRelative;
+  const acoustic = acousticModeIds(modes, { atomsInCell, acousticThresholdCm1: limits.acousticCm1 });
+  const lines = collapseDegenerateModes(modes, acoustic).filter((l) => !l.acoustic);
   const to = lines.filter((l) => l.branch === 'TO');
   const lo = lines.filter((l) => l.branch === 'LO');
   if (to.length === 0 || to.length !== lo.length || [...to, ...lo].some((l) => l.frequencyCm1 <= 0)) return [];
@@ -168,6 +194,11 @@ function lstCheck(modes: ComputedMode[], dielectric: { epsInf: number; eps0: num
 
 /** Runs the quality checks of the module header on one calculation and returns its flags. */
 export function qualityChecks(input: QualityInput): QualityFlag[] {
+  return qualityReport(input).flags;
+}
+
+/** The quality checks with the checks not applied and why (module header). */
+export function qualityReport(input: QualityInput): QualityReport {
   if (!input || typeof input !== 'object') throw new ScienceInputError('input', 'must be a quality-check input object');
   validateComputedModes(input.modes);
   const limits = readThresholds(input.thresholds);
@@ -197,6 +228,20 @@ export function qualityChecks(input: QualityInput): QualityFlag[] {
     });
   }
   if (input.bornCharges) flags.push(...bornCheck(input.bornCharges, limits.bornNeutrality, atomsInCell));
-  if (input.dielectric) flags.push(...lstCheck(input.modes, input.dielectric, limits.lstRelative));
-  return flags;
+  const notApplied: QualityNotApplied[] = [];
+  if (input.spaceGroupNumber !== undefined) crystalSystem(input.spaceGroupNumber);
+  if (input.dielectric) {
+    requirePositive('dielectric.epsInf', input.dielectric.epsInf);
+    requirePositive('dielectric.eps0', input.dielectric.eps0);
+    const system = input.spaceGroupNumber === undefined ? undefined : crystalSystem(input.spaceGroupNumber);
+    if (system !== undefined && system !== 'cubic') {
+      notApplied.push({
+        code: 'lyddane-sachs-teller',
+        reason: `Not applied: the crystal is ${system} (space group ${input.spaceGroupNumber}) and ε₀, ε∞ are scalars; the Lyddane–Sachs–Teller product needs them per polarisation for a non-cubic crystal.`,
+      });
+    } else {
+      flags.push(...lstCheck(input.modes, input.dielectric, limits, atomsInCell));
+    }
+  }
+  return { flags, notApplied };
 }

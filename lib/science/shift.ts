@@ -1,6 +1,7 @@
 /**
  * Benchmark shift detection between the last announced revision and a new one.
- * A shift is: a MAE change beyond both maeCm1 (0.5) and maeRelative (0.05) × the
+ * A shift is: a MAE change beyond both maeAbsolute (0.5, in the benchmark's unit; maeCm1
+ * is its older name, used when maeAbsolute is not given) and maeRelative (0.05) × the
  * earlier MAE; an N change beyond nRelative (0.1) × the earlier N (any change from 0);
  * any change of rank (competition ranking by MAE ascending over methods with n > 0);
  * any outlier id not flagged before; any method added or removed.
@@ -26,13 +27,16 @@ export interface ShiftReason {
 
 /** Thresholds of detectShift. */
 export interface ShiftThresholds {
+  /** Absolute MAE change, in the benchmark's unit. */
+  maeAbsolute?: number;
+  /** Older name of maeAbsolute. */
   maeCm1?: number;
   maeRelative?: number;
   nRelative?: number;
 }
 
 /** Default shift thresholds. */
-export const DEFAULT_SHIFT_THRESHOLDS: Required<ShiftThresholds> = { maeCm1: 0.5, maeRelative: 0.05, nRelative: 0.1 };
+export const DEFAULT_SHIFT_THRESHOLDS = { maeAbsolute: 0.5, maeCm1: 0.5, maeRelative: 0.05, nRelative: 0.1 } as const;
 
 function indexSummaries(argument: string, summaries: MethodSummary[]): Map<string, MethodSummary> {
   if (!Array.isArray(summaries)) throw new ScienceInputError(argument, 'must be an array of method summaries');
@@ -62,8 +66,12 @@ export function detectShift(
   after: MethodSummary[],
   thresholds: ShiftThresholds = {},
 ): { shifted: boolean; reasons: ShiftReason[] } {
-  const limits = { ...DEFAULT_SHIFT_THRESHOLDS, ...thresholds };
-  requirePositive('thresholds.maeCm1', limits.maeCm1);
+  const limits = {
+    maeAbsolute: thresholds.maeAbsolute ?? thresholds.maeCm1 ?? DEFAULT_SHIFT_THRESHOLDS.maeAbsolute,
+    maeRelative: thresholds.maeRelative ?? DEFAULT_SHIFT_THRESHOLDS.maeRelative,
+    nRelative: thresholds.nRelative ?? DEFAULT_SHIFT_THRESHOLDS.nRelative,
+  };
+  requirePositive(thresholds.maeAbsolute === undefined && thresholds.maeCm1 !== undefined ? 'thresholds.maeCm1' : 'thresholds.maeAbsolute', limits.maeAbsolute);
   requirePositive('thresholds.maeRelative', limits.maeRelative);
   requirePositive('thresholds.nRelative', limits.nRelative);
   const beforeById = indexSummaries('before', before);
@@ -80,7 +88,7 @@ export function detectShift(
       continue;
     }
     const maeChange = Math.abs(now.meanAbsoluteError - was.meanAbsoluteError);
-    if (maeChange > limits.maeCm1 && maeChange > limits.maeRelative * was.meanAbsoluteError) {
+    if (maeChange > limits.maeAbsolute && maeChange > limits.maeRelative * was.meanAbsoluteError) {
       reasons.push({ methodId: id, kind: 'mae', before: was.meanAbsoluteError, after: now.meanAbsoluteError });
     }
     const rankWas = rankBefore.get(id);

@@ -3,8 +3,27 @@
  * RMSE divides by n, the standard deviation by n − 1; median and 95th percentile
  * of |e| are Hyndman–Fan type-7 quantiles; Lin's concordance uses 1/N moments;
  * Bland–Altman limits are bias ± 1.96 SD. All sums are two-pass and compensated.
+ *
+ * Mean absolute relative error: mean(|e| / |measured|), a fraction (the percentage
+ * form is meanAbsolutePercentageError = 100 × it).
+ *
+ * Uncertainty-weighted view, over the pairs with a combined σ = √(u_m² + u_c²) > 0:
+ * reduced χ² = Σ (e/σ)² / ν with ν = the number of such pairs (nothing is fitted to
+ * the errors, so no degree of freedom is lost). ≈ 1: the errors are as large as the
+ * stated uncertainties; ≫ 1: the method's error is larger than the uncertainties.
+ *
+ * Clusters (`options.clusters`, one id per pair, e.g. the material): the bootstrap
+ * resamples whole clusters (bootstrap.ts), and the out-of-sample RMSE after scaling
+ * leaves one cluster out at a time: for each cluster c, λ₋c = Σ_{i∉c} ω ν / Σ_{i∉c} ω²
+ * from the other clusters, residuals λ₋c ω − ν on c, RMSE over every pair. Without
+ * clusters every pair is its own cluster (leave-one-out). The in-sample RMSE after
+ * scaling fits λ to the very pairs it is judged on and flatters it; for a fit through
+ * the origin the left-out residuals are never smaller in norm, so the out-of-sample
+ * value is ≥ the in-sample one. It needs at least two clusters; with one cluster, or
+ * when the others' Σω² is 0, it is absent. A cluster bootstrap of fewer than two
+ * clusters would be a single value, so it is absent too.
  */
-import { bootstrapErrorIntervals, type BootstrapIntervals } from './bootstrap';
+import { bootstrapErrorIntervals, clusterBootstrapIntervals, clusterSums, type BootstrapIntervals } from './bootstrap';
 import { centredMoments, concordanceFromMoments, pearsonFromMoments, quantileOfSorted } from './descriptive';
 import { ScienceInputError, requireFinite, requireNonNegative } from './errors';
 import { compensatedSum } from './summation';
@@ -32,8 +51,18 @@ export interface ErrorStatistics {
   maxAbsoluteErrorIndex: number;
   /** 100 × mean(|e| / |measured|). */
   meanAbsolutePercentageError: number;
+  /** mean(|e| / |measured|), a fraction. */
+  meanAbsoluteRelativeError: number;
   scaleFactor: number;
   rmseAfterScaling: number;
+  /** RMSE after scaling with λ fitted without the pair's own cluster (module header); absent below two clusters. */
+  rmseAfterScalingOutOfSample?: number;
+  /** Σ (e/σ)² / ν over the pairs with a combined uncertainty; absent when none has one. */
+  reducedChiSquare?: number;
+  /** ν: pairs with a combined uncertainty. */
+  chiSquarePairs?: number;
+  /** Number of distinct clusters (when clusters were given). */
+  clusterCount?: number;
   pearsonR: number;
   /** Lin's concordance correlation coefficient, 1/N moments. */
   concordance: number;
@@ -53,6 +82,8 @@ export interface ErrorStatisticsOptions {
   seed?: number;
   /** Confidence level of the bootstrap intervals, 0 < c < 1; default 0.95. */
   confidence?: number;
+  /** One cluster id per pair (e.g. the material): the bootstrap resamples whole clusters. */
+  clusters?: readonly (string | number)[];
 }
 
 /** Default number of bootstrap resamples. */
@@ -85,6 +116,51 @@ export function combinedUncertainty(pair: PairValue): number | undefined {
   return sigma > 0 ? sigma : undefined;
 }
 
+function readClusters(clusters: ErrorStatisticsOptions['clusters'], n: number): readonly (string | number)[] | undefined {
+  if (clusters === undefined) return undefined;
+  if (!Array.isArray(clusters)) throw new ScienceInputError('options.clusters', 'must be an array of cluster ids, one per pair');
+  if (clusters.length !== n) throw new ScienceInputError('options.clusters', `has ${clusters.length} ids for ${n} pairs; give one cluster id per pair`);
+  clusters.forEach((c, i) => {
+    if (!(typeof c === 'string' || (typeof c === 'number' && Number.isFinite(c)))) {
+      throw new ScienceInputError(`options.clusters[${i}]`, `must be a string or a finite number, got ${String(c)}`);
+    }
+  });
+  return clusters;
+}
+
+/** Out-of-sample RMSE after scaling (module header), or undefined below two clusters. */
+function outOfSampleRmseAfterScaling(measured: Float64Array, calculated: Float64Array, clusterOf: readonly string[]): number | undefined {
+  const n = measured.length;
+  const members = new Map<string, number[]>();
+  for (let i = 0; i < n; i++) (members.get(clusterOf[i]) ?? members.set(clusterOf[i], []).get(clusterOf[i])!).push(i);
+  if (members.size < 2) return undefined;
+  const products = new Float64Array(n);
+  const squares = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    products[i] = calculated[i] * measured[i];
+    squares[i] = calculated[i] * calculated[i];
+  }
+  const totalProducts = compensatedSum(products);
+  const totalSquares = compensatedSum(squares);
+  const residuals = new Float64Array(n);
+  for (const indices of members.values()) {
+    let inProducts = 0;
+    let inSquares = 0;
+    for (const i of indices) {
+      inProducts += products[i];
+      inSquares += squares[i];
+    }
+    const rest = totalSquares - inSquares;
+    if (!(rest > 0)) return undefined;
+    const lambda = (totalProducts - inProducts) / rest;
+    for (const i of indices) {
+      const r = lambda * calculated[i] - measured[i];
+      residuals[i] = r * r;
+    }
+  }
+  return Math.sqrt(compensatedSum(residuals) / n);
+}
+
 function readOptions(options: ErrorStatisticsOptions): { samples: number; seed: number; confidence: number } {
   const samples = options.bootstrapSamples ?? DEFAULT_BOOTSTRAP_SAMPLES;
   const seed = options.seed ?? DEFAULT_BOOTSTRAP_SEED;
@@ -107,6 +183,8 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
   validatePairs(pairs, 2);
   const { samples, seed, confidence } = readOptions(options);
   const n = pairs.length;
+  const clusters = readClusters(options.clusters, n);
+  const clusterOf = clusters ? clusters.map(String) : pairs.map((_, i) => String(i));
   const measured = new Float64Array(n);
   const calculated = new Float64Array(n);
   const errors = new Float64Array(n);
@@ -169,6 +247,7 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
     maxAbsoluteError,
     maxAbsoluteErrorIndex,
     meanAbsolutePercentageError: (100 * compensatedSum(relative)) / n,
+    meanAbsoluteRelativeError: compensatedSum(relative) / n,
     scaleFactor: lambda,
     rmseAfterScaling,
     pearsonR: pearsonFromMoments(moments),
@@ -179,22 +258,34 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
       upper: meanSignedError + BLAND_ALTMAN_Z * standardDeviation,
     },
   };
-  // Resampling the sorted errors makes the intervals independent of the order of the pairs.
-  if (samples > 0) statistics.bootstrap = bootstrapErrorIntervals(Float64Array.from(errors).sort(), samples, seed, confidence);
+  const outOfSample = outOfSampleRmseAfterScaling(measured, calculated, clusterOf);
+  if (outOfSample !== undefined) statistics.rmseAfterScalingOutOfSample = outOfSample;
+  if (clusters) {
+    const sums = clusterSums(errors, clusterOf);
+    statistics.clusterCount = sums.length;
+    if (samples > 0 && sums.length >= 2) statistics.bootstrap = clusterBootstrapIntervals(sums, samples, seed, confidence);
+  } else if (samples > 0) {
+    // Resampling the sorted errors makes the intervals independent of the order of the pairs.
+    statistics.bootstrap = bootstrapErrorIntervals(Float64Array.from(errors).sort(), samples, seed, confidence);
+  }
 
   let withUncertainty = 0;
   let withinOne = 0;
   let withinTwo = 0;
+  const chiTerms: number[] = [];
   for (let i = 0; i < n; i++) {
     const sigma = combinedUncertainty(pairs[i]);
     if (sigma === undefined) continue;
     withUncertainty++;
     if (absolute[i] <= sigma) withinOne++;
     if (absolute[i] <= 2 * sigma) withinTwo++;
+    chiTerms.push((errors[i] / sigma) ** 2);
   }
   if (withUncertainty > 0) {
     statistics.withinOneSigma = withinOne / withUncertainty;
     statistics.withinTwoSigma = withinTwo / withUncertainty;
+    statistics.reducedChiSquare = compensatedSum(chiTerms) / withUncertainty;
+    statistics.chiSquarePairs = withUncertainty;
   }
   return statistics;
 }

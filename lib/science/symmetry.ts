@@ -9,6 +9,11 @@
  *   Qualifier in parentheses at the end: "(high)", "(low)" (from high/hi/h, low/l, as in
  *           E2(high) of wurtzite), or "(TO)", "(LO)". Written "E2 high", "E_2^high", "E2^H",
  *           "E2(high)" they all become "E2(high)".
+ *   Ordinal a superscript number that tells apart two modes of one species in layered
+ *           crystals (E¹₂g and E²₂g of MoS2 or graphite), written as a superscript digit,
+ *           "^1" or "^{1}", before or after the index: E¹₂g, E^1_{2g}, E_{2g}^1 → "E2g^1".
+ *           It stays in the label, so E¹₂g and E²₂g are distinct labels; it is not part
+ *           of the species, so both match a computed E2g.
  * Whitespace, "_", "^", "{", "}" are dropped and the label is NFKC-normalised first.
  * A label that does not fit this pattern (e.g. Koster "Γ5+") is returned NFKC-normalised
  * with whitespace removed, so normalisation is still idempotent and deterministic.
@@ -63,21 +68,42 @@ export function normalizeIrrep(label: string): string {
   return normalized;
 }
 
+const SUPERSCRIPT_DIGITS: Record<string, string> = {
+  '⁰': '0', '¹': '1', '²': '2', '³': '3', '⁴': '4', '⁵': '5', '⁶': '6', '⁷': '7', '⁸': '8', '⁹': '9',
+};
+// An ordinal: a run of superscript digits, or "^" with digits (braces optional).
+const ORDINAL = /[⁰¹²³⁴⁵⁶⁷⁸⁹]+|\^\{?(\d+)\}?/g;
+
+function clean(text: string): string {
+  return text
+    .normalize('NFKC')
+    .replace(/[\u2032\u2019\u02B9\u00B4`]/g, "'")
+    .replace(/[\s_^{}]/g, '');
+}
+
+function mullikenForm(cleaned: string, ordinal: string): string | null {
+  const match = MULLIKEN.exec(cleaned);
+  if (!match) return null;
+  const [, letter, index, parity, primes, inParentheses, bare] = match;
+  const mulliken = letter.toUpperCase() === 'F' ? 'T' : letter.toUpperCase();
+  const qualifier = qualifierOf(inParentheses ?? bare);
+  return `${mulliken}${index}${parity.toLowerCase()}${primes}${ordinal ? `^${ordinal}` : ''}${qualifier}`;
+}
+
 function normalizeUncached(label: string): string {
   if (typeof label !== 'string' || label.trim() === '') {
     throw new ScienceInputError('label', 'must be a non-empty irreducible-representation label');
   }
-  const cleaned = label
-    .normalize('NFKC')
-    .replace(/[\u2032\u2019\u02B9\u00B4`]/g, "'")
-    .replace(/[\s_^{}]/g, '');
+  const cleaned = clean(label);
   if (cleaned === '') throw new ScienceInputError('label', `"${label}" has no symbol once spacing and markup are removed`);
-  const match = MULLIKEN.exec(cleaned);
-  if (!match) return cleaned;
-  const [, letter, index, parity, primes, inParentheses, bare] = match;
-  const mulliken = letter.toUpperCase() === 'F' ? 'T' : letter.toUpperCase();
-  const qualifier = qualifierOf(inParentheses ?? bare);
-  return `${mulliken}${index}${parity.toLowerCase()}${primes}${qualifier}`;
+  const ordinals = [...label.matchAll(ORDINAL)];
+  if (ordinals.length === 1) {
+    const found = ordinals[0];
+    const ordinal = found[1] ?? [...found[0]].map((c) => SUPERSCRIPT_DIGITS[c]).join('');
+    const withOrdinal = mullikenForm(clean(label.replace(ORDINAL, '')), String(Number(ordinal)));
+    if (withOrdinal) return withOrdinal;
+  }
+  return mullikenForm(cleaned, '') ?? cleaned;
 }
 
 const speciesCache = new Map<string, { species: string; branch?: 'TO' | 'LO' }>();
@@ -87,7 +113,7 @@ function speciesAndBranch(label: string): { species: string; branch?: 'TO' | 'LO
   if (entry === undefined) {
     const canonical = normalizeIrrep(label);
     const branch = /\((TO|LO)\)$/.exec(canonical)?.[1] as 'TO' | 'LO' | undefined;
-    entry = { species: canonical.replace(/\((high|low|TO|LO)\)$/, ''), branch };
+    entry = { species: canonical.replace(/\((high|low|TO|LO)\)$/, '').replace(/\^\d+$/, ''), branch };
     if (speciesCache.size >= CACHE_LIMIT) speciesCache.clear();
     speciesCache.set(label, entry);
   }

@@ -184,7 +184,8 @@ describe('watches and alerts', () => {
 
     const text = (await alertsFor(curator))[0].text!;
     expect(text).toContain(`revision ${firstRevision} → ${revision}`);
-    expect(text).toContain('raman-remeasured-e2e.csv — Lena Okafor');
+    // the alert names its cause: the import, who made it, and its share of the change
+    expect(text).toContain('Import “raman-remeasured-e2e.csv” by Lena Okafor');
     expect(text).toContain(`${base}/w/${slug}/benchmarks/${benchmarkId}/revisions/${revision}`);
     let moved = 0;
     for (const now of after) {

@@ -110,4 +110,77 @@ describe('benchmark page', () => {
     expect(await history.textContent()).toContain('Strained film; not comparable (e2e)');
     expect(await page.locator('[data-stat="excluded"]', { hasText: '1' }).count()).toBeGreaterThan(0);
   });
+
+  it('shows coverage, the common-pair ranking, the per-material table and the new breakdowns', async () => {
+    await page.goto(benchmarkUrl);
+    const basis = page.getByTestId('ranking-basis');
+    expect(await basis.textContent()).toMatch(/Ranked on the \d+ pairs that all 3 ranked methods share/);
+    const rows = page.getByTestId('leaderboard').locator('tbody tr[data-method]');
+    for (let i = 0; i < (await rows.count()); i++) {
+      expect(await rows.nth(i).locator('[data-stat="coverage"]').textContent()).toMatch(/\d+ %/);
+      expect(await rows.nth(i).locator('[data-stat="common-mae"] strong').textContent()).toMatch(/^\d+\.\d\d$/);
+    }
+    expect(await page.getByText(/resamples whole materials/).count()).toBeGreaterThan(0);
+    const materials = page.getByTestId('material-table');
+    await materials.waitFor();
+    const first = Number(await materials.locator('tbody tr').first().locator('[data-stat="mae"]').textContent());
+    const last = Number(await materials.locator('tbody tr').last().locator('[data-stat="mae"]').textContent());
+    expect(first).toBeGreaterThanOrEqual(last);
+    await materials.getByRole('button', { name: /^Material/ }).click();
+    const names = await materials.locator('tbody th').allTextContents();
+    expect(names).toEqual([...names].sort((a, b) => a.localeCompare(b)));
+    for (const title of ['Per symmetry species', 'Per branch (TO / LO)', 'Per technique']) expect(await page.getByRole('heading', { name: title }).count()).toBe(1);
+  });
+
+  it('imports an optical-only calculation set for a new method: every line pairs, and the method is not ranked above better-covered ones', async () => {
+    const label = `Optical-only recipe (e2e ${Date.now() % 100000})`;
+    await page.goto(`${base}/w/${DEMO_SLUG}/methods/new`);
+    await page.getByLabel('Label (unique)').fill(label);
+    await page.getByLabel('Functional').fill('PBEsol');
+    await page.getByRole('button', { name: 'Create method' }).click();
+    await page.waitForURL((url) => !url.pathname.endsWith('/methods/new'));
+
+    // the workspace and benchmark routes, read off the page's own download link
+    await page.goto(benchmarkUrl);
+    const pairsHref = (await page.getByRole('link', { name: 'Pairs (CSV)' }).getAttribute('href'))!;
+    const workspaceApi = pairsHref.split('/benchmarks/')[0];
+    const statisticsUrl = `${base}${pairsHref.split('/pairs')[0]}/statistics`;
+    const revisionNumber = async () => ((await (await page.request.get(statisticsUrl)).json()) as { revision: { number: number } }).revision.number;
+    const before = await revisionNumber();
+
+    // Si 520.45, Ge 300.7 and diamond 1332.7 cm⁻¹ are the demo's measured T2g lines (published values); these computed lines are invented.
+    const csv = [
+      'material,method,quantity,value,unit,source,irrep,activity,degeneracy',
+      `Si,${label},frequency,518.9,cm-1,demo-synthetic-2026,T2g,raman,3`,
+      `Ge,${label},frequency,299.8,cm-1,demo-synthetic-2026,T2g,raman,3`,
+      `C-diamond,${label},frequency,1329.5,cm-1,demo-synthetic-2026,T2g,raman,3`,
+    ].join('\n');
+    const res = await page.request.post(`${base}${workspaceApi}/imports?kind=calculations&fileName=optical-only.csv`, { headers: { origin: base, 'content-type': 'text/csv' }, data: `${csv}\n` });
+    expect(res.status(), await res.text()).toBe(201);
+    const outcome = (await res.json()) as { insertedCount: number; warnings: Array<{ message: string }>; warningCount: number };
+    expect(outcome.insertedCount).toBe(3);
+    // warned, not refused: each set lists 3 of 6 modes and marks no acoustic mode
+    expect(outcome.warningCount).toBe(3);
+    expect(outcome.warnings[0].message).toMatch(/lists 3 of the 3N = 6 modes .* marks no acoustic mode.*every optical line listed can pair/);
+
+    await expect.poll(revisionNumber, { timeout: 45_000, interval: 500 }).toBeGreaterThan(before);
+    await page.goto(benchmarkUrl);
+    const row = page.getByTestId('leaderboard').locator(`tbody tr[data-method="${label}"]`);
+    await row.waitFor();
+    expect(await row.getAttribute('data-ranked')).toBe('no');
+    expect(await row.locator('[data-stat="rank"]').textContent()).toBe('not ranked');
+    expect(await page.getByTestId('unranked').textContent()).toContain(label);
+
+    // every computed line paired: each of the three materials has a pair of the new method
+    const latestPairs = (await page.getByRole('link', { name: 'Pairs (CSV)' }).getAttribute('href'))!;
+    const pairsCsv = await (await page.request.get(`${base}${latestPairs}`)).text();
+    const mine = Papa.parse<Record<string, string>>(pairsCsv, { header: true, skipEmptyLines: true }).data.filter((r) => r.method === label);
+    expect(new Set(mine.map((r) => r.material))).toEqual(new Set(['Si', 'Ge', 'C-diamond']));
+    // the ranked methods keep ranks 1–3 above it
+    const ranks = await page.getByTestId('leaderboard').locator('tbody tr[data-ranked="yes"] [data-stat="rank"]').allTextContents();
+    expect(ranks.map(Number).sort()).toEqual([1, 2, 3]);
+    const order = await page.getByTestId('leaderboard').locator('tbody tr[data-method]').evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-method')));
+    expect(order.indexOf(label)).toBe(order.length - 1);
+    await screenshot(page, 'benchmark-optical-only');
+  });
 });

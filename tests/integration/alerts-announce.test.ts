@@ -2,14 +2,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { mailOutbox, member, watch } from '@/db/schema';
-import { watchAction } from '@/app/(app)/w/[workspace]/watches/actions';
 import { announceBenchmark } from '@/lib/alerts/announce';
 import { whenAlertsIdle } from '@/lib/alerts/scheduler';
 import { deliverDueMail, type DeliveryConfig } from '@/lib/mail/deliver';
-import { startFakeResend, type FakeResend } from '@/lib/mail/fake-resend-server';
-import { callAction } from '@/tests/support/actions';
-import { signInAs } from '@/tests/support/users';
-import { alertScenario, outboxTo } from './alerts-support';
+import type { FakeResend } from '@/lib/mail/fake-resend-server';
+import { alertScenario, alertSetup, outboxTo } from './alerts-support';
 
 let s: Awaited<ReturnType<typeof alertScenario>>;
 let fake: FakeResend;
@@ -23,15 +20,7 @@ async function watchOf(userId: string) {
 }
 
 beforeAll(async () => {
-  process.env.ALERT_DEBOUNCE_MS = '200';
-  fake = await startFakeResend();
-  process.env.RESEND_BASE_URL = fake.url;
-  s = await alertScenario();
-  await whenAlertsIdle();
-  await signInAs(curator().email);
-  expect((await callAction(watchAction, { workspaceId: s.workspaceId, benchmarkId: s.benchmarkId })).state).toMatchObject({ ok: true });
-  await signInAs(reviewer().email);
-  expect((await callAction(watchAction, { workspaceId: s.workspaceId, benchmarkId: s.benchmarkId })).state).toMatchObject({ ok: true });
+  ({ s, fake } = await alertSetup(['curator', 'reviewer']));
 });
 afterAll(async () => {
   await fake.close();
@@ -76,7 +65,7 @@ describe('alerts after new revisions', () => {
     expect(row).toContain(`+${change.toFixed(2)} cm⁻¹ (+${((change / first.mae) * 100).toFixed(1)} %)`);
     expect(row).toContain(`${first.n} → ${last.n}`);
     // the quiet import of mode 13 did not move the baseline, so it counts in this alert
-    for (const i of [13, 14, 15, 16]) expect(mail.textBody).toContain(`raman-mode-${i}.csv — contributor (1 row in scope)`);
+    for (const i of [13, 14, 15, 16]) expect(mail.textBody).toContain(`Import “raman-mode-${i}.csv” by contributor: 1 row entered the scope`);
     expect(mail.textBody).toContain('New outliers:');
     expect(mail.textBody).toContain(`/w/${s.ws.slug}/benchmarks/${s.benchmarkId}/revisions/5`);
     expect(mail.htmlBody).toContain('Oxides &lt;Raman&gt; &amp; IR');

@@ -5,11 +5,16 @@
  * one by one to move the statistics. Values are invented, for tests only.
  */
 import { eq } from 'drizzle-orm';
+import { expect } from 'vitest';
+import { watchAction } from '@/app/(app)/w/[workspace]/watches/actions';
+import { whenAlertsIdle } from '@/lib/alerts/scheduler';
+import { startFakeResend } from '@/lib/mail/fake-resend-server';
+import { callAction } from '@/tests/support/actions';
 import { db } from '@/db/client';
 import { importBatch, mailOutbox } from '@/db/schema';
 import { createBenchmark } from '@/db/queries/benchmarks';
 import { getRevision, recomputeBenchmark } from '@/db/queries/revisions';
-import { createWorkspaceWith } from '@/tests/support/users';
+import { createWorkspaceWith, signInAs } from '@/tests/support/users';
 import { addMaterial, addMeasurement, addMethod, addModeSet, addSource } from './benchmark-support';
 
 /** Error of each method at mode i, cm⁻¹ (calculated − measured). */
@@ -62,4 +67,18 @@ export async function alertScenario() {
 
 export async function outboxTo(email: string) {
   return db.select().from(mailOutbox).where(eq(mailOutbox.toAddress, email));
+}
+
+/** The fake mail provider, the scenario, and an immediate watch for each of the given members (signed in in turn). */
+export async function alertSetup(watchers: Array<'curator' | 'reviewer'>) {
+  process.env.ALERT_DEBOUNCE_MS = '200';
+  const fake = await startFakeResend();
+  process.env.RESEND_BASE_URL = fake.url;
+  const s = await alertScenario();
+  await whenAlertsIdle();
+  for (const role of watchers) {
+    await signInAs(s.ws.members[role].email);
+    expect((await callAction(watchAction, { workspaceId: s.workspaceId, benchmarkId: s.benchmarkId })).state).toMatchObject({ ok: true });
+  }
+  return { s, fake };
 }

@@ -133,7 +133,7 @@ beforeAll(async () => {
 describe('benchmark computation and revisions', () => {
   it('stores the definition with the rule defaults filled', async () => {
     const bm = await getBenchmark(ws.workspaceId, benchmarkId);
-    expect(bm?.rules.outlierRule).toEqual({ kind: 'modified-z', threshold: 3.5 });
+    expect(bm?.rules.outlierRule).toEqual({ kind: 'modified-z', threshold: 3.5, minN: 10 });
     expect(bm?.rules.maxRelativeDeviation).toBe(0.25);
     expect(bm?.scope.techniques).toEqual(['raman']);
   });
@@ -157,9 +157,10 @@ describe('benchmark computation and revisions', () => {
       expect(s.bootstrap!.meanAbsoluteError[0]).toBeLessThanOrEqual(want.mae);
       expect(s.bootstrap!.meanAbsoluteError[1]).toBeGreaterThanOrEqual(want.mae);
     }
-    // X: MAE 11, Y: MAE 5.1667 → Y ranks first
-    expect(rev!.statistics.methods[0].methodId).toBe(ids.methods.Y);
-    expect(rev!.statistics.methods[0].rank).toBe(1);
+    // X: MAE 11, Y: MAE 5.1667, but N = 6 is below the default ranking minimum of 10: both listed, neither ranked
+    expect(rev!.statistics.methods.map((m) => m.rank)).toEqual([null, null]);
+    expect(rev!.statistics.methods.map((m) => m.unranked)).toEqual(["N = 6 is below the benchmark's minimum of 10", "N = 6 is below the benchmark's minimum of 10"]);
+    expect(rev!.statistics.methods.map((m) => m.coverage)).toEqual([1, 1]);
     // per material class: oxide = A and C, 4 pairs per method
     const oxideX = rev!.statistics.classes.find((c) => c.group === 'oxide' && c.methodId === ids.methods.X)!;
     expect(oxideX.n).toBe(4);

@@ -126,7 +126,7 @@ describe('phonon DOS import', () => {
   it.each([
     ['a negative density', einstein().replace(',400,1', ',400,-1'), [{ row: 4, column: 'density' }]],
     ['a frequency that does not increase', einstein().replace(',401,0', ',399,0'), [{ row: 5, column: 'frequency' }]],
-    ['an imaginary (negative) frequency', einstein().replace(',0,0', ',-20,0'), [{ row: 2, column: 'frequency' }]],
+    ['imaginary weight (density at a negative frequency)', einstein().replace(',0,0', ',-20,0.5'), [{ row: 2, column: 'density' }]],
     ['an unknown material', einstein('GaN-zb'), [{ row: 2, column: 'material' }]],
     ['a material without atoms in the cell', einstein('Si'), [{ row: 2, column: 'material' }]],
   ])('refuses a file with %s (422) and writes nothing', async (_what, body, expected) => {
@@ -193,5 +193,29 @@ describe('phonon DOS import', () => {
     });
     const materials = (await refs.json()).materials as Array<{ name: string; atomsInCell: number | null }>;
     expect(Object.fromEntries(materials.map((m) => [m.name, m.atomsInCell]))).toEqual({ 'GaN-wz': 4, Si: null });
+  });
+});
+
+describe('DOS values per reduced formula unit, negative tails', () => {
+  it('"Ga2N2" gets the same per-formula-unit entropy as "GaN" (per GaN, as thermochemical tables), and a zero-density negative tail is accepted', async () => {
+    await signInAs(ws.members.contributor.email);
+    await db
+      .insert(material)
+      .values({ workspaceId: ws.workspaceId, name: 'GaN-x2', formula: 'Ga2N2', reducedFormula: 'GaN', atomsPerFormulaUnit: 4, elementCounts: { Ga: 2, N: 2 }, atomsInCell: 4 });
+    const tail = (name: string) =>
+      [HEADER, `${name},PBEsol-PAW-600,inhouse-2026,cm-1,-0.8,0`, `${name},PBEsol-PAW-600,inhouse-2026,cm-1,-0.2,0`]
+        .concat(einstein(name, 450).trim().split('\n').slice(1))
+        .join('\n') + '\n';
+    const res = await post(ws.workspaceId, tail('GaN-x2'), [298.15], 'doubled.csv');
+    expect(res.status).toBe(201);
+    const ref = await post(ws.workspaceId, einstein('GaN-wz', 450), [298.15], 'reference.csv');
+    expect(ref.status).toBe(201);
+    const entropyOf = async (response: Response) => {
+      const { importId } = (await response.json()) as { importId: string };
+      const rows = await db.select({ value: calculation.value }).from(calculation).where(and(eq(calculation.importId, importId), eq(calculation.quantity, 'entropy')));
+      return rows[0].value;
+    };
+    // Z = atoms in the cell / atoms per reduced formula unit = 4 / 2 for both (before: 4 / 4 for Ga2N2, per Ga2N2).
+    expect(await entropyOf(res)).toBeCloseTo(await entropyOf(ref), 10);
   });
 });

@@ -6,12 +6,14 @@ const SECRET = 'unit-test-secret-0123456789abcdef0123';
 const WATCH = '1b4e28ba-2fa1-11d2-883f-0016d3cca427';
 
 describe('watch thresholds', () => {
-  const benchmark = { maeCm1: 0.5, maeRelative: 0.05, nRelative: 0.1 };
+  const benchmark = { maeAbsolute: 0.5, maeRelative: 0.05, nRelative: 0.1 };
 
   it('takes each override the watcher set and the benchmark value for the rest', () => {
-    expect(effectiveThresholds(benchmark, { maeCm1: 2 })).toEqual({ maeCm1: 2, maeRelative: 0.05, nRelative: 0.1 });
+    // maeCm1 is the older name of maeAbsolute and is still accepted
+    expect(effectiveThresholds(benchmark, { maeCm1: 2 })).toEqual({ maeAbsolute: 2, maeRelative: 0.05, nRelative: 0.1 });
+    expect(effectiveThresholds(benchmark, { maeAbsolute: 3, maeCm1: 2 })).toEqual({ maeAbsolute: 3, maeRelative: 0.05, nRelative: 0.1 });
     expect(effectiveThresholds(benchmark, {})).toEqual(benchmark);
-    expect(effectiveThresholds(benchmark, { maeRelative: 0.2, nRelative: 0.5 })).toEqual({ maeCm1: 0.5, maeRelative: 0.2, nRelative: 0.5 });
+    expect(effectiveThresholds(benchmark, { maeRelative: 0.2, nRelative: 0.5 })).toEqual({ maeAbsolute: 0.5, maeRelative: 0.2, nRelative: 0.5 });
   });
 
   it('reads stored JSON, treating a broken value as no override', () => {

@@ -31,9 +31,23 @@ describe('DOS file reader', () => {
       [6, 'frequency'],
       [7, 'density'],
     ]);
-    expect(parsed.errors[0].reason).toMatch(/imaginary/);
+    // a negative row after the grid started is out of order (a negative tail comes first)
+    expect(parsed.errors[0].reason).toMatch(/increase strictly.*negative tail comes first/);
     expect(parsed.errors[2].reason).toMatch(/increase strictly.*row 5/);
     expect(parsed.errorCount).toBe(4);
+  });
+
+  it('accepts a negative tail with zero or negligible density (≤ 0.01 % of the peak) and leaves it out of the grid', () => {
+    const parsed = parseDosText(file('Si,PBE,s1,cm-1,-2,0', 'Si,PBE,s1,cm-1,-1,0.00005', 'Si,PBE,s1,cm-1,0,0', 'Si,PBE,s1,cm-1,10,1', 'Si,PBE,s1,cm-1,20,0'));
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.blocks[0].frequency).toEqual([0, 10, 20]);
+  });
+
+  it('refuses real imaginary weight with row, column and the limit', () => {
+    const parsed = parseDosText(file('Si,PBE,s1,cm-1,-15,0.2', 'Si,PBE,s1,cm-1,0,0', 'Si,PBE,s1,cm-1,10,1', 'Si,PBE,s1,cm-1,20,0'));
+    expect(parsed.errors.map((e) => [e.row, e.column])).toEqual([[2, 'density']]);
+    expect(parsed.errors[0].reason).toContain('Imaginary weight: density 0.2 at the negative frequency -15 (20 % of this DOS');
+    expect(parsed.errors[0].reason).toContain('at most 0.01 % of the largest density');
   });
 
   it('refuses a second source or unit inside one DOS, unknown units and non-numbers', () => {

@@ -3,7 +3,10 @@ import { ScienceInputError, crystalSystem, irrepSpecies, normalizeIrrep, parseFo
 
 describe('parseFormula', () => {
   it('parses simple, nested and bracketed formulas', () => {
-    expect(parseFormula('GaN')).toEqual({ counts: { Ga: 1, N: 1 }, atomsPerFormulaUnit: 2, reduced: 'GaN' });
+    expect(parseFormula('GaN')).toEqual({ counts: { Ga: 1, N: 1 }, atomsPerFormulaUnit: 2, reduced: 'GaN', atomsPerReducedFormulaUnit: 2 });
+    // Per formula unit means per reduced formula unit: "Ga2N2" is counted per GaN, as thermochemical tables are.
+    expect(parseFormula('Ga2N2')).toMatchObject({ atomsPerFormulaUnit: 4, reduced: 'GaN', atomsPerReducedFormulaUnit: 2 });
+    expect(parseFormula('Al4O6')).toMatchObject({ reduced: 'Al2O3', atomsPerReducedFormulaUnit: 5 });
     expect(parseFormula('Ca3(Al(OH)4)2').counts).toEqual({ Ca: 3, Al: 2, O: 8, H: 8 });
     expect(parseFormula('K4[Fe(CN)6]').counts).toEqual({ K: 4, Fe: 1, C: 6, N: 6 });
     expect(parseFormula('Co').counts).toEqual({ Co: 1 });

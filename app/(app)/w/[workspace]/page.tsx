@@ -54,7 +54,9 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
                   <span className="block text-xs text-ink-muted">
                     {b.best ? (
                       <>
-                        best MAE <span className="num">{b.best.mae.toFixed(2)}</span> {b.quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹'} ({b.best.label}, N = {b.best.n}) · {b.methodCount} methods · revision {b.revisionNumber}
+                        best MAE <span className="num">{b.best.mae.toFixed(2)}</span> {b.quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹'} ({b.best.label},{' '}
+                        {b.best.common ? `on the N = ${b.best.n} pairs the ${b.best.ranked} ranked methods share` : `N = ${b.best.n}`}
+                        {b.best.coverage != null ? `, coverage ${Math.round(100 * b.best.coverage)} %` : ''}) · {b.best.ranked} of {b.methodCount} methods ranked · revision {b.revisionNumber}
                       </>
                     ) : (
                       'no statistics yet'

@@ -52,7 +52,7 @@ export default async function BenchmarksPage({ params }: { params: Promise<{ wor
                 <td className="num px-3 py-2">
                   {b.methodCount} · {b.pairCount.toLocaleString('en')}
                 </td>
-                <td className="num px-3 py-2">{b.best ? `${b.best.mae.toFixed(2)} (${b.best.label}, N = ${b.best.n})` : '—'}</td>
+                <td className="num px-3 py-2">{b.best ? `${b.best.mae.toFixed(2)} (${b.best.label}, ${b.best.common ? "common " : ""}N = ${b.best.n})` : "—"}</td>
               </tr>
             ))}
           </tbody>

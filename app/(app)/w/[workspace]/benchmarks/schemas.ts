@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { BENCHMARK_QUANTITIES, OUTLIER_RULE_KINDS, REPEATED_MEASUREMENT_MODES, SCOPE_TECHNIQUES, type BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
+import { BENCHMARK_QUANTITIES, ENTROPY_BASES, OUTLIER_RULE_KINDS, OUTLIER_SCALES, REPEATED_MEASUREMENT_MODES, SCOPE_TECHNIQUES, type BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
 
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 const optionalNumber = (label: string) =>
@@ -28,11 +28,20 @@ export const benchmarkFormSchema = z.object({
   entropyTemperatureK: optionalNumber('The entropy temperature'),
   entropyToleranceK: optionalNumber('The temperature tolerance'),
   maxRelativeDeviationPercent: optionalNumber('The pairing window'),
+  labelledMaxRelativeDeviationPercent: optionalNumber('The labelled pairing window'),
   ambiguityCm1: optionalNumber('The ambiguity window'),
   outlierKind: z.enum(OUTLIER_RULE_KINDS, 'Choose an outlier rule.'),
   outlierThreshold: optionalNumber('The outlier threshold'),
+  /** Empty: follow the quantity (relative for frequencies). */
+  outlierScale: z.preprocess(blank, z.enum(OUTLIER_SCALES, 'Choose a scale.').optional()),
+  outlierMinN: optionalNumber('The outlier minimum N'),
+  rankMinN: optionalNumber('The ranking minimum N'),
+  rankMinCoveragePercent: optionalNumber('The ranking minimum coverage'),
+  entropyBasis: z.preprocess(blank, z.enum(ENTROPY_BASES, 'Choose a basis.').optional()),
   repeatedMeasurements: z.enum(REPEATED_MEASUREMENT_MODES, 'Choose how repeated measurements count.'),
   bandEdgesCm1: z.preprocess(splitCommas, z.array(z.coerce.number('Band edges must be numbers.').positive('Band edges must be positive numbers.'))),
+  alertMaeAbsolute: optionalNumber('The MAE alert threshold'),
+  /** Older name of alertMaeAbsolute. */
   alertMaeCm1: optionalNumber('The MAE alert threshold'),
   alertMaeRelativePercent: optionalNumber('The relative MAE alert threshold'),
   alertNRelativePercent: optionalNumber('The N alert threshold'),
@@ -60,12 +69,15 @@ export function definitionFromForm(f: BenchmarkForm): BenchmarkDefinitionInput {
     },
     rules: {
       maxRelativeDeviation: pct(f.maxRelativeDeviationPercent),
+      labelledMaxRelativeDeviation: pct(f.labelledMaxRelativeDeviationPercent),
       ambiguityCm1: f.ambiguityCm1,
-      outlierRule: { kind: f.outlierKind, threshold: f.outlierThreshold },
+      outlierRule: { kind: f.outlierKind, threshold: f.outlierThreshold, scale: f.outlierScale, minN: f.outlierMinN },
       repeatedMeasurements: f.repeatedMeasurements,
       bandEdgesCm1: f.bandEdgesCm1.length ? f.bandEdgesCm1 : undefined,
+      ranking: { minN: f.rankMinN, minCoverage: pct(f.rankMinCoveragePercent) },
+      entropyBasis: f.entropyBasis,
     },
-    alertThresholds: { maeCm1: f.alertMaeCm1, maeRelative: pct(f.alertMaeRelativePercent), nRelative: pct(f.alertNRelativePercent) },
+    alertThresholds: { maeAbsolute: f.alertMaeAbsolute ?? f.alertMaeCm1, maeRelative: pct(f.alertMaeRelativePercent), nRelative: pct(f.alertNRelativePercent) },
   };
 }
 

@@ -69,7 +69,7 @@ export default async function WatchesPage({ params }: { params: Promise<{ worksp
                   <WatchSettingsForm
                     workspaceId={ctx.workspace.id}
                     watch={{ id: w.id, mode: w.mode, thresholds: readWatchThresholds(w.thresholds) }}
-                    defaults={readAlertThresholds(w.benchmarkThresholds)}
+                    defaults={readAlertThresholds(w.benchmarkThresholds, w.benchmarkQuantity as 'frequency' | 'entropy')}
                     unit={unitOf(w.benchmarkQuantity as 'frequency' | 'entropy')}
                   />
                 )}

@@ -5,7 +5,7 @@ import { createBenchmarkAction, updateBenchmarkAction } from '../actions';
 import { SelectField, TextField, inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
-import { DEFAULT_OUTLIER_THRESHOLDS, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
+import { DEFAULT_MAE_ABSOLUTE, DEFAULT_OUTLIER_THRESHOLDS, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
 import { techniqueName } from '@/lib/benchmark/describe';
 
 const RULE_NAMES: Record<(typeof OUTLIER_RULE_KINDS)[number], string> = {
@@ -129,6 +129,15 @@ export function BenchmarkForm({
             errors={e.maxRelativeDeviationPercent ?? e['rules.maxRelativeDeviation']}
           />
           <TextField label="Ambiguity window (cm⁻¹)" name="ambiguityCm1" type="number" step="any" defaultValue={rules.ambiguityCm1} errors={e.ambiguityCm1} />
+          <TextField
+            label="Pairing window when both sides are labelled (± %)"
+            name="labelledMaxRelativeDeviationPercent"
+            type="number"
+            step="any"
+            defaultValue={rules.labelledMaxRelativeDeviation * 100}
+            errors={e.labelledMaxRelativeDeviationPercent ?? e['rules.labelledMaxRelativeDeviation']}
+            hint="A labelled pair is a firm assignment: a wider window keeps a badly computed line in the statistics."
+          />
         </div>
         <SelectField
           label="Outlier rule"
@@ -152,6 +161,40 @@ export function BenchmarkForm({
           defaultValue={ruleKind === rules.outlierRule.kind ? rules.outlierRule.threshold : DEFAULT_OUTLIER_THRESHOLDS[ruleKind]}
           errors={e.outlierThreshold ?? e['rules.outlierRule.threshold']}
         />
+        <div className="grid grid-cols-2 gap-3">
+          <SelectField label="Outlier scale (modified z, Tukey)" name="outlierScale" defaultValue={rules.outlierRule.scale ?? ''} errors={e.outlierScale}>
+            <option value="">By quantity (relative for frequencies)</option>
+            <option value="relative">Relative error (error / measured)</option>
+            <option value="absolute">Absolute error</option>
+          </SelectField>
+          <TextField
+            label="Flag outliers from N ="
+            name="outlierMinN"
+            type="number"
+            step="1"
+            defaultValue={rules.outlierRule.minN}
+            errors={e.outlierMinN ?? e['rules.outlierRule.minN']}
+            hint="Modified z and Tukey estimate a spread from the sample; on a handful of pairs they flag noise."
+          />
+        </div>
+        <div className="grid grid-cols-2 gap-3">
+          <TextField label="Rank a method from N =" name="rankMinN" type="number" step="1" defaultValue={rules.ranking.minN} errors={e.rankMinN ?? e['rules.ranking.minN']} />
+          <TextField
+            label="…and a coverage of at least (%)"
+            name="rankMinCoveragePercent"
+            type="number"
+            step="any"
+            defaultValue={rules.ranking.minCoverage * 100}
+            errors={e.rankMinCoveragePercent ?? e['rules.ranking.minCoverage']}
+            hint="Coverage = paired / measured values in scope. Below either rule a method is listed, not ranked."
+          />
+        </div>
+        {quantity === 'entropy' ? (
+          <SelectField label="Compare entropies" name="entropyBasis" defaultValue={rules.entropyBasis} errors={e.entropyBasis}>
+            <option value="formula-unit">Per mole of formula units (the reduced formula: per GaN, not Ga2N2)</option>
+            <option value="atom">Per mole of atoms (every material weighs alike)</option>
+          </SelectField>
+        ) : null}
         <SelectField label="Several measurements of one mode" name="repeatedMeasurements" defaultValue={rules.repeatedMeasurements} errors={e.repeatedMeasurements}>
           <option value="separate">Each measurement is its own pair</option>
           <option value="weighted-mean">One pair with their uncertainty-weighted mean</option>
@@ -162,7 +205,16 @@ export function BenchmarkForm({
       <fieldset className="space-y-3">
         <legend className="text-sm font-semibold">Alert thresholds (defaults for watchers)</legend>
         <div className="grid grid-cols-3 gap-3">
-          <TextField label="MAE change (cm⁻¹)" name="alertMaeCm1" type="number" step="any" defaultValue={alerts.maeCm1} errors={e.alertMaeCm1} />
+          <TextField
+            label={`MAE change (${quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹'})`}
+            name="alertMaeAbsolute"
+            type="number"
+            step="any"
+            defaultValue={alerts.maeAbsolute ?? alerts.maeCm1 ?? ''}
+            placeholder={String(DEFAULT_MAE_ABSOLUTE[quantity])}
+            errors={e.alertMaeAbsolute ?? e.alertMaeCm1}
+            hint="Blank: the default for the quantity."
+          />
           <TextField label="MAE change (%)" name="alertMaeRelativePercent" type="number" step="any" defaultValue={alerts.maeRelative * 100} errors={e.alertMaeRelativePercent} />
           <TextField label="N change (%)" name="alertNRelativePercent" type="number" step="any" defaultValue={alerts.nRelative * 100} errors={e.alertNRelativePercent} />
         </div>

@@ -12,6 +12,8 @@ import { EmptyState, Panel } from '@/components/ui/panel';
 import { Notice } from '@/components/ui/notice';
 import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
+import { MaterialTable } from './material-table';
+import { ENTROPY_CAUTION } from '@/lib/benchmark/compute';
 import { BreakdownTable } from './breakdown-table';
 import { BenchmarkPlots } from './benchmark-plots';
 import { MethodComparison } from './method-comparison';
@@ -123,6 +125,7 @@ export async function BenchmarkView({
   const importMap = new Map(importRows.map((r) => [r.id, { fileName: r.fileName, by: r.by, status: r.status }]));
 
   const pairByKey = new Map(snap.pairs.map((p) => [p.key, p]));
+  const excludedCount = snap.pairs.filter((p) => p.excluded !== null).length;
   const methodList = [...snap.methods].sort((a, b) => a.label.localeCompare(b.label)).map((m) => ({ methodId: m.methodId, label: m.label }));
   const methodLabel = new Map(snap.methods.map((m) => [m.methodId, m.label]));
   const flagged = snap.pairs.filter((p) => p.outlier !== null || p.excluded !== null);
@@ -142,8 +145,12 @@ export async function BenchmarkView({
       {watcher}
       {snap.quantity === 'entropy' ? (
         <Notice tone="warn">
-          Calorimetric (standard) entropies include electronic and anharmonic contributions; computed harmonic vibrational entropies do not. Compare with care, preferably for insulators and at
-          temperatures where anharmonicity is small.
+          <span data-testid="entropy-caution">{snap.caution ?? ENTROPY_CAUTION}</span>{' '}
+          <span data-testid="entropy-basis">
+            {snap.entropyBasis === 'atom'
+              ? 'Values are compared per mole of atoms (each formula-unit value divided by the atoms of the reduced formula), so every material weighs alike.'
+              : 'Values are compared per mole of formula units of the reduced formula (per GaN for a material written Ga2N2), as thermochemical tables give them.'}
+          </span>
         </Notice>
       ) : null}
 
@@ -158,7 +165,11 @@ export async function BenchmarkView({
         // one query client for the plots and the comparison, so the pairs are fetched once
         <QueryProvider>
           <Panel title="Leaderboard" actions={<AddToDeck workspaceId={workspace.id} kinds={['leaderboard']} benchmarkId={bm.id} revisionNumber={rev.number} />}>
-            <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} />
+            <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} ranking={snap.ranking} />
+            <p className="mt-1 text-xs text-ink-muted" data-testid="scope-counts">
+              {(snap.counts.measuredInScope ?? snap.counts.measurements).toLocaleString('en')} measured values in scope; {excludedCount.toLocaleString('en')} pair{excludedCount === 1 ? '' : 's'} excluded by decisions (kept in the
+              lists, out of every statistic).
+            </p>
           </Panel>
 
           <Panel title="Plots">
@@ -171,6 +182,13 @@ export async function BenchmarkView({
               />
           </Panel>
 
+          {snap.materialRows ? (
+            <Panel title="Per material">
+              <p className="mb-2 text-xs text-ink-muted">The crystals that break a method: its materials, worst MAE first. Sort by any column.</p>
+              <MaterialTable rows={snap.materialRows} methods={methodList} unit={snap.unit} slug={workspace.slug} />
+            </Panel>
+          ) : null}
+
           <div className="grid gap-4 xl:grid-cols-2">
             <Panel title="Per material class">
               <BreakdownTable rows={snap.classes} methods={methodList} groupTitle="Class (tag)" caption="Statistics per material class" />
@@ -178,6 +196,21 @@ export async function BenchmarkView({
             {snap.quantity === 'frequency' ? (
               <Panel title={`Per frequency band (${snap.unit})`}>
                 <BreakdownTable rows={snap.bands} methods={methodList} groupTitle="Measured band" caption="Statistics per frequency band" />
+              </Panel>
+            ) : null}
+            {snap.species?.length ? (
+              <Panel title="Per symmetry species">
+                <BreakdownTable rows={snap.species} methods={methodList} groupTitle="Species" caption="Statistics per irreducible-representation species" />
+              </Panel>
+            ) : null}
+            {snap.branches?.length ? (
+              <Panel title="Per branch (TO / LO)">
+                <BreakdownTable rows={snap.branches} methods={methodList} groupTitle="Branch" caption="Statistics per TO / LO branch" />
+              </Panel>
+            ) : null}
+            {snap.techniques?.length ? (
+              <Panel title="Per technique">
+                <BreakdownTable rows={snap.techniques.map((r) => ({ ...r, group: techniqueName(r.group === 'not stated' ? null : r.group) }))} methods={methodList} groupTitle="Technique" caption="Statistics per measurement technique" />
               </Panel>
             ) : null}
           </div>
@@ -196,7 +229,12 @@ export async function BenchmarkView({
 
           <Panel title={`Outliers and excluded pairs (${flagged.length})`} actions={<AddToDeck workspaceId={workspace.id} kinds={['outliers']} benchmarkId={bm.id} revisionNumber={rev.number} />}>
             <p className="mb-2 text-xs text-ink-muted">
-              Rule: {snap.rules.outlierRule.kind} with threshold {snap.rules.outlierRule.threshold}. Flagged pairs stay in the statistics until a curator excludes them.
+              Rule: {snap.rules.outlierRule.kind} with threshold {snap.rules.outlierRule.threshold}
+              {snap.outlierScale ? ` on the ${snap.outlierScale} error` : ''}
+              {snap.rules.outlierRule.minN && (snap.rules.outlierRule.kind === 'modified-z' || snap.rules.outlierRule.kind === 'tukey')
+                ? `, applied to methods with at least ${snap.rules.outlierRule.minN} included pairs`
+                : ''}
+              . Flagged pairs stay in the statistics until a curator excludes them.
             </p>
             {flagged.length === 0 ? (
               <p className="text-sm text-ink-muted">No pair is flagged or excluded.</p>
@@ -310,6 +348,15 @@ export async function BenchmarkView({
           )}
         </Panel>
         <Panel title={`Quality flags (${snap.quality.length})`}>
+          {snap.qualityNotApplied?.length ? (
+            <ul className="mb-2 space-y-1 text-xs text-ink-muted" data-testid="quality-not-applied">
+              {snap.qualityNotApplied.slice(0, 50).map((n, i) => (
+                <li key={i}>
+                  {n.code} · {methodLabel.get(n.methodId)} · {materialName(n.materialId)}: {n.reason}
+                </li>
+              ))}
+            </ul>
+          ) : null}
           {snap.quality.length === 0 ? (
             <p className="text-sm text-ink-muted">No calculation set in scope fails a quality check.</p>
           ) : (
@@ -324,9 +371,11 @@ export async function BenchmarkView({
         </Panel>
       </div>
 
-      <Panel title="Revision history">
-        <RevisionHistory history={history} base={base} current={rev.number} imports={importMap} decisions={decisionMap} />
-      </Panel>
+      <div id="revision-history">
+        <Panel title="Revision history">
+          <RevisionHistory history={history} base={base} current={rev.number} imports={importMap} decisions={decisionMap} />
+        </Panel>
+      </div>
 
       <Panel title="Cite and download">
         <div className="space-y-3 text-sm">

@@ -1,18 +1,18 @@
 import type { BreakdownRow } from '@/lib/benchmark/types';
 import { fmt, signed } from './format';
 
-/** Groups (material classes or frequency bands) × methods: N, mean signed error, MAE, RMSE. */
+/** Groups (material classes, frequency bands, species, branches, techniques) × methods: N, mean signed error, MAE, RMSE. */
 export function BreakdownTable({ rows, methods, groupTitle, caption }: { rows: BreakdownRow[]; methods: Array<{ methodId: string; label: string }>; groupTitle: string; caption: string }) {
   const groups = [...new Set(rows.map((r) => r.group))];
   const cell = new Map(rows.map((r) => [`${r.group}|${r.methodId}`, r]));
   if (groups.length === 0) return <p className="text-sm text-ink-muted">No included pairs.</p>;
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={`${caption} (scrolls sideways)`}>
       <table className="min-w-full border-collapse text-[13px]">
         <caption className="sr-only">{caption}</caption>
         <thead className="border-b border-rule">
           <tr>
-            <th className="px-2 py-1.5 text-left font-medium text-ink-muted">{groupTitle}</th>
+            <th className="sticky left-0 z-10 bg-panel px-2 py-1.5 text-left font-medium text-ink-muted">{groupTitle}</th>
             {methods.map((m) => (
               <th key={m.methodId} className="px-2 py-1.5 text-left font-medium text-ink-muted">
                 {m.label}
@@ -24,7 +24,9 @@ export function BreakdownTable({ rows, methods, groupTitle, caption }: { rows: B
         <tbody>
           {groups.map((g) => (
             <tr key={g} className="border-b border-rule/70">
-              <td className="px-2 py-1.5 font-medium">{g}</td>
+              <th scope="row" className="sticky left-0 z-10 bg-panel px-2 py-1.5 text-left font-medium">
+                {g}
+              </th>
               {methods.map((m) => {
                 const r = cell.get(`${g}|${m.methodId}`);
                 return (

@@ -18,7 +18,7 @@ export default async function EditBenchmarkPage({ params }: { params: Promise<{ 
       <BenchmarkForm
         workspaceId={ctx.workspace.id}
         benchmarkId={bm.id}
-        initial={{ name: bm.name, purpose: bm.purpose, scope: bm.scope, rules: bm.rules, alertThresholds: bm.alertThresholds }}
+        initial={{ name: bm.name, purpose: bm.purpose, scope: bm.scope, rules: bm.rules, alertThresholds: bm.storedAlertThresholds }}
         options={options}
       />
     </div>

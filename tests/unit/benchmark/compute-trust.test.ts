@@ -1,0 +1,189 @@
+/**
+ * The benchmark computation on worked cases: ranking on common ground, coverage, the
+ * ranking rule, outliers from a minimum N on the relative scale, the LO–TO flag of a
+ * method, clustered intervals, per-material rows, breakdowns and the entropy basis.
+ * Measured values are published ones (named); computed values are invented for the tests.
+ */
+import { describe, expect, it } from 'vitest';
+import { computeBenchmark } from '@/lib/benchmark/compute';
+import { readRules } from '@/lib/benchmark/schemas';
+import type { BenchmarkInput, ScopeCalculation, ScopeMeasurement } from '@/lib/benchmark/types';
+
+let seq = 0;
+const meas = (materialId: string, value: number, irrep: string | null, extra: Partial<ScopeMeasurement> = {}): ScopeMeasurement => ({
+  id: `m${String(++seq).padStart(4, '0')}`,
+  materialId,
+  sourceId: 'src',
+  importId: null,
+  value,
+  uncertainty: null,
+  temperatureK: 295,
+  irrep,
+  branch: null,
+  technique: 'raman',
+  ...extra,
+});
+const calc = (methodId: string, materialId: string, value: number, irrep: string | null, extra: Partial<ScopeCalculation> = {}): ScopeCalculation => ({
+  id: `c${String(++seq).padStart(4, '0')}`,
+  materialId,
+  methodId,
+  sourceId: 'calc',
+  importId: null,
+  value,
+  uncertainty: null,
+  temperatureK: null,
+  irrep,
+  branch: null,
+  activity: 'raman',
+  degeneracy: 1,
+  ...extra,
+});
+
+/** Twelve invented materials with four Raman lines each (values invented, 200–800 cm⁻¹). */
+function world() {
+  const materials = Array.from({ length: 12 }, (_, i) => ({ id: `mat${String(i).padStart(2, '0')}`, name: `Crystal ${i}`, formula: 'MgO', atomsInCell: 8, tags: [] as string[] }));
+  const measurements: ScopeMeasurement[] = [];
+  const lines = ['A1g', 'Eg', 'T2g', 'B1g'];
+  for (const m of materials) lines.forEach((l, k) => measurements.push(meas(m.id, 200 + 150 * k + 3 * Number(m.id.slice(3)), l)));
+  return { materials, measurements };
+}
+
+function input(over: Partial<BenchmarkInput>): BenchmarkInput {
+  return {
+    quantity: 'frequency',
+    rules: readRules({ bootstrapSamples: 200 }),
+    measurements: [],
+    calculations: [],
+    materials: [],
+    methods: [],
+    pins: [],
+    decisions: [],
+    ...over,
+  };
+}
+
+describe('ranking on common ground', () => {
+  const { materials, measurements } = world();
+  // A: 3 % low everywhere (MAE ≈ 12); B: 1.5 % low everywhere; C: an optical-only set for two materials, 0.2 % off.
+  const calculations = [
+    ...measurements.map((m) => calc('A', m.materialId, m.value * 0.97, m.irrep)),
+    ...measurements.map((m) => calc('B', m.materialId, m.value * 0.985, m.irrep)),
+    ...measurements.filter((m) => m.materialId <= 'mat01').map((m) => calc('C', m.materialId, m.value * 0.998, m.irrep)),
+  ];
+  const methods = ['A', 'B', 'C'].map((id) => ({ id, label: `Method ${id}`, kGrid: null, qGrid: null }));
+  const snap = computeBenchmark(input({ materials, measurements, calculations, methods }));
+  const by = new Map(snap.methods.map((m) => [m.methodId, m]));
+
+  it('every line of the optical-only set pairs, yet the method with N = 8 is listed, not ranked', () => {
+    expect(by.get('C')!.n).toBe(8);
+    expect(by.get('C')!.paired).toBe(8);
+    expect(by.get('C')!.coverage).toBeCloseTo(8 / 48, 12);
+    expect(by.get('C')!.rank).toBeNull();
+    expect(by.get('C')!.unranked).toBe("N = 8 is below the benchmark's minimum of 10");
+    expect(by.get('B')!.rank).toBe(1);
+    expect(by.get('A')!.rank).toBe(2);
+    expect(snap.methods.map((m) => m.methodId)).toEqual(['B', 'A', 'C']);
+  });
+
+  it('ranks on the pairs every ranked method shares, shows that N and each method’s own statistics beside', () => {
+    expect(snap.ranking).toMatchObject({ commonN: 48, rankedMethods: 2, minN: 10, minCoverage: 0.5, note: null });
+    expect(by.get('A')!.common!.n).toBe(48);
+    expect(by.get('A')!.common!.meanAbsoluteError).toBeCloseTo(by.get('A')!.statistics!.meanAbsoluteError, 12);
+  });
+
+  it('with the ranking rule off, the ranking rests on the pairs all three share (two materials)', () => {
+    const open = computeBenchmark(input({ materials, measurements, calculations, methods, rules: readRules({ bootstrapSamples: 0, ranking: { minN: 0, minCoverage: 0 } }) }));
+    expect(open.ranking!.commonN).toBe(8);
+    const c = open.methods.find((m) => m.methodId === 'C')!;
+    expect(c.rank).toBe(1);
+    expect(c.common!.n).toBe(8);
+  });
+
+  it('clusters the interval by material and leaves one material out for the scaled RMSE', () => {
+    const s = by.get('A')!.statistics!;
+    expect(s.bootstrap!.resampled).toBe('clusters');
+    expect(s.bootstrap!.clusterCount).toBe(12);
+    expect(s.clusterCount).toBe(12);
+    expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling);
+  });
+
+  it('lists each material of a method, worst first, and breaks down by species, branch and technique', () => {
+    const rowsA = snap.materialRows!.filter((r) => r.methodId === 'A');
+    expect(rowsA).toHaveLength(12);
+    expect(rowsA[0].meanAbsoluteError).toBeGreaterThanOrEqual(rowsA[11].meanAbsoluteError!);
+    expect(rowsA[0].n).toBe(4);
+    expect(new Set(snap.species!.map((r) => r.group))).toEqual(new Set(['A1g', 'Eg', 'T2g', 'B1g']));
+    expect(snap.branches!.map((r) => r.group)).toEqual(['no branch given', 'no branch given', 'no branch given']);
+    expect(snap.techniques!.every((r) => r.group === 'raman')).toBe(true);
+  });
+});
+
+describe('outliers', () => {
+  it('at N = 3 nothing is flagged (a −2.55 cm⁻¹ error was flagged by the modified z-score)', () => {
+    // Si 520.45 (Itoh & Shirono 2020), Ge 300.7 (Parker et al. 1967), diamond 1332.7 (PRB 2000).
+    const materials = ['si', 'ge', 'c'].map((id) => ({ id, name: id, formula: 'Si', atomsInCell: 2, tags: [] }));
+    const measurements = [meas('si', 520.45, 'T2g'), meas('ge', 300.7, 'T2g'), meas('c', 1332.7, 'T2g')];
+    const calculations = [calc('A', 'si', 520.15, 'T2g'), calc('A', 'ge', 300.45, 'T2g'), calc('A', 'c', 1330.15, 'T2g')];
+    const run = (outlierRule: object) =>
+      computeBenchmark(input({ materials, measurements, calculations, methods: [{ id: 'A', label: 'A', kGrid: null, qGrid: null }], rules: readRules({ bootstrapSamples: 0, outlierRule }) }));
+    expect(run({}).pairs.filter((p) => p.outlier)).toEqual([]);
+    expect(run({ minN: 1, scale: 'absolute' }).pairs.filter((p) => p.outlier).map((p) => p.materialId)).toEqual(['c']);
+  });
+
+  it('frequency benchmarks use the relative scale by default: a uniform bias flags no high line', () => {
+    const { materials, measurements } = world();
+    const highs = [meas('mat00', 1332.7, 'F2g'), meas('mat01', 1306, 'A1')];
+    const all = [...measurements, ...highs];
+    const calculations = all.map((m, i) => calc('A', m.materialId, m.value * (1 - 0.035 + 0.001 * Math.sin(i)), m.irrep));
+    const methods = [{ id: 'A', label: 'A', kGrid: null, qGrid: null }];
+    const relative = computeBenchmark(input({ materials, measurements: all, calculations, methods }));
+    expect(relative.outlierScale).toBe('relative');
+    expect(relative.pairs.filter((p) => p.outlier)).toEqual([]);
+    const absolute = computeBenchmark(input({ materials, measurements: all, calculations, methods, rules: readRules({ bootstrapSamples: 0, outlierRule: { scale: 'absolute' } }) }));
+    expect(absolute.pairs.filter((p) => p.outlier).map((p) => p.measured)).toEqual(expect.arrayContaining([1332.7, 1306]));
+  });
+});
+
+describe('the method’s LO–TO flag and the acoustic rule reach pairing', () => {
+  // GaAs LO 297.3, TO 273.3 cm⁻¹ (Hass & Henvis 1962); computed TO 265 is invented.
+  const materials = [{ id: 'gaas', name: 'GaAs', formula: 'GaAs', atomsInCell: 2, tags: [] }];
+  const measurements = [meas('gaas', 297.3, null, { branch: 'LO' }), meas('gaas', 273.3, null, { branch: 'TO', technique: 'ir-reflectance' })];
+  const calculations = [calc('A', 'gaas', 265, 'T2', { activity: 'raman+ir', degeneracy: 3 })];
+
+  it('a method without the correction pairs the TO peak only; an unknown flag pairs both', () => {
+    const run = (nonAnalyticCorrection: boolean | null) =>
+      computeBenchmark(input({ materials, measurements, calculations, methods: [{ id: 'A', label: 'A', kGrid: null, qGrid: null, nonAnalyticCorrection }] }));
+    const without = run(false);
+    expect(without.pairs.map((p) => p.measured)).toEqual([273.3]);
+    expect(without.methods[0].unpairedMeasurements).toBe(1);
+    // The set is optical-only (3 of 6 modes, no acoustic rows) and its line still pairs. Unknown (null): the LO
+    // peak pairs with the TO line too, as before (each spectrum pairs on its own).
+    expect(run(null).pairs.map((p) => p.measured).sort()).toEqual([273.3, 297.3]);
+  });
+});
+
+describe('entropy basis', () => {
+  // S°(298.15 K): Al 28.30, Al2O3 50.92 J mol⁻¹ K⁻¹ (CODATA Key Values, Cox, Wagman & Medvedev 1989); computed values invented.
+  const materials = [
+    { id: 'al', name: 'Al', formula: 'Al', atomsInCell: 1, tags: [] },
+    { id: 'al2o3', name: 'Al2O3', formula: 'Al4O6', atomsInCell: 10, tags: [] },
+    { id: 'ag', name: 'Ag', formula: 'Ag', atomsInCell: 1, tags: [] },
+  ];
+  const measurements = [meas('al', 28.3, null, { temperatureK: 298.15, technique: 'calorimetry' }), meas('al2o3', 50.92, null, { temperatureK: 298.15, technique: 'calorimetry' }), meas('ag', 42.55, null, { temperatureK: 298.15, technique: 'calorimetry' })];
+  const calculations = [calc('A', 'al', 27.3, null, { temperatureK: 298.15, activity: null }), calc('A', 'al2o3', 45.92, null, { temperatureK: 298.15, activity: null }), calc('A', 'ag', 41.55, null, { temperatureK: 298.15, activity: null })];
+  const run = (entropyBasis: 'formula-unit' | 'atom') =>
+    computeBenchmark(input({ quantity: 'entropy', materials, measurements, calculations, methods: [{ id: 'A', label: 'A', kGrid: null, qGrid: null }], rules: readRules({ bootstrapSamples: 0, entropyBasis }), entropyWindow: { temperatureK: 298.15, toleranceK: 1 } }));
+
+  it('per atom divides by the atoms of the reduced formula (Al4O6 → Al2O3: 5), so Al2O3 no longer weighs five times Al', () => {
+    const fu = run('formula-unit');
+    const atom = run('atom');
+    expect(fu.methods[0].statistics!.meanAbsoluteError).toBeCloseTo((1 + 5 + 1) / 3, 12);
+    expect(atom.methods[0].statistics!.meanAbsoluteError).toBeCloseTo((1 + 1 + 1) / 3, 12);
+    expect(atom.entropyBasis).toBe('atom');
+  });
+
+  it('the caution names the terms a harmonic value leaves out', () => {
+    const caution = run('formula-unit').caution!;
+    for (const term of ['Cp − Cv', 'electronic', 'magnetic', 'configurational']) expect(caution).toContain(term);
+  });
+});
