@@ -42,13 +42,14 @@ const peak = (extra: Record<string, string> = {}) => ({
 });
 
 type Saved = { importId: string; duplicate: boolean };
+const savedOf = (outcome: { state?: unknown }): Saved => (outcome.state as { data: Saved }).data;
 
 describe('single entry', () => {
   it('stores one measured peak as a one-row import: canonical value, text as typed, audit row', async () => {
     await signInAs(contributor.email);
     const out = await callAction(createSingleEntryAction, peak());
     expect(out.state).toMatchObject({ ok: true });
-    const { importId, duplicate } = (out.state as { data: Saved }).data;
+    const { importId, duplicate } = savedOf(out);
     expect(duplicate).toBe(false);
     const [batch] = await db.select().from(importBatch).where(eq(importBatch.id, importId));
     expect(batch).toMatchObject({ kind: 'measurements', via: 'form', rowCount: 1, insertedCount: 1, createdBy: contributor.id });
@@ -80,7 +81,7 @@ describe('single entry', () => {
     const mode = { workspaceId: ws.workspaceId, kind: 'calculations', material: 'Si', method: 'PBEsol-PAW-600', quantity: 'frequency', value: '-12.5', unit: 'cm-1', mode_index: '4', irrep: 'T2g', source: 'inhouse-2026' };
     const first = await callAction(createSingleEntryAction, mode);
     expect(first.state).toMatchObject({ ok: true });
-    const id = (first.state as { data: Saved }).data.importId;
+    const id = savedOf(first).importId;
     expect(await db.$count(calculation, eq(calculation.importId, id))).toBe(1);
     const again = await callAction(createSingleEntryAction, mode);
     expect(again.state).toMatchObject({ ok: true, data: { duplicate: true } });
@@ -98,7 +99,7 @@ describe('who may undo an import', () => {
   async function entry(email: string, value: string): Promise<string> {
     await signInAs(email);
     const out = await callAction(createSingleEntryAction, peak({ value, unit: 'cm-1' }));
-    return (out.state as { data: Saved }).data.importId;
+    return savedOf(out).importId;
   }
   const undo = (importId: string) => callAction(undoImportAction, { workspaceId: ws.workspaceId, importId, reason: 'typed the wrong peak' });
 
