@@ -4,7 +4,6 @@ import Link from 'next/link';
 import { DataTable, type DataTableState } from '@/components/data-table/data-table';
 import { DataTableToolbar, type ToolbarFilter } from '@/components/data-table/data-table-toolbar';
 import { createDataColumnHelper } from '@/components/data-table/features';
-import { UrlTextFilter } from './url-text-filter';
 import type { ValueRow } from './value-row';
 import { asEntered, CANONICAL_UNIT_SYMBOL, unitSymbol } from '@/lib/format';
 
@@ -121,13 +120,14 @@ export function ValuesTable({ slug, kind, rows, rowCount, state, filters }: Valu
   const columns = useMemo(() => columnsFor(slug, kind), [slug, kind]);
   return (
     <div className="space-y-3">
-      <div className="flex flex-wrap items-end gap-3">
-        <div className="min-w-0 flex-[3]">
-          <DataTableToolbar placeholder="Filter by material name…" filters={filters} />
-        </div>
-        <UrlTextFilter param="source" label="Source cite key" placeholder="e.g. azuhata" />
-        <UrlTextFilter param="import" label="Import id" placeholder="exact id" />
-      </div>
+      <DataTableToolbar
+        search="Material name"
+        filters={filters}
+        texts={[
+          { param: 'source', label: 'source cite key contains', placeholder: 'e.g. azuhata' },
+          { param: 'import', label: 'import id is', placeholder: 'exact id' },
+        ]}
+      />
       <DataTable
         caption={kind === 'measurements' ? 'Measurements' : 'Calculations'}
         columns={columns}
@@ -135,7 +135,7 @@ export function ValuesTable({ slug, kind, rows, rowCount, state, filters }: Valu
         rowCount={rowCount}
         state={state}
         rowClassName={(r) => (r.retracted ? 'text-ink-faint line-through decoration-ink-faint/40' : '')}
-        emptyMessage={`No ${kind} match. Clear the filters, or import some on the Imports page.`}
+        emptyMessage={`No ${kind === 'measurements' ? 'measurement' : 'calculation'} meets these conditions. Reset them, add one, or import a file on the Imports page.`}
       />
     </div>
   );
