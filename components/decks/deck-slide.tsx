@@ -25,13 +25,13 @@ interface Citation {
 
 const CITATIONS_SHOWN = 24;
 
-function Citations({ items, mode }: { items: Citation[]; mode: SlideMode }) {
+function Citations({ items, columns }: { items: Citation[]; columns: 1 | 2 | 3 }) {
   if (items.length === 0) return null;
   const shown = items.slice(0, CITATIONS_SHOWN);
   return (
     <div className="text-xs text-ink-muted" data-testid="slide-citations">
       <p className="font-medium text-ink">Sources ({items.length})</p>
-      <ul className={mode === 'print' ? 'columns-2 gap-6' : 'columns-3 gap-6'}>
+      <ul className={columns === 1 ? '' : columns === 2 ? 'columns-2 gap-6' : 'columns-3 gap-6'}>
         {shown.map((c) => (
           <li key={c.key} className="break-inside-avoid">
             <span className="font-mono">{c.key}</span> — {c.text}
@@ -74,17 +74,23 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
   const big = mode === 'present';
   const isPlot = (PLOT_KINDS as readonly string[]).includes(entry.viewKind) || entry.viewKind === 'comparison';
   const note = entry.note ? <p className={`${big ? 'text-xl' : 'text-sm'} whitespace-pre-wrap border-l-4 border-accent pl-3`} data-testid="slide-note">{entry.note}</p> : null;
+  // On screen a plot is square and limited by the height: its note, threads and sources go beside it, not under it.
+  const beside = big && isPlot;
   const shell = (subtitle: React.ReactNode, body: React.ReactNode, footer: React.ReactNode) => (
     <article className="flex h-full flex-col gap-3" data-testid="slide" data-kind={entry.viewKind}>
       <header>
         <h2 className={big ? 'text-3xl font-semibold tracking-tight' : 'text-xl font-semibold'}>{heading}</h2>
         <div className={`${big ? 'text-base' : 'text-xs'} text-ink-muted`}>{subtitle}</div>
       </header>
-      <div className={`min-h-0 flex-1 ${big && !isPlot ? 'overflow-auto' : ''} ${big ? 'text-base' : 'text-[13px]'}`} tabIndex={big && !isPlot ? 0 : undefined} data-testid="slide-body">
-        {body}
+      <div className={beside ? 'grid min-h-0 flex-1 grid-cols-[minmax(0,1fr)_18rem] gap-6' : 'contents'}>
+        <div className={`min-h-0 flex-1 ${big && !isPlot ? 'overflow-auto' : ''} ${big ? 'text-base' : 'text-[13px]'}`} tabIndex={big && !isPlot ? 0 : undefined} data-testid="slide-body">
+          {body}
+        </div>
+        <div className={beside ? 'min-h-0 space-y-3 overflow-auto' : 'contents'}>
+          {part === 0 ? note : null}
+          <footer className="space-y-2">{footer}</footer>
+        </div>
       </div>
-      {part === 0 ? note : null}
-      <footer className="space-y-2">{footer}</footer>
     </article>
   );
 
@@ -113,7 +119,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
       <MaterialValuesSection slug={workspace.slug} materialId={entry.material.id} materialName={entry.material.name} values={values} selectedMethodId={selected?.methodId} />,
       <>
         <ThreadCount count={threads.filter((t) => !t.resolvedAt).length} mode={mode} />
-        <Citations items={keys.map((k) => ({ key: k, text: 'see Sources', doi: null }))} mode={mode} />
+        <Citations items={keys.map((k) => ({ key: k, text: 'see Sources', doi: null }))} columns={mode === 'print' ? 2 : 3} />
       </>,
     );
   }
@@ -241,7 +247,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
           <Link href={`/w/${workspace.slug}/benchmarks/${bm.id}/revisions/${rev.number}`}>Open revision {rev.number}</Link>
         </p>
       ) : null}
-      <Citations items={citationsOf(shownPairs, lookups.sources)} mode={mode} />
+      <Citations items={citationsOf(shownPairs, lookups.sources)} columns={beside ? 1 : mode === 'print' ? 2 : 3} />
     </>,
   );
 }

@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Locator, Page } from 'playwright-core';
 import { newBrowser, screenshot } from './support/browser';
 import { waitForMail } from './support/mailbox';
+import { addViewToDeck, panel as sectionUnder } from './support/decks';
 
 const base = inject('baseURL');
 const mailURL = inject('mailURL');
@@ -29,27 +30,10 @@ afterAll(async () => {
   await browser?.close();
 });
 
-function panel(heading: RegExp): Locator {
-  return page.locator('section', { has: page.getByRole('heading', { name: heading }) }).first();
-}
+const panel = (heading: RegExp) => sectionUnder(page, heading);
 
 async function addToDeck(section: Locator, kind: string) {
-  await section.getByRole('button', { name: 'Add to deck' }).first().click();
-  const dialog = page.getByRole('dialog', { name: 'Add this view to a deck' });
-  const deckSelect = dialog.getByRole('combobox', { name: 'Deck' });
-  await deckSelect.waitFor();
-  if (deckId) await deckSelect.selectOption(deckId);
-  else {
-    await deckSelect.selectOption('');
-    await dialog.getByLabel('New deck title').fill(deckTitle);
-  }
-  await dialog.getByRole('combobox', { name: 'View' }).selectOption(kind);
-  await dialog.getByLabel('Note').fill(`Saved from the ${kind} view`);
-  await dialog.getByRole('button', { name: 'Add view' }).click();
-  const open = dialog.getByRole('link', { name: 'Open the deck' });
-  await open.waitFor();
-  deckId ||= (await open.getAttribute('href'))!.split('/').pop()!;
-  await dialog.getByRole('button', { name: 'Close' }).click();
+  deckId = await addViewToDeck(page, section, kind, deckId ? { deckId } : { newTitle: deckTitle });
 }
 
 async function methodN(label: string): Promise<number> {

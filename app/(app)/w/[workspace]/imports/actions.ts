@@ -21,5 +21,5 @@ export const undoImportAction = workspaceAction('imports:create', undoImportSche
   if (retracted > 0) scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'import-undone', importId: input.importId, userId: ctx.user.id });
   revalidatePath(`/w/${ctx.workspace.slug}/imports`);
   revalidatePath(`/w/${ctx.workspace.slug}/imports/${input.importId}`);
-  return { ok: true, message: `Import undone: ${count(retracted)} rows retracted.` };
+  return { ok: true, message: `Import undone: ${count(retracted)} ${retracted === 1 ? 'row' : 'rows'} retracted.` };
 });
