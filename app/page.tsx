@@ -8,10 +8,10 @@ import { SpectrumMark } from '@/components/front/spectrum-mark';
 export const metadata: Metadata = { title: { absolute: 'Lattice Ledger — computed phonons held against experiment' } };
 
 const WHO: Array<{ who: string; what: string }> = [
-  { who: 'Method developers', what: 'push mode lists and entropies from a workflow (CSV or API) and see which recipe reproduces experiment best, with intervals, per material class.' },
-  { who: 'Experimentalists', what: 'add Raman, IR and neutron peaks and calorimetric entropies with uncertainty and a citation on every row, and see where theory disagrees.' },
-  { who: 'Group meetings', what: 'review parity plots and outliers together, record a decision with its reason, and present a deck of saved views.' },
-  { who: 'Curators', what: 'invite members with roles, set quality thresholds, approve exclusions and keep every revision reproducible.' },
+  { who: 'Method developers', what: 'Push mode lists and entropies from a workflow (CSV or API) and see which recipe reproduces experiment best, with intervals, per material class.' },
+  { who: 'Experimentalists', what: 'Add Raman, IR and neutron peaks and calorimetric entropies with uncertainty and a citation on every row, and see where theory disagrees.' },
+  { who: 'Group meetings', what: 'Review parity plots and outliers together, record a decision with its reason, and present a deck of saved views.' },
+  { who: 'Curators', what: 'Invite members with roles, set quality thresholds, approve exclusions and keep every revision reproducible.' },
 ];
 
 /** Signed in: the workspaces. Signed out: one screen on what this is and for whom. */

@@ -13,6 +13,7 @@
  *   withUnit(text, unit) the number and its unit joined by a no-break space
  *   header(label, unit)  a column header with its unit: "MAE (cm⁻¹)"
  *   utcMinute(date)      "2026-03-12 09:41 UTC"
+ *   trueMinus(text)      a sentence that already holds numbers ("z-score -5.14") with true minus signs
  * For machines (CSV, JSON):
  *   csvNumber(v)         ASCII minus, no float noise (11.399999999999977 → 11.4), full real precision
  *
@@ -197,6 +198,11 @@ const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy
 export function storedValue(row: { quantity: string; value: number; valueText: string; unit: string }): string {
   const same = CANONICAL_UNIT_CODE[row.quantity] === row.unit;
   return withUnit(asEntered(row.value, row.valueText, same), CANONICAL_UNIT_SYMBOL[row.quantity]);
+}
+
+/** Hyphen-minus signs of the numbers in a text ("modified z-score -5.14 beyond ±3.5") as true minus signs; hyphens in words stay. */
+export function trueMinus(text: string): string {
+  return text.replace(/(^|[^\w.\-])-(?=\.?\d)/g, `$1${MINUS}`);
 }
 
 /** "2026-03-12 09:41 UTC": minutes, in UTC, so every reader sees the same time. */

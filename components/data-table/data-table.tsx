@@ -1,5 +1,5 @@
 'use client';
-import { useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { useTable, type ColumnDef, type PaginationState, type SortingState, type Updater } from '@tanstack/react-table';
 import { dataTableFeatures, type DataTableFeatures } from './features';
@@ -29,6 +29,26 @@ export interface DataTableProps<TData extends { id: string }> {
 /** Above this many rows on a page only the visible ones are rendered. */
 const VIRTUALISE_FROM = 100;
 const ROW_HEIGHT = 33;
+
+/** True while a table wider than its box has columns out of sight on the right (a cue to scroll sideways). */
+function useMoreToTheRight(ref: React.RefObject<HTMLDivElement | null>): boolean {
+  const [more, setMore] = useState(false);
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    const check = () => setMore(el.scrollLeft + el.clientWidth < el.scrollWidth - 4);
+    check();
+    const observer = new ResizeObserver(check);
+    observer.observe(el);
+    if (el.firstElementChild) observer.observe(el.firstElementChild);
+    el.addEventListener('scroll', check, { passive: true });
+    return () => {
+      observer.disconnect();
+      el.removeEventListener('scroll', check);
+    };
+  }, [ref]);
+  return more;
+}
 
 function resolve<T>(updater: Updater<T>, current: T): T {
   return typeof updater === 'function' ? (updater as (old: T) => T)(current) : updater;
@@ -80,9 +100,15 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
   const padBottom = items?.length ? virtualizer.getTotalSize() - items[items.length - 1].end : 0;
   const visible = items ? items.map((i) => rows[i.index]) : rows;
   const columnCount = table.getAllLeafColumns().length;
+  const moreToTheRight = useMoreToTheRight(scrollRef);
 
   return (
-    <div className="space-y-2" aria-busy={pending}>
+    <div className="relative space-y-2" aria-busy={pending}>
+      {moreToTheRight && (
+        <div aria-hidden className="pointer-events-none absolute top-0 right-0 z-20 flex h-9 items-center rounded-tr-md bg-gradient-to-l from-panel via-panel/90 to-transparent pr-2 pl-8 text-[11px] font-medium text-accent" data-testid="scroll-cue">
+          more columns →
+        </div>
+      )}
       <div ref={scrollRef} className={`overflow-auto rounded-md border border-rule-strong bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
         <table className="w-full border-collapse text-sm">
           {caption && <caption className="sr-only">{caption}</caption>}

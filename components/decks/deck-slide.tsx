@@ -10,7 +10,7 @@ import type { PairRecord } from '@/lib/benchmark/types';
 import { Notice } from '@/components/ui/notice';
 import { Leaderboard } from '@/app/(app)/w/[workspace]/benchmarks/_components/leaderboard';
 import { MaterialValuesSection } from '@/app/(app)/w/[workspace]/materials/_components/material-values';
-import { fixed, plain, pValue, signed, utcMinute } from '@/lib/format';
+import { fixed, plain, pValue, signed, trueMinus, utcMinute } from '@/lib/format';
 import { SlidePlot, type SlidePlotKind } from './slide-plot';
 import { PLOT_KINDS, VIEW_KIND_LABELS } from './view-kinds';
 import { flaggedPairs, ROWS_PER_SLIDE, type SlideMode } from './slide-parts';
@@ -74,15 +74,16 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
   const big = mode === 'present';
   const isPlot = (PLOT_KINDS as readonly string[]).includes(entry.viewKind) || entry.viewKind === 'comparison';
   const note = entry.note ? <p className={`${big ? 'text-xl' : 'text-sm'} whitespace-pre-wrap border-l-4 border-accent pl-3`} data-testid="slide-note">{entry.note}</p> : null;
-  // On screen a plot is square and limited by the height: its note, threads and sources go beside it, not under it.
-  const beside = big && isPlot;
+  // A plot is limited by the height of a screen or a landscape page: its note, threads and sources go beside it, not under it
+  // (the faceted histogram is too wide for that on paper).
+  const beside = isPlot && (big || entry.viewKind !== 'histogram');
   const shell = (subtitle: React.ReactNode, body: React.ReactNode, footer: React.ReactNode) => (
     <article className="flex h-full flex-col gap-3" data-testid="slide" data-kind={entry.viewKind}>
       <header>
         <h2 className={big ? 'text-3xl font-semibold tracking-tight' : 'text-xl font-semibold'}>{heading}</h2>
         <div className={`${big ? 'text-base' : 'text-xs'} text-ink-muted`}>{subtitle}</div>
       </header>
-      <div className={beside ? 'grid min-h-0 flex-1 grid-cols-[minmax(0,1fr)_18rem] gap-6' : 'contents'}>
+      <div className={beside ? `grid min-h-0 flex-1 gap-6 ${big ? 'grid-cols-[minmax(0,1fr)_18rem]' : 'grid-cols-[minmax(0,1fr)_15rem]'}` : 'contents'}>
         <div className={`min-h-0 flex-1 ${big && !isPlot ? 'overflow-auto' : ''} ${big ? 'text-base' : 'text-[13px]'}`} tabIndex={big && !isPlot ? 0 : undefined} data-testid="slide-body">
           {body}
         </div>
@@ -166,27 +167,28 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
               <tr>
                 <th className="px-2 py-1 font-medium">Pair</th>
                 <th className="px-2 py-1 font-medium">Method</th>
-                <th className="px-2 py-1 text-right font-medium">Measured → calculated ({snap.unit})</th>
-                <th className="px-2 py-1 text-right font-medium">Error ({snap.unit})</th>
+                <th className="px-2 py-1 text-right font-medium whitespace-nowrap">Measured → calculated ({snap.unit})</th>
+                <th className="px-2 py-1 text-right font-medium whitespace-nowrap">Error ({snap.unit})</th>
                 <th className="px-2 py-1 font-medium">Why</th>
-                <th className="px-2 py-1 font-medium">Source</th>
-                <th className="px-2 py-1 font-medium">Open threads</th>
+                <th className="px-2 py-1 font-medium">Sources</th>
+                <th className="px-2 py-1 text-right font-medium">Threads</th>
               </tr>
             </thead>
             <tbody>
               {flagged.map((p) => (
                 <tr key={p.key} className="border-b border-rule/70 align-top">
-                  <td className="px-2 py-1">
+                  <td className="px-2 py-1 whitespace-nowrap">
                     {[materialName(p.materialId), p.label].filter(Boolean).join(' ')} <span className="text-ink-faint">{techniqueName(p.technique)}</span>
                   </td>
-                  <td className="px-2 py-1">{methodLabel.get(p.methodId)}</td>
+                  <td className="px-2 py-1 whitespace-nowrap">{methodLabel.get(p.methodId)}</td>
                   <td className="num whitespace-nowrap px-2 py-1 text-right">
                     {plain(p.measured)} → {fixed(p.calculated, 2)}
                   </td>
                   <td className="num px-2 py-1 text-right">{signed(p.error)}</td>
-                  <td className="px-2 py-1">{p.excluded !== null ? <span className="text-bad">Excluded: {p.excluded}</span> : <span className="text-warn">{p.outlier}</span>}</td>
-                  <td className="px-2 py-1">{p.sourceIds.map((id) => lookups.sources.get(id)?.citation ?? '—').join('; ')}</td>
-                  <td className="num px-2 py-1">{openCounts.get(p.key) ?? 0}</td>
+                  <td className="px-2 py-1">{p.excluded !== null ? <span className="text-bad">Excluded: {trueMinus(p.excluded)}</span> : <span className="text-warn">{trueMinus(p.outlier ?? '')}</span>}</td>
+                  {/* cite keys here; the full citations are listed under the table */}
+                  <td className="px-2 py-1 font-mono text-[0.8em]">{p.sourceIds.map((id) => lookups.sources.get(id)?.citeKey ?? '—').join(', ')}</td>
+                  <td className="num px-2 py-1 text-right">{openCounts.get(p.key) ?? 0}</td>
                 </tr>
               ))}
             </tbody>

@@ -9,7 +9,7 @@ export type SlideMode = 'present' | 'print';
  * Rows of a table slide that fit one screen (1280 × 720, text-base) or one A4
  * landscape page; a longer table continues on the next slide instead of being cut.
  */
-export const ROWS_PER_SLIDE: Record<SlideMode, number> = { present: 7, print: 14 };
+export const ROWS_PER_SLIDE: Record<SlideMode, number> = { present: 7, print: 12 };
 
 /** The flagged or excluded pairs an outlier slide lists, in the methods it shows. */
 export function flaggedPairs(pairs: readonly PairRecord[], hiddenMethods: readonly string[] = []): PairRecord[] {

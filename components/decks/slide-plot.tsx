@@ -90,7 +90,7 @@ export function SlidePlot({
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 500, height: forPrint ? 420 : 360 }), n: visible.length };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), n: visible.length };
       case 'histogram':
         return { spec: errorHistogramSpec(visible, { unit, methods: labels }), n: visible.length };
       case 'residuals':
@@ -114,7 +114,7 @@ export function SlidePlot({
         return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), n: paired.length };
       }
     }
-  }, [kind, points, methods, labels, unit, filters, forPrint]);
+  }, [kind, points, methods, labels, unit, filters]);
 
   const { ref, size } = useElementSize();
   if (spec.n === 0) {
@@ -124,10 +124,11 @@ export function SlidePlot({
       </p>
     );
   }
-  if (forPrint) return <VegaFigure spec={spec.spec} renderer="svg" fileName={fileName} title={TITLES[kind]} />;
-  // On a projector (1280×720) the plot fills the slide, with the legend beside it where there is room.
-  const facets = new Set(points.map((p) => p.methodId)).size;
+  // The legend goes beside the plot, where a landscape page or a projector (1280×720) has room, not under it.
   const sideLegend = { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } } as TopLevelSpec;
+  if (forPrint) return <VegaFigure spec={kind === 'histogram' ? spec.spec : sideLegend} renderer="svg" fileName={fileName} title={TITLES[kind]} />;
+  // On a projector the plot fills the slide.
+  const facets = new Set(points.map((p) => p.methodId)).size;
   return (
     <div ref={ref} className="h-full w-full" data-testid="slide-plot">
       {size ? <VegaFigure spec={fitted(sideLegend, kind, size, facets)} renderer={rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} /> : null}

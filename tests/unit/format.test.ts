@@ -14,6 +14,7 @@ import {
   stat,
   storedValue,
   utcMinute,
+  trueMinus,
   withUnit,
 } from '@/lib/format';
 import { convertFrequency } from '@/lib/science/units';
@@ -130,6 +131,11 @@ describe('plain, count, pValue, units and dates', () => {
     expect(withUnit('—', 'cm⁻¹')).toBe('—');
     expect(header('Best MAE', 'cm⁻¹')).toBe('Best MAE (cm⁻¹)');
     expect(header('N', null)).toBe('N');
+  });
+  it('trueMinus fixes the signs of numbers inside a sentence, not hyphens', () => {
+    expect(trueMinus('modified z-score -5.14 beyond ±3.5')).toBe('modified z-score −5.14 beyond ±3.5');
+    expect(trueMinus('error -74.40 cm⁻¹ (range -0.5 to 2)')).toBe('error −74.40 cm⁻¹ (range −0.5 to 2)');
+    expect(trueMinus('PBE-D3 k12 mode-3 1e-5')).toBe('PBE-D3 k12 mode-3 1e-5');
   });
   it('writes minutes in UTC', () => {
     expect(utcMinute(Date.UTC(2026, 2, 12, 9, 41, 30))).toBe('2026-03-12 09:41 UTC');

@@ -156,12 +156,12 @@ export function MaterialValuesSection({ slug, materialId, materialName, values, 
       )}
       {(values.peaks.length > 0 || selected) && (
         <Panel title={selected ? `Measured peaks and ${selected.methodLabel} modes` : 'Measured peaks'}>
-          <div className="grid gap-6 lg:grid-cols-2">
-            <div>
+          <div className="grid gap-6 xl:grid-cols-2">
+            <div className="min-w-0 overflow-x-auto">
               <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-muted">Measured ({values.peaks.length})</h3>
               <PeaksTable slug={slug} peaks={values.peaks} />
             </div>
-            <div>
+            <div className="min-w-0 overflow-x-auto">
               <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-muted">
                 {selected ? (
                   <>

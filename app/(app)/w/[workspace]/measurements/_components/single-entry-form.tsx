@@ -80,8 +80,8 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
         ))}
       </datalist>
 
-      <fieldset className="grid gap-4 sm:grid-cols-3">
-        <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">What</legend>
+      <fieldset className={`grid gap-4 ${measured ? 'sm:grid-cols-3' : 'sm:grid-cols-4'}`}>
+        <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">What, and from where</legend>
         <TextField label="Material" name="material" list="entry-materials" autoComplete="off" required value={material} onChange={(e) => setMaterial(e.target.value)} errors={errors.material} hint="Its handle, e.g. GaN-wz." />
         {!measured && (
           <SelectField label="Method" name="method" required defaultValue={choices.methods[0]?.label ?? ''} errors={errors.method}>
@@ -92,6 +92,7 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
           <option value="frequency">{measured ? 'frequency (a peak)' : 'frequency (a mode)'}</option>
           <option value="entropy">entropy</option>
         </SelectField>
+        <TextField label="Source (cite key)" name="source" list="entry-sources" autoComplete="off" required errors={errors.source} hint="e.g. azuhata1995; add a source first if it is new." />
       </fieldset>
 
       <fieldset className="grid gap-4 sm:grid-cols-3">
@@ -122,7 +123,7 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
       )}
 
       <fieldset className={`grid gap-4 ${measured ? 'sm:grid-cols-4' : 'sm:grid-cols-3'}`}>
-        <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">Conditions and source</legend>
+        <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">Conditions</legend>
         <TextField label="Temperature (K)" name="temperature_K" inputMode="decimal" errors={errors.temperature_K} hint={quantity === 'entropy' ? 'Required for an entropy.' : undefined} />
         {measured && (
           <>
@@ -135,7 +136,6 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
             </SelectField>
           </>
         )}
-        <TextField label="Source (cite key)" name="source" list="entry-sources" autoComplete="off" required errors={errors.source} hint="e.g. azuhata1995; add a source first if it is new." />
         <div className={measured ? 'sm:col-span-4' : 'sm:col-span-3'}>
           <TextField label="Notes" name="notes" errors={errors.notes} />
         </div>

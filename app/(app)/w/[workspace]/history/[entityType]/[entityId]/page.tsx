@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requirePageMember } from '@/lib/session';
 import type { Permission } from '@/lib/permissions';
-import { storedValue } from '@/lib/format';
+import { storedValue, unitSymbol, withUnit } from '@/lib/format';
 import { listRecordHistory } from '@/db/queries/audit';
 import { getValueRecord, type ValueRecord } from '@/db/queries/values';
 import { EmptyState } from '@/components/ui/panel';
@@ -67,12 +67,12 @@ function valueEvents(v: ValueRecord, slug: string): Event[] {
       body: v.importId ? (
         <p className="text-sm">
           Created by the import <Link href={`/w/${slug}/imports/${v.importId}`}>{v.importFileName ?? v.importId.slice(0, 8)}</Link>
-          {v.importVia ? ` through ${VIA[v.importVia] ?? v.importVia}` : ''}, as {v.valueText} {v.unit}
+          {v.importVia ? ` through ${VIA[v.importVia] ?? v.importVia}` : ''}, as {withUnit(v.valueText, unitSymbol(v.unit))}
           {v.uncertaintyText ? ` ± ${v.uncertaintyText}` : ''}.
         </p>
       ) : (
         <p className="text-sm">
-          Created directly, not through an import, as {v.valueText} {v.unit}
+          Created directly, not through an import, as {withUnit(v.valueText, unitSymbol(v.unit))}
           {v.uncertaintyText ? ` ± ${v.uncertaintyText}` : ''}.
         </p>
       ),
