@@ -170,8 +170,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
                 <th className="px-2 py-1 text-right font-medium whitespace-nowrap">Measured → calculated ({snap.unit})</th>
                 <th className="px-2 py-1 text-right font-medium whitespace-nowrap">Error ({snap.unit})</th>
                 <th className="px-2 py-1 font-medium">Why</th>
-                <th className="px-2 py-1 font-medium">Sources</th>
-                <th className="px-2 py-1 text-right font-medium">Threads</th>
+                <th className="px-2 py-1 font-medium whitespace-nowrap">Measured in</th>
               </tr>
             </thead>
             <tbody>
@@ -179,16 +178,16 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
                 <tr key={p.key} className="border-b border-rule/70 align-top">
                   <td className="px-2 py-1 whitespace-nowrap">
                     {[materialName(p.materialId), p.label].filter(Boolean).join(' ')} <span className="text-ink-faint">{techniqueName(p.technique)}</span>
+                    {openCounts.get(p.key) ? <span className="ml-1 rounded bg-warn-soft px-1 text-[0.8em] text-warn">{openCounts.get(p.key)} open</span> : null}
                   </td>
                   <td className="px-2 py-1 whitespace-nowrap">{methodLabel.get(p.methodId)}</td>
                   <td className="num whitespace-nowrap px-2 py-1 text-right">
                     {plain(p.measured)} → {fixed(p.calculated, 2)}
                   </td>
                   <td className="num px-2 py-1 text-right">{signed(p.error)}</td>
-                  <td className="px-2 py-1">{p.excluded !== null ? <span className="text-bad">Excluded: {trueMinus(p.excluded)}</span> : <span className="text-warn">{trueMinus(p.outlier ?? '')}</span>}</td>
-                  {/* cite keys here; the full citations are listed under the table */}
-                  <td className="px-2 py-1 font-mono text-[0.8em]">{p.sourceIds.map((id) => lookups.sources.get(id)?.citeKey ?? '—').join(', ')}</td>
-                  <td className="num px-2 py-1 text-right">{openCounts.get(p.key) ?? 0}</td>
+                  <td className="px-2 py-1">{p.excluded !== null ? <span className="text-bad">Excluded: {trueMinus(p.excluded)}</span> : <span className="whitespace-nowrap text-warn">{trueMinus(p.outlier ?? '')}</span>}</td>
+                  {/* the measurement's cite key (its source comes first); every citation of the slide is listed under the table */}
+                  <td className="px-2 py-1 font-mono text-[0.8em] whitespace-nowrap">{lookups.sources.get(p.sourceIds[0])?.citeKey ?? '—'}</td>
                 </tr>
               ))}
             </tbody>

@@ -52,7 +52,7 @@ function fitted(spec: TopLevelSpec, kind: SlidePlotKind, box: { width: number; h
   if (kind === 'histogram') {
     const inner = (spec as { spec?: Record<string, unknown> }).spec;
     if (!inner) return spec;
-    const each = Math.max(160, Math.floor((width - LEGEND_PX) / Math.max(1, facets)) - 40);
+    const each = Math.max(160, Math.floor((width - 80) / Math.max(1, facets)) - 40);
     return { ...spec, spec: { ...inner, width: each, height: Math.max(160, height - 90) } } as TopLevelSpec;
   }
   if (kind === 'parity' || kind === 'comparison') {
