@@ -25,7 +25,7 @@ let deckId = '';
 
 function poppler(tool: 'pdftoppm' | 'pdftotext', args: string[]): string {
   try {
-    return execFileSync(tool, args, { encoding: 'latin1' });
+    return execFileSync(tool, args, { encoding: 'utf8' });
   } catch (e) {
     if ((e as NodeJS.ErrnoException).code === 'ENOENT') throw new Error(`${tool} is missing: apt-get install -y poppler-utils`);
     throw e;

@@ -73,11 +73,14 @@ describe('group meeting', () => {
     await page.getByRole('link', { name: 'Present' }).click();
     await page.waitForURL(/\/present/);
     const number = page.getByTestId('slide-number');
-    await expect.poll(() => number.textContent()).toBe('1 / 3');
+    await expect.poll(() => number.textContent()).toMatch(/^1 \/ \d+$/);
+    // three views; the outlier table may continue over several slides (deck-pdf.e2e.test.ts checks how)
+    const total = Number((await number.textContent())!.split('/')[1]);
+    expect(total).toBeGreaterThanOrEqual(3);
     await page.getByTestId('leaderboard').waitFor();
 
     await page.keyboard.press('ArrowRight');
-    await expect.poll(() => number.textContent()).toBe('2 / 3');
+    await expect.poll(() => number.textContent()).toBe(`2 / ${total}`);
     const plot = page.getByTestId('presenter').locator('svg.marks');
     await plot.waitFor({ timeout: 20_000 });
     // hovering a point shows its values and its source
@@ -87,18 +90,23 @@ describe('group meeting', () => {
     await screenshot(page, 'presenter');
 
     await page.keyboard.press('PageDown');
-    await expect.poll(() => number.textContent()).toBe('3 / 3');
+    await expect.poll(() => number.textContent()).toBe(`3 / ${total}`);
     await page.getByTestId('slide-outliers').waitFor();
-    await page.keyboard.press('ArrowRight');
-    await expect.poll(() => number.textContent()).toBe('3 / 3');
-    await page.keyboard.press('Home');
-    await expect.poll(() => number.textContent()).toBe('1 / 3');
     await page.keyboard.press('End');
-    await expect.poll(() => number.textContent()).toBe('3 / 3');
+    await expect.poll(() => number.textContent()).toBe(`${total} / ${total}`);
+    await page.keyboard.press('ArrowRight');
+    await expect.poll(() => number.textContent()).toBe(`${total} / ${total}`);
+    await page.keyboard.press('Home');
+    await expect.poll(() => number.textContent()).toBe(`1 / ${total}`);
+    await page.keyboard.press('End');
+    await expect.poll(() => number.textContent()).toBe(`${total} / ${total}`);
+    await page.keyboard.press('Home');
+    await page.keyboard.press('PageDown');
+    await page.keyboard.press('PageDown');
     await page.keyboard.press('PageUp');
-    await expect.poll(() => number.textContent()).toBe('2 / 3');
+    await expect.poll(() => number.textContent()).toBe(`2 / ${total}`);
     await page.keyboard.press('ArrowLeft');
-    await expect.poll(() => number.textContent()).toBe('1 / 3');
+    await expect.poll(() => number.textContent()).toBe(`1 / ${total}`);
     await page.keyboard.press('Escape');
     await page.waitForURL(`${base}/w/${slug}/decks/${deckId}`);
     await page.setViewportSize({ width: 1360, height: 900 });
@@ -106,7 +114,9 @@ describe('group meeting', () => {
 
   it('prints one slide per page with vector plots and the citations', async () => {
     await page.goto(`${base}/w/${slug}/decks/${deckId}/print`);
-    await expect.poll(() => page.getByTestId('slide').count()).toBe(3);
+    const slides = Number(await page.getByTestId('print-deck').getAttribute('data-slides'));
+    expect(slides).toBeGreaterThanOrEqual(3);
+    await expect.poll(() => page.getByTestId('slide').count()).toBe(slides);
     await page.getByTestId('print-deck').locator('svg.marks').first().waitFor({ timeout: 20_000 });
     expect(await page.getByTestId('slide-citations').count()).toBeGreaterThan(0);
     await page.emulateMedia({ media: 'print' });
