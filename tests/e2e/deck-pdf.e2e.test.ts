@@ -9,18 +9,16 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
-import { newBrowser, screenshot } from './support/browser';
-import { DEMO_SLUG, signInDemo } from './support/demo';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { DEMO_SLUG, demoSession } from './support/demo';
 import { addViewToDeck, panel } from './support/decks';
 
 const base = inject('baseURL');
 const BENCHMARK = 'Γ-point frequencies — all methods (demo)';
 const deckTitle = `Deck as PDF ${Date.now()}`;
 
-let browser: BrowserContext;
-let page: Page;
+const session = demoSession('curator', base);
 let deckId = '';
 
 function poppler(tool: 'pdftoppm' | 'pdftotext', args: string[]): string {
@@ -44,17 +42,10 @@ function pgmStats(file: string): { width: number; height: number; ink: number } 
   return { width: Number(w), height: Number(h), ink: dark / pixels.length };
 }
 
-beforeAll(async () => {
-  browser = await newBrowser();
-  page = await browser.newPage();
-  await signInDemo(page, base, 'curator');
-});
-afterAll(async () => {
-  await browser?.close();
-});
 
 describe('deck in the presenter and as a PDF', () => {
   it('builds a deck of the leaderboard, the parity plot and the outlier table', async () => {
+    const { page } = session;
     await page.goto(`${base}/w/${DEMO_SLUG}/benchmarks`);
     await page.getByRole('link', { name: BENCHMARK }).first().click();
     await page.waitForURL(/\/benchmarks\/[^/]+$/);
@@ -67,6 +58,7 @@ describe('deck in the presenter and as a PDF', () => {
   });
 
   it('presents at 1280×720: the parity plot fills its slide, the outlier table continues over slides and fits each', async () => {
+    const { page } = session;
     await page.setViewportSize({ width: 1280, height: 720 });
     await page.goto(`${base}/w/${DEMO_SLUG}/decks/${deckId}/present?slide=2`);
     const number = page.getByTestId('slide-number');
@@ -97,6 +89,7 @@ describe('deck in the presenter and as a PDF', () => {
   });
 
   it('prints to a PDF of one A4 landscape page per slide, none blank', async () => {
+    const { page } = session;
     await page.goto(`${base}/w/${DEMO_SLUG}/decks/${deckId}/print`);
     const root = page.getByTestId('print-deck');
     await page.locator('[data-print-ready="true"]').waitFor({ timeout: 40_000 });

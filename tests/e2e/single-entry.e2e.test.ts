@@ -4,28 +4,18 @@
  * the corrected entry is stored with its converted value, shows on the material page,
  * and the contributor can undo their own one-row import.
  */
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
-import { newBrowser, screenshot } from './support/browser';
-import { DEMO_SLUG, signInDemo } from './support/demo';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { DEMO_SLUG, demoSession } from './support/demo';
 
 const base = inject('baseURL');
-let browser: BrowserContext;
-let page: Page;
-
-beforeAll(async () => {
-  browser = await newBrowser();
-  page = await browser.newPage();
-  await signInDemo(page, base, 'contributor');
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const session = demoSession('contributor', base);
 
 describe('single-entry form', () => {
   let importUrl = '';
 
   it('refuses a bad value with an error tied to its field, keeping what was typed', async () => {
+    const { page } = session;
     await page.goto(`${base}/w/${DEMO_SLUG}/materials?q=GaN`);
     await page.getByRole('link', { name: 'GaN-wz' }).first().click();
     await page.getByRole('link', { name: 'Add a measurement' }).click();
@@ -49,6 +39,7 @@ describe('single-entry form', () => {
   });
 
   it('stores the corrected entry as a one-row import and shows it on the material page', async () => {
+    const { page } = session;
     const form = page.getByRole('form', { name: 'Add one measurement' });
     await form.getByLabel('Value').fill('17.13');
     await form.getByRole('button', { name: 'Save measurement' }).click();
@@ -73,6 +64,7 @@ describe('single-entry form', () => {
   });
 
   it('lets the contributor undo their own entry', async () => {
+    const { page } = session;
     await page.goto(importUrl);
     await page.getByTestId('undo-window').waitFor();
     await page.getByLabel('Reason').fill('Typed for the e2e test (demo only)');
