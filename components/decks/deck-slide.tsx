@@ -84,7 +84,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
         <div className={`${big ? 'text-base' : 'text-xs'} text-ink-muted`}>{subtitle}</div>
       </header>
       <div className={beside ? `grid min-h-0 flex-1 gap-6 ${big ? 'grid-cols-[minmax(0,1fr)_18rem]' : 'grid-cols-[minmax(0,1fr)_15rem]'}` : 'contents'}>
-        <div className={`min-h-0 flex-1 ${big && !isPlot ? 'overflow-auto' : ''} ${big ? 'text-base' : 'text-[13px]'}`} tabIndex={big && !isPlot ? 0 : undefined} data-testid="slide-body">
+        <div className={`min-h-0 flex-1 ${big && !isPlot ? 'overflow-auto' : ''} ${big ? (isPlot ? 'text-base' : 'text-sm xl:text-base') : 'text-[13px]'}`} tabIndex={big && !isPlot ? 0 : undefined} data-testid="slide-body">
           {body}
         </div>
         <div className={beside ? 'min-h-0 space-y-3 overflow-auto' : 'contents'}>
@@ -156,6 +156,8 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
     const perSlide = ROWS_PER_SLIDE[mode];
     const first = part * perSlide;
     const flagged = all.slice(first, first + perSlide);
+    // Below 1280 px the presenter drops the cite-key column: the slide's sources are listed under the table anyway.
+    const narrowHidden = big ? 'hidden xl:table-cell' : '';
     shownPairs = flagged;
     body =
       all.length === 0 ? (
@@ -170,7 +172,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
                 <th className="px-2 py-1 text-right font-medium whitespace-nowrap">Measured → calculated ({snap.unit})</th>
                 <th className="px-2 py-1 text-right font-medium whitespace-nowrap">Error ({snap.unit})</th>
                 <th className="px-2 py-1 font-medium">Why</th>
-                <th className="px-2 py-1 font-medium whitespace-nowrap">Measured in</th>
+                <th className={`px-2 py-1 font-medium whitespace-nowrap ${narrowHidden}`}>Measured in</th>
               </tr>
             </thead>
             <tbody>
@@ -187,7 +189,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
                   <td className="num px-2 py-1 text-right">{signed(p.error)}</td>
                   <td className="px-2 py-1">{p.excluded !== null ? <span className="text-bad">Excluded: {trueMinus(p.excluded)}</span> : <span className="whitespace-nowrap text-warn">{trueMinus(p.outlier ?? '')}</span>}</td>
                   {/* the measurement's cite key (its source comes first); every citation of the slide is listed under the table */}
-                  <td className="px-2 py-1 font-mono text-[0.8em] whitespace-nowrap">{lookups.sources.get(p.sourceIds[0])?.citeKey ?? '—'}</td>
+                  <td className={`px-2 py-1 font-mono text-[0.8em] whitespace-nowrap ${narrowHidden}`}>{lookups.sources.get(p.sourceIds[0])?.citeKey ?? '—'}</td>
                 </tr>
               ))}
             </tbody>
