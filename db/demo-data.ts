@@ -84,6 +84,7 @@ const modeRow = z.object({
   technique: z.enum(['', 'raman', 'ir-reflectance', 'ir-absorption', 'ins', 'hyper-raman']),
   source: z.string(),
   reference_cm1: optionalNumber,
+  notes: z.string().default(''),
 });
 const entropyRow = z.object({
   material: z.string(),
@@ -204,6 +205,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
       activity: m.activity,
       technique: m.technique || null,
       sampleForm: 'single-crystal',
+      notes: m.notes || null,
       rowHash: demoRowHash(['measurement', m.material, 'frequency', m.measured_cm1, 'cm-1', m.irrep, m.branch, m.temperature_K, m.source]),
       contributorId: userId,
     });
@@ -281,7 +283,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
       for (let i = 0; i < 3; i++) push(i === 0 && acoustic !== undefined ? acoustic : round(gaussian(random) * 0.3, 2), null, '', 'acoustic', 1);
       const seen = new Map<string, number>();
       for (const mode of modes.filter((x) => x.material === m.name)) {
-        if (!mode.degeneracy) continue; // measured-only line (e.g. an LO peak of a calculation without that splitting)
+        if (!mode.degeneracy) continue; // measured-only line: the A1(LO) peaks of the wurtzites (see data/demo/README.md)
         const key = `${mode.irrep}|${mode.branch}`;
         const nth = (seen.get(key) ?? 0) + 1;
         seen.set(key, nth);

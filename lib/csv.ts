@@ -1,3 +1,4 @@
+import { csvNumber } from './format';
 import { parseDecimal } from './import/numbers';
 
 export type CsvCell = string | number | null | undefined;
@@ -7,12 +8,12 @@ const FORMULA_START = /^[=+\-@\t\r]/;
 /**
  * One cell made safe for spreadsheets: text that starts with = + - @ tab or CR
  * is prefixed with an apostrophe so it cannot run as a formula (OWASP "CSV
- * injection"); numbers, and text that is exactly a decimal number such as a
- * stored "-1.50", are written as numbers, untouched.
+ * injection"); text that is exactly a decimal number such as a stored "-1.50" is
+ * written untouched, and numbers without floating-point noise (csvNumber).
  */
 export function neutraliseCell(cell: CsvCell): string {
   if (cell === null || cell === undefined) return '';
-  if (typeof cell === 'number') return Number.isFinite(cell) ? String(cell) : '';
+  if (typeof cell === 'number') return csvNumber(cell);
   if (parseDecimal(cell) !== null) return cell;
   return FORMULA_START.test(cell) ? `'${cell}` : cell;
 }

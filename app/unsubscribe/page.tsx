@@ -6,7 +6,7 @@ import { findWatchForUnsubscribe } from '@/db/queries/watches';
 import { Notice } from '@/components/ui/notice';
 import { buttonClass } from '@/components/ui/button';
 
-export const metadata: Metadata = { title: 'Unsubscribe · Lattice Ledger', robots: { index: false } };
+export const metadata: Metadata = { title: 'Unsubscribe', robots: { index: false } };
 
 function Shell({ children }: { children: React.ReactNode }) {
   return (
@@ -46,7 +46,7 @@ export default async function UnsubscribePage({ searchParams }: { searchParams: 
       <Shell>
         <h1 className="text-lg">Unsubscribed</h1>
         <Notice tone="good">
-          {params.done ? 'Done: ' : ''}you get no more alerts for “{watch.benchmarkName}” ({watch.workspaceName}). You can watch it again from the benchmark page.
+          {params.done ? 'Done. ' : ''}You get no more alerts for “{watch.benchmarkName}” ({watch.workspaceName}). You can watch it again from the benchmark page.
         </Notice>
       </Shell>
     );

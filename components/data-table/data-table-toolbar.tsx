@@ -1,7 +1,7 @@
 'use client';
-import { useEffect, useState } from 'react';
-import { inputClass } from '@/components/ui/field';
+import { useId } from 'react';
 import { useListUrl } from './use-list-url';
+import { useUrlText } from './use-url-text';
 
 export interface ToolbarFilter {
   /** URL parameter, e.g. "tag". */
@@ -10,34 +10,55 @@ export interface ToolbarFilter {
   options: Array<{ value: string; label: string }>;
 }
 
-/** Text filter (debounced), select filters and the "show retracted" toggle, all kept in the URL. */
-export function DataTableToolbar({ placeholder = 'Filter…', filters = [], retractedToggle = true }: { placeholder?: string; filters?: ToolbarFilter[]; retractedToggle?: boolean }) {
-  const { searchParams, update } = useListUrl();
-  const urlQ = searchParams.get('q') ?? '';
-  const [q, setQ] = useState(urlQ);
-  const [lastUrlQ, setLastUrlQ] = useState(urlQ);
-  if (urlQ !== lastUrlQ) {
-    setLastUrlQ(urlQ);
-    setQ(urlQ);
-  }
+export interface ToolbarTextFilter {
+  param: string;
+  label: string;
+  placeholder?: string;
+}
 
-  useEffect(() => {
-    if (q === urlQ) return;
-    const t = setTimeout(() => update({ q }), 300);
-    return () => clearTimeout(t);
-  }, [q, urlQ, update]);
+const field =
+  'rounded-sm border-0 border-b border-dashed border-rule-strong bg-transparent px-1 py-0.5 text-sm text-ink placeholder:text-ink-faint focus:border-solid focus:border-accent focus:outline-none';
 
+function TextCondition({ filter, wide }: { filter: ToolbarTextFilter; wide?: boolean }) {
+  const [value, setValue] = useUrlText(filter.param);
+  const id = useId();
   return (
-    <div className="flex flex-wrap items-end gap-3" role="search">
-      <label className="min-w-56 flex-1 text-xs text-ink-muted">
-        <span className="sr-only">Filter</span>
-        <input type="search" className={inputClass} placeholder={placeholder} value={q} onChange={(e) => setQ(e.target.value)} />
+    <span className="inline-flex items-baseline gap-1.5">
+      <label htmlFor={id} className="text-ink-muted">
+        {filter.label}
       </label>
+      <input id={id} type="search" className={`${field} ${wide ? 'w-64' : 'w-36'}`} placeholder={filter.placeholder ?? 'anything'} value={value} onChange={(e) => setValue(e.target.value)} />
+    </span>
+  );
+}
+
+/**
+ * The conditions of a list, read as a sentence ("whose name contains …, class any,
+ * include retracted"), every one kept in the URL; "Reset" clears them all.
+ */
+export function DataTableToolbar({
+  search,
+  filters = [],
+  texts = [],
+  retractedToggle = true,
+}: {
+  /** What the free-text condition searches, e.g. "name, formula or external id". */
+  search: string;
+  filters?: ToolbarFilter[];
+  texts?: ToolbarTextFilter[];
+  retractedToggle?: boolean;
+}) {
+  const { searchParams, update } = useListUrl();
+  const params = ['q', ...filters.map((f) => f.param), ...texts.map((t) => t.param), 'retracted'];
+  const active = params.filter((p) => searchParams.get(p));
+  return (
+    <div role="search" aria-label="Conditions of the list" className="flex flex-wrap items-baseline gap-x-5 gap-y-2 rounded-md border-l-4 border-accent/60 bg-accent-soft/40 px-3 py-2 text-sm">
+      <TextCondition filter={{ param: 'q', label: `${search} contains`, placeholder: 'any text' }} wide />
       {filters.map((f) => (
-        <label key={f.param} className="text-xs text-ink-muted">
-          <span className="mb-1 block">{f.label}</span>
-          <select className={inputClass} value={searchParams.get(f.param) ?? ''} onChange={(e) => update({ [f.param]: e.target.value })}>
-            <option value="">All</option>
+        <label key={f.param} className="inline-flex items-baseline gap-1.5 text-ink-muted">
+          {f.label}
+          <select className={`${field} pr-5`} value={searchParams.get(f.param) ?? ''} onChange={(e) => update({ [f.param]: e.target.value })}>
+            <option value="">any</option>
             {f.options.map((o) => (
               <option key={o.value} value={o.value}>
                 {o.label}
@@ -46,11 +67,19 @@ export function DataTableToolbar({ placeholder = 'Filter…', filters = [], retr
           </select>
         </label>
       ))}
+      {texts.map((t) => (
+        <TextCondition key={t.param} filter={t} />
+      ))}
       {retractedToggle && (
-        <label className="flex items-center gap-1.5 pb-1.5 text-xs text-ink-muted">
-          <input type="checkbox" checked={searchParams.get('retracted') === '1'} onChange={(e) => update({ retracted: e.target.checked ? '1' : null })} />
-          Show retracted
+        <label className="inline-flex items-center gap-1.5 text-ink-muted">
+          <input type="checkbox" className="accent-accent" checked={searchParams.get('retracted') === '1'} onChange={(e) => update({ retracted: e.target.checked ? '1' : null })} />
+          include retracted records
         </label>
+      )}
+      {active.length > 0 && (
+        <button type="button" className="ml-auto text-xs font-medium text-accent underline decoration-dotted underline-offset-2 hover:text-accent-strong" onClick={() => update(Object.fromEntries(params.map((p) => [p, null])))}>
+          Reset {active.length === 1 ? 'the condition' : `${active.length} conditions`}
+        </button>
       )}
     </div>
   );

@@ -1,5 +1,5 @@
 'use client';
-import { useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { useTable, type ColumnDef, type PaginationState, type SortingState, type Updater } from '@tanstack/react-table';
 import { dataTableFeatures, type DataTableFeatures } from './features';
@@ -29,6 +29,26 @@ export interface DataTableProps<TData extends { id: string }> {
 /** Above this many rows on a page only the visible ones are rendered. */
 const VIRTUALISE_FROM = 100;
 const ROW_HEIGHT = 33;
+
+/** True while a table wider than its box has columns out of sight on the right (a cue to scroll sideways). */
+function useMoreToTheRight(ref: React.RefObject<HTMLDivElement | null>): boolean {
+  const [more, setMore] = useState(false);
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    const check = () => setMore(el.scrollLeft + el.clientWidth < el.scrollWidth - 4);
+    check();
+    const observer = new ResizeObserver(check);
+    observer.observe(el);
+    if (el.firstElementChild) observer.observe(el.firstElementChild);
+    el.addEventListener('scroll', check, { passive: true });
+    return () => {
+      observer.disconnect();
+      el.removeEventListener('scroll', check);
+    };
+  }, [ref]);
+  return more;
+}
 
 function resolve<T>(updater: Updater<T>, current: T): T {
   return typeof updater === 'function' ? (updater as (old: T) => T)(current) : updater;
@@ -80,13 +100,19 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
   const padBottom = items?.length ? virtualizer.getTotalSize() - items[items.length - 1].end : 0;
   const visible = items ? items.map((i) => rows[i.index]) : rows;
   const columnCount = table.getAllLeafColumns().length;
+  const moreToTheRight = useMoreToTheRight(scrollRef);
 
   return (
-    <div className="space-y-2" aria-busy={pending}>
-      <div ref={scrollRef} className={`overflow-auto rounded-lg border border-rule bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
+    <div className="relative space-y-2" aria-busy={pending}>
+      {moreToTheRight && (
+        <div aria-hidden className="pointer-events-none absolute top-0 right-0 z-20 flex h-9 items-center rounded-tr-md bg-gradient-to-l from-panel via-panel/90 to-transparent pr-2 pl-8 text-[11px] font-medium text-accent" data-testid="scroll-cue">
+          more columns →
+        </div>
+      )}
+      <div ref={scrollRef} className={`overflow-auto rounded-md border border-rule-strong bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
         <table className="w-full border-collapse text-sm">
           {caption && <caption className="sr-only">{caption}</caption>}
-          <thead className="sticky top-0 z-10 bg-panel text-left text-xs text-ink-muted shadow-[inset_0_-1px_0_var(--color-rule)]">
+          <thead className="sticky top-0 z-10 bg-panel text-left text-[11px] uppercase tracking-wider text-ink-muted shadow-[inset_0_-2px_0_var(--color-ink)]">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>
                 {group.headers.map((header) => {
@@ -98,13 +124,18 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
                       key={header.id}
                       scope="col"
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                      className={`whitespace-nowrap px-3 py-2 font-medium ${meta?.numeric ? 'text-right' : ''}`}
+                      className={`whitespace-nowrap px-3 py-2 font-semibold ${meta?.numeric ? 'text-right' : ''} ${sorted ? 'text-ink' : ''}`}
                     >
                       {header.isPlaceholder ? null : canSort ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 hover:text-ink">
+                        <button
+                          type="button"
+                          onClick={header.column.getToggleSortingHandler()}
+                          title={sorted === 'asc' ? 'Sorted, smallest first; click for largest first' : sorted === 'desc' ? 'Sorted, largest first; click for smallest first' : 'Click to sort by this column'}
+                          className={`inline-flex items-baseline gap-1 uppercase tracking-wider underline decoration-dotted decoration-ink-faint underline-offset-4 hover:text-ink ${meta?.numeric ? 'flex-row-reverse' : ''}`}
+                        >
                           <table.FlexRender header={header} />
-                          <span aria-hidden className="text-[10px]">
-                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
+                          <span aria-hidden className={`num normal-case ${sorted ? 'text-accent' : 'invisible'}`}>
+                            {sorted === 'desc' ? '↓' : '↑'}
                           </span>
                         </button>
                       ) : (
@@ -116,11 +147,11 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
               </tr>
             ))}
           </thead>
-          <tbody className="divide-y divide-rule">
+          <tbody className="divide-y divide-rule/70">
             {rows.length === 0 && (
               <tr>
                 <td colSpan={columnCount} className="px-3 py-8 text-center text-ink-muted">
-                  {emptyMessage ?? 'Nothing matches.'}
+                  {emptyMessage ?? 'No row meets these conditions.'}
                 </td>
               </tr>
             )}
@@ -130,11 +161,12 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
               </tr>
             )}
             {visible.map((row) => (
-              <tr key={row.id} className={`hover:bg-paper ${rowClassName?.(row.original) ?? ''}`} style={virtual ? { height: ROW_HEIGHT } : undefined}>
+              <tr key={row.id} className={`even:bg-paper/70 hover:bg-accent-soft/50 ${rowClassName?.(row.original) ?? ''}`} style={virtual ? { height: ROW_HEIGHT } : undefined}>
                 {row.getAllCells().map((cell) => {
                   const meta = cell.column.columnDef.meta;
+                  const sortedColumn = cell.column.getIsSorted() !== false;
                   return (
-                    <td key={cell.id} className={`whitespace-nowrap px-3 py-1.5 ${meta?.numeric ? 'num text-right' : ''} ${meta?.className ?? ''}`}>
+                    <td key={cell.id} className={`whitespace-nowrap px-3 py-1.5 ${meta?.numeric ? 'num text-right' : ''} ${sortedColumn ? 'bg-accent-soft/25' : ''} ${meta?.className ?? ''}`}>
                       <table.FlexRender cell={cell} />
                     </td>
                   );

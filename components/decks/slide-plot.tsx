@@ -1,5 +1,6 @@
 'use client';
-import { useMemo } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { TopLevelSpec } from 'vega-lite';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
 import { blandAltmanSpec, errorHistogramSpec, pairedScatterSpec, parityPlotSpec, rendererFor, residualSpec, type PairedPoint } from '@/components/charts/benchmark/specs';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
@@ -20,6 +21,46 @@ const TITLES: Record<SlidePlotKind, string> = {
   'bland-altman': 'Bland–Altman: bias and 95 % limits of agreement',
   comparison: '|error| per common pair',
 };
+
+/** Room a figure needs besides its plot area: legend on the right, figcaption and buttons above. */
+const LEGEND_PX = 190;
+const CAPTION_PX = 44;
+
+/** The size of an element, kept up to date (null until first measured). */
+function useElementSize() {
+  const ref = useRef<HTMLDivElement>(null);
+  const [size, setSize] = useState<{ width: number; height: number } | null>(null);
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    const observer = new ResizeObserver(([entry]) => {
+      const width = Math.floor(entry.contentRect.width);
+      const height = Math.floor(entry.contentRect.height);
+      setSize((old) => (old && Math.abs(old.width - width) < 8 && Math.abs(old.height - height) < 8 ? old : { width, height }));
+    });
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
+  return { ref, size };
+}
+
+/** A spec sized to fill a slide: square plots stay square, the others take the whole box. */
+function fitted(spec: TopLevelSpec, kind: SlidePlotKind, box: { width: number; height: number }, facets: number): TopLevelSpec {
+  const height = Math.max(240, box.height - CAPTION_PX);
+  const width = Math.max(320, box.width);
+  const autosize = { type: 'fit' as const, contains: 'padding' as const };
+  if (kind === 'histogram') {
+    const inner = (spec as { spec?: Record<string, unknown> }).spec;
+    if (!inner) return spec;
+    const each = Math.max(160, Math.floor((width - 80) / Math.max(1, facets)) - 40);
+    return { ...spec, spec: { ...inner, width: each, height: Math.max(160, height - 90) } } as TopLevelSpec;
+  }
+  if (kind === 'parity' || kind === 'comparison') {
+    const side = Math.min(width - LEGEND_PX, height);
+    return { ...spec, width: side + LEGEND_PX, height: side, autosize } as TopLevelSpec;
+  }
+  return { ...spec, width, height, autosize } as TopLevelSpec;
+}
 
 function measurementKey(key: string): string {
   return key.slice(key.indexOf('|') + 1);
@@ -49,7 +90,7 @@ export function SlidePlot({
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 500, height: forPrint ? 420 : 360 }), n: visible.length };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), n: visible.length };
       case 'histogram':
         return { spec: errorHistogramSpec(visible, { unit, methods: labels }), n: visible.length };
       case 'residuals':
@@ -73,10 +114,24 @@ export function SlidePlot({
         return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), n: paired.length };
       }
     }
-  }, [kind, points, methods, labels, unit, filters, forPrint]);
+  }, [kind, points, methods, labels, unit, filters]);
 
-  if (spec.n === 0) return <p className="text-ink-muted">No pairs to plot with these filters.</p>;
-  // On a projector (1280×720) the legend goes beside the plot, where there is room, not under it.
-  const shown = forPrint ? spec.spec : { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } };
-  return <VegaFigure spec={shown} renderer={forPrint ? 'svg' : rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} />;
+  const { ref, size } = useElementSize();
+  if (spec.n === 0) {
+    return (
+      <p className="text-ink-muted" data-plot-empty>
+        No pairs to plot with these filters.
+      </p>
+    );
+  }
+  // The legend goes beside the plot, where a landscape page or a projector (1280×720) has room, not under it.
+  const sideLegend = { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } } as TopLevelSpec;
+  if (forPrint) return <VegaFigure spec={kind === 'histogram' ? spec.spec : sideLegend} renderer="svg" fileName={fileName} title={TITLES[kind]} />;
+  // On a projector the plot fills the slide.
+  const facets = new Set(points.map((p) => p.methodId)).size;
+  return (
+    <div ref={ref} className="h-full w-full" data-testid="slide-plot">
+      {size ? <VegaFigure spec={fitted(sideLegend, kind, size, facets)} renderer={rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} /> : null}
+    </div>
+  );
 }

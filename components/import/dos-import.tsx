@@ -12,6 +12,7 @@ import { Panel } from '@/components/ui/panel';
 import { FileDrop } from './file-drop';
 import { RowErrorTable } from './row-error-table';
 import { UploadRefused, uploadImport, type UploadState } from './upload-import';
+import { count, plain } from '@/lib/format';
 
 type Outcome = { importId: string; insertedCount: number; duplicateCount: number; computedCount: number; dosCount: number };
 type CommitState = UploadState<Outcome>;
@@ -84,7 +85,7 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
           <FileDrop onFile={choose} disabled={commit.status === 'sending'} />
           {loaded && (
             <p className="text-sm text-ink-muted">
-              <span className="font-medium text-ink">{loaded.file.name}</span> · <span className="num">{loaded.file.size.toLocaleString('en')} bytes</span>
+              <span className="font-medium text-ink">{loaded.file.name}</span> · <span className="num">{count(loaded.file.size)} bytes</span>
             </p>
           )}
           {preview && 'refusal' in preview && (
@@ -100,8 +101,8 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
         <Panel title="3 · What will be computed">
           <div className="space-y-4">
             <p className="text-sm">
-              <span className="num font-medium">{result.rowCount.toLocaleString('en')}</span> rows · <span className="num">{result.blocks.length}</span> densities of states ·{' '}
-              <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{result.errorCount.toLocaleString('en')} errors</span>
+              <span className="num font-medium">{count(result.rowCount)}</span> rows · <span className="num">{result.blocks.length}</span> densities of states ·{' '}
+              <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} errors</span>
               {result.ignored.length > 0 && <span className="text-ink-muted"> · ignored columns: {result.ignored.map((h) => `“${h}”`).join(', ')}</span>}
             </p>
             {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
@@ -137,8 +138,8 @@ function DosBlocksTable({ result }: { result: DosPreviewResult }) {
             <th className="px-2 py-1.5 font-medium">Grid</th>
             <th className="px-2 py-1.5 font-medium">Z</th>
             <th className="px-2 py-1.5 font-medium">T (K)</th>
-            <th className="px-2 py-1.5 text-right font-medium">S (J/mol/K)</th>
-            <th className="px-2 py-1.5 text-right font-medium">C_v (J/mol/K)</th>
+            <th className="px-2 py-1.5 text-right font-medium">S (J mol⁻¹ K⁻¹)</th>
+            <th className="px-2 py-1.5 text-right font-medium">C_v (J mol⁻¹ K⁻¹)</th>
           </tr>
         </thead>
         <tbody className="divide-y divide-rule">
@@ -161,7 +162,7 @@ function DosBlocksTable({ result }: { result: DosPreviewResult }) {
                       {b.points} points, {b.minFrequency}–{b.maxFrequency} {b.unit}
                     </td>
                     <td className="num px-2 py-1 align-top" rowSpan={rows.length}>
-                      {b.formulaUnitsPerCell === null ? '—' : Number(b.formulaUnitsPerCell.toFixed(4))}
+                      {b.formulaUnitsPerCell === null ? '—' : plain(Number(b.formulaUnitsPerCell.toFixed(4)))}
                     </td>
                   </>
                 )}
@@ -190,8 +191,8 @@ function DosCommitResult({ state, slug }: { state: CommitState; slug: string }) 
     const o = state.outcome;
     return (
       <Notice tone="good">
-        Stored {o.insertedCount.toLocaleString('en')} computed values from {o.dosCount} densities of states
-        {o.duplicateCount > 0 && <> ({o.duplicateCount.toLocaleString('en')} identical to existing rows, skipped)</>}.{' '}
+        Stored {count(o.insertedCount)} computed values from {o.dosCount} densities of states
+        {o.duplicateCount > 0 && <> ({count(o.duplicateCount)} identical to existing rows, skipped)</>}.{' '}
         <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link>
       </Notice>
     );

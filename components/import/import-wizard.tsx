@@ -3,9 +3,11 @@ import Link from 'next/link';
 import { useEffect, useMemo, useState } from 'react';
 import { columnsOf, type ImportableKind } from '@/lib/import/columns';
 import type { ColumnMapping } from '@/lib/import/header';
-import type { ReferenceLists } from '@/lib/import/preview';
+import type { PreviewRow, ReferenceLists } from '@/lib/import/preview';
+import type { RowError } from '@/lib/import/errors';
 import type { DefaultUnits } from '@/lib/import/units';
 import { wizardQuery } from '@/lib/import/wizard-options';
+import { count } from '@/lib/format';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 import { Button, buttonClass } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -111,7 +113,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
               <FileDrop onFile={(f) => reset({ file: f })} disabled={commit.status === 'sending'} />
               {file && (
                 <p className="text-sm text-ink-muted">
-                  <span className="font-medium text-ink">{file.name}</span> · <span className="num">{file.size.toLocaleString('en')} bytes</span>
+                  <span className="font-medium text-ink">{file.name}</span> · <span className="num">{count(file.size)} bytes</span>
                 </p>
               )}
               {preview.status === 'working' && <ProgressBar label={preview.phase === 'reading' ? 'Reading the file (UTF-8)' : 'Parsing and checking rows'} fraction={preview.fraction} />}
@@ -164,16 +166,16 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
             <Panel title="4 · Preview and commit">
               <div className="space-y-4">
                 <p className="text-sm">
-                  <span className="num font-medium">{result.rowCount.toLocaleString('en')}</span> rows ·{' '}
-                  <span className="num text-good">{result.validCount.toLocaleString('en')} valid</span> ·{' '}
-                  <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{result.errorCount.toLocaleString('en')} errors</span>
+                  <span className="num font-medium">{count(result.rowCount)}</span> rows ·{' '}
+                  <span className="num text-good">{count(result.validCount)} valid</span> ·{' '}
+                  <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} errors</span>
                 </p>
                 {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
                 <ModeSetWarnings warnings={result.warnings ?? []} count={result.warningCount ?? 0} />
-                <PreviewTable headers={result.headers} rows={result.preview} />
+                <PreviewTable headers={result.headers} rows={result.preview} errors={result.errors} />
                 <div className="flex items-center gap-3">
                   <Button type="button" onClick={send} disabled={!canCommit} aria-disabled={!canCommit}>
-                    {commit.status === 'sending' ? 'Importing…' : `Import ${result.rowCount.toLocaleString('en')} rows`}
+                    {commit.status === 'sending' ? 'Importing…' : `Import ${count(result.rowCount)} rows`}
                   </Button>
                   {result.errorCount > 0 && <span className="text-xs text-ink-muted">Fix the errors in the file (or the mapping) first.</span>}
                 </div>
@@ -187,14 +189,19 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   );
 }
 
-function PreviewTable({ headers, rows }: { headers: string[]; rows: Array<{ row: number; cells: string[]; ok: boolean }> }) {
+/** The first rows as read, with what each valid row will store; a bad cell is tinted and says why on hover. */
+function PreviewTable({ headers, rows, errors }: { headers: string[]; rows: PreviewRow[]; errors: RowError[] }) {
+  const reasons = new Map<string, string>();
+  for (const e of errors) if (e.column) reasons.set(`${e.row}|${e.column}`, [reasons.get(`${e.row}|${e.column}`), e.reason].filter(Boolean).join(' '));
   return (
     <div className="max-h-96 overflow-auto rounded-md border border-rule">
       <table className="w-full text-xs" data-testid="import-preview">
-        <caption className="sr-only">First rows of the file</caption>
+        <caption className="sr-only">First rows of the file, with the label and value each valid row will store</caption>
         <thead className="sticky top-0 bg-panel text-left text-ink-muted">
           <tr>
             <th className="px-2 py-1.5 font-medium">Row</th>
+            <th className="border-r border-rule bg-accent-soft/60 px-2 py-1.5 font-medium whitespace-nowrap text-accent-strong">Stored label</th>
+            <th className="border-r border-rule bg-accent-soft/60 px-2 py-1.5 text-right font-medium whitespace-nowrap text-accent-strong">Stored value</th>
             {headers.map((h, i) => (
               <th key={i} className="px-2 py-1.5 font-medium whitespace-nowrap">
                 {h}
@@ -204,13 +211,27 @@ function PreviewTable({ headers, rows }: { headers: string[]; rows: Array<{ row:
         </thead>
         <tbody className="divide-y divide-rule">
           {rows.map((r) => (
-            <tr key={r.row} className={r.ok ? '' : 'bg-bad-soft'}>
+            <tr key={r.row} className={r.ok ? '' : 'bg-bad-soft/40'} data-ok={r.ok}>
               <td className="num px-2 py-1">{r.row}</td>
-              {r.cells.map((c, i) => (
-                <td key={i} className="px-2 py-1 whitespace-nowrap">
-                  {c}
-                </td>
-              ))}
+              <td className="border-r border-rule px-2 py-1 whitespace-nowrap" data-testid="stored-label">
+                {r.stored ? (r.stored.label ?? '—') : <span className="text-ink-faint">not stored</span>}
+              </td>
+              <td className="num border-r border-rule px-2 py-1 text-right whitespace-nowrap" data-testid="stored-value">
+                {r.stored ? r.stored.value : '—'}
+              </td>
+              {r.cells.map((c, i) => {
+                const bad = r.badColumns.includes(headers[i]);
+                return (
+                  <td
+                    key={i}
+                    className={`px-2 py-1 whitespace-nowrap ${bad ? 'bg-bad-soft font-medium text-bad ring-1 ring-inset ring-bad/50' : ''}`}
+                    title={bad ? reasons.get(`${r.row}|${headers[i]}`) : undefined}
+                    data-bad={bad || undefined}
+                  >
+                    {c === '' && bad ? <span className="italic">empty</span> : c}
+                  </td>
+                );
+              })}
             </tr>
           ))}
         </tbody>
@@ -245,8 +266,8 @@ function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
     return (
       <>
         <Notice tone="good">
-          Imported {o.insertedCount.toLocaleString('en')} of {o.rowCount.toLocaleString('en')} rows
-          {o.duplicateCount > 0 && <> ({o.duplicateCount.toLocaleString('en')} identical to existing rows, skipped)</>}.{' '}
+          Imported {count(o.insertedCount)} of {count(o.rowCount)} rows
+          {o.duplicateCount > 0 && <> ({count(o.duplicateCount)} identical to existing rows, skipped)</>}.{' '}
           <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link>
         </Notice>
         <ModeSetWarnings warnings={o.warnings ?? []} count={o.warningCount ?? 0} />

@@ -1,12 +1,13 @@
 import type { RowError } from '@/lib/import/errors';
+import { count } from '@/lib/format';
 
 /** Every row error with row, column and reason (the header is row 1). */
 export function RowErrorTable({ errors, errorCount }: { errors: RowError[]; errorCount: number }) {
   return (
     <div className="space-y-2">
       <p className="text-sm font-medium text-bad" role="alert">
-        {errorCount.toLocaleString('en')} {errorCount === 1 ? 'error' : 'errors'} — nothing can be imported until they are fixed.
-        {errorCount > errors.length && ` The first ${errors.length.toLocaleString('en')} are listed.`}
+        {count(errorCount)} {errorCount === 1 ? 'error' : 'errors'} — nothing can be imported until they are fixed.
+        {errorCount > errors.length && ` The first ${count(errors.length)} are listed.`}
       </p>
       <div className="max-h-80 overflow-auto rounded-md border border-rule">
         <table className="w-full text-sm" data-testid="row-errors">

@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, desc, eq } from 'drizzle-orm';
-import type { Executor } from '@/db/client';
+import { db, type Executor } from '@/db/client';
 import { auditLog, user } from '@/db/schema';
 
 /** Who did it: a signed-in user, or a pipeline through an API token (created by a user). */
@@ -52,4 +52,9 @@ export async function listAudit(executor: Executor, workspaceId: string, entityT
     .leftJoin(user, eq(auditLog.actorUserId, user.id))
     .where(and(eq(auditLog.workspaceId, workspaceId), eq(auditLog.entityType, entityType), eq(auditLog.entityId, entityId)))
     .orderBy(desc(auditLog.createdAt));
+}
+
+/** The history of one record of a workspace, newest first (for the history page). */
+export async function listRecordHistory(workspaceId: string, entityType: string, entityId: string) {
+  return listAudit(db, workspaceId, entityType, entityId);
 }

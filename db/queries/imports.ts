@@ -3,7 +3,7 @@ import { createHash } from 'node:crypto';
 import type { Client, InValue, Transaction } from '@libsql/client';
 import { and, count, desc, eq, isNull } from 'drizzle-orm';
 import { createDb, db, getClient } from '@/db/client';
-import { apiToken, calculation, importBatch, material, measurement, method, source, user } from '@/db/schema';
+import { apiToken, calculation, importBatch, material, measurement, method, source, user, type ImportBatch } from '@/db/schema';
 import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
 import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
@@ -25,7 +25,7 @@ export interface ImportFileFacts {
   fileName: string | null;
   sha256: string;
   byteCount: number;
-  via: 'wizard' | 'api';
+  via: 'wizard' | 'api' | 'form';
 }
 
 export interface DuplicateRow {
@@ -319,8 +319,15 @@ export async function commitImport(args: {
 /**
  * Undoes an import: its live rows are retracted with the reason, the import is
  * marked undone, and one audit row records it — all in one transaction.
+ * `refusal` sees the import inside that transaction and may refuse (a reason) — the caller's rule of who may undo.
  */
-export async function undoImport(workspaceId: string, importId: string, actorUserId: string, reason: string): Promise<{ retracted: number }> {
+export async function undoImport(
+  workspaceId: string,
+  importId: string,
+  actorUserId: string,
+  reason: string,
+  refusal: (batch: ImportBatch) => string | null = () => null,
+): Promise<{ retracted: number }> {
   return db.transaction(async (tx) => {
     const [batch] = await tx
       .select()
@@ -329,6 +336,8 @@ export async function undoImport(workspaceId: string, importId: string, actorUse
       .limit(1);
     if (!batch) throw new AppError('not-found', 'No such import in this workspace.');
     if (batch.status === 'undone') throw new AppError('conflict', 'This import was already undone.');
+    const refused = refusal(batch);
+    if (refused) throw new AppError('forbidden', refused);
     const now = Date.now();
     const target = batch.kind === 'measurements' ? measurement : calculation;
     const result = await tx

@@ -17,6 +17,7 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
         valueText: measurement.valueText,
         unit: measurement.unit,
         uncertainty: measurement.uncertainty,
+        uncertaintyText: measurement.uncertaintyText,
         temperatureK: measurement.temperatureK,
         irrep: measurement.irrep,
         branch: measurement.branch,

@@ -1,7 +1,8 @@
 import 'server-only';
 import { and, asc, count, type AnyColumn, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm';
 import { db } from '@/db/client';
-import { calculation, material, measurement, method, source, user } from '@/db/schema';
+import { alias } from 'drizzle-orm/sqlite-core';
+import { calculation, importBatch, material, measurement, method, source, user } from '@/db/schema';
 import { likePattern } from '@/lib/catalog/list-params';
 import type { ValueListParams, ValueSortKey } from '@/lib/catalog/value-list-params';
 
@@ -227,3 +228,38 @@ export type CalculationTableRow = Awaited<ReturnType<typeof listCalculationRows>
 export async function listMethodChoices(workspaceId: string) {
   return db.select({ id: method.id, label: method.label }).from(method).where(eq(method.workspaceId, workspaceId)).orderBy(asc(method.label));
 }
+
+/**
+ * One measurement or calculation as its history page shows it: what it is (for the
+ * title), and how it came and went (its creation and retraction are stored on the
+ * row and on its import, not as audit rows of its own).
+ */
+export async function getValueRecord(workspaceId: string, kind: 'measurement' | 'calculation', id: string) {
+  const t = kind === 'measurement' ? measurement : calculation;
+  const retractor = alias(user, 'retractor');
+  const rows = await db
+    .select({
+      ...commonColumns(t),
+      retractionReason: t.retractionReason,
+      retractedByName: retractor.name,
+      importFileName: importBatch.fileName,
+      importVia: importBatch.via,
+      importCreatedAt: importBatch.createdAt,
+    })
+    .from(t)
+    .innerJoin(material, eq(material.id, t.materialId))
+    .innerJoin(source, eq(source.id, t.sourceId))
+    .leftJoin(user, eq(user.id, t.contributorId))
+    .leftJoin(retractor, eq(retractor.id, t.retractedBy))
+    .leftJoin(importBatch, eq(importBatch.id, t.importId))
+    .where(and(eq(t.workspaceId, workspaceId), eq(t.id, id)))
+    .limit(1);
+  const row = rows[0];
+  if (!row) return null;
+  const methodLabel =
+    kind === 'calculation'
+      ? ((await db.select({ label: method.label }).from(method).innerJoin(calculation, eq(calculation.methodId, method.id)).where(eq(calculation.id, id)).limit(1))[0]?.label ?? null)
+      : null;
+  return { ...row, methodLabel };
+}
+export type ValueRecord = NonNullable<Awaited<ReturnType<typeof getValueRecord>>>;

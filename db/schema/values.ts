@@ -27,7 +27,7 @@ export const importBatch = sqliteTable(
     insertedCount: integer().notNull(),
     duplicateCount: integer().notNull().default(0),
     status: text({ enum: ['committed', 'undone'] }).notNull().default('committed'),
-    via: text({ enum: ['wizard', 'api'] }).notNull(),
+    via: text({ enum: ['wizard', 'api', 'form'] }).notNull(),
     createdBy: text().references(() => user.id),
     createdByToken: text().references(() => apiToken.id),
     createdAt: createdAt(),

@@ -232,7 +232,7 @@ export const importSummarySchema = z
     insertedCount: z.int(),
     duplicateCount: z.int(),
     status: z.enum(['committed', 'undone']),
-    via: z.enum(['wizard', 'api']),
+    via: z.enum(['wizard', 'api', 'form']),
     createdAt: timestamp,
   })
   .meta({ title: 'ImportSummary' });

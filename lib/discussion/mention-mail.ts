@@ -1,5 +1,5 @@
 import type { NewMail } from '@/db/schema/mail';
-import { escapeHtml } from '@/lib/mail/templates';
+import { escapeHtml, WRAP_ANYWHERE } from '@/lib/mail/templates';
 
 const EXCERPT = 600;
 
@@ -11,7 +11,7 @@ export function mentionMail(input: { to: string; recipientName: string; authorNa
   const html =
     `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1a1a1a;max-width:560px;margin:24px auto;padding:0 16px">` +
     `<p>Hello ${escapeHtml(input.recipientName)},</p><p>${escapeHtml(lead)}</p>` +
-    `<blockquote style="margin:12px 0;padding:8px 12px;border-left:3px solid #c3cbd2;color:#333;white-space:pre-wrap">${escapeHtml(excerpt)}</blockquote>` +
+    `<blockquote style="margin:12px 0;padding:8px 12px;border-left:3px solid #c3cbd2;color:#333;white-space:pre-wrap;${WRAP_ANYWHERE}">${escapeHtml(excerpt)}</blockquote>` +
     `<p><a href="${escapeHtml(input.url)}">Open the discussion</a></p>` +
     `<hr style="border:none;border-top:1px solid #ddd;margin:24px 0"><p style="font-size:12px;color:#666">Lattice Ledger</p></body></html>`;
   return {

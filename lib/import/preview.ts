@@ -6,7 +6,8 @@ import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from './errors';
 import { autoMapColumns, resolveHeader, type ColumnMapping } from './header';
 import type { DefaultUnits } from './units';
 import { ModeSetTally, type ImportWarning } from './mode-set-warnings';
-import { modeSetFacts, validateRow, type ImportReferences } from './validate-row';
+import { modeSetFacts, validateRow, type ImportReferences, type ValidRow } from './validate-row';
+import { storedValue } from '@/lib/format';
 
 /** Reference lists as the wizard fetches them (JSON-friendly). */
 export interface ReferenceLists {
@@ -42,10 +43,25 @@ export interface PreviewResult {
   errorCount: number;
   errors: RowError[];
   /** The first data rows as read (cells in header order) with their row numbers. */
-  preview: Array<{ row: number; cells: string[]; ok: boolean }>;
+  preview: PreviewRow[];
   /** Calculation imports: incomplete mode sets and sets without acoustic marks (mode-set-warnings.ts). */
   warnings: ImportWarning[];
   warningCount: number;
+}
+
+export interface PreviewRow {
+  row: number;
+  cells: string[];
+  ok: boolean;
+  /** Header names of the cells this row's errors point at. */
+  badColumns: string[];
+  /** What would be stored, for a valid row: the normalised label and the canonical value (shown with the entry's precision). */
+  stored: { label: string | null; value: string } | null;
+}
+
+/** A valid row's label and value as the server will store them. */
+function storedOf(valid: ValidRow): PreviewRow['stored'] {
+  return { label: valid.irrepNormalized, value: storedValue({ quantity: valid.quantity, value: valid.value, valueText: valid.valueText, unit: valid.unit }) };
 }
 
 export const PREVIEW_ROWS = 50;
@@ -99,22 +115,26 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
         const h = header!;
         if (h.errors.length) return;
         let ok = false;
+        let stored: PreviewRow['stored'] = null;
+        const badColumns: string[] = [];
         if (broken.has(i)) addError({ row, column: null, reason: 'Broken quoting: a quoted cell must end with a quote followed by a delimiter or a line break.' });
         else if (fields.length !== headers.length)
           addError({ row, column: null, reason: `This row has ${fields.length} cells; the header has ${headers.length} (${delimiterName(delimiter)}-separated).` });
         else {
-          const before = errors.length;
-          const valid = validateRow(row, (key) => { const idx = h.indexByKey.get(key); return idx === undefined ? undefined : fields[idx]; }, { kind: request.kind, references, units: request.units, columnName: (key) => h.nameByKey.get(key) ?? key }, errors);
+          const rowErrors: RowError[] = [];
+          const valid = validateRow(row, (key) => { const idx = h.indexByKey.get(key); return idx === undefined ? undefined : fields[idx]; }, { kind: request.kind, references, units: request.units, columnName: (key) => h.nameByKey.get(key) ?? key }, rowErrors);
           if (valid) {
             validCount++;
             ok = true;
             tally.add(row, valid);
+            stored = storedOf(valid);
           } else {
-            errorCount += Math.max(1, errors.length - before);
-            if (errors.length > MAX_REPORTED_ERRORS) errors.length = MAX_REPORTED_ERRORS;
+            errorCount += Math.max(1, rowErrors.length);
+            errors.push(...rowErrors.slice(0, Math.max(0, MAX_REPORTED_ERRORS - errors.length)));
+            for (const e of rowErrors) if (e.column && !badColumns.includes(e.column)) badColumns.push(e.column);
           }
         }
-        if (preview.length < PREVIEW_ROWS) preview.push({ row, cells: fields, ok });
+        if (preview.length < PREVIEW_ROWS) preview.push({ row, cells: fields, ok, badColumns, stored });
       });
       onProgress(Math.min(1, results.meta.cursor / text.length));
     },

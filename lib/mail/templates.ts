@@ -5,10 +5,16 @@ export function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
+/**
+ * Long links (a 200-character token URL) would widen a phone's mail view: every
+ * paragraph may break anywhere, the pasted link above all.
+ */
+export const WRAP_ANYWHERE = 'overflow-wrap:anywhere;word-break:break-word';
+
 function layout(title: string, paragraphs: string[], action?: { label: string; url: string }): string {
-  const body = paragraphs.map((p) => `<p style="margin:0 0 12px">${escapeHtml(p)}</p>`).join('');
+  const body = paragraphs.map((p) => `<p style="margin:0 0 12px;${WRAP_ANYWHERE}">${escapeHtml(p)}</p>`).join('');
   const button = action
-    ? `<p style="margin:20px 0"><a href="${escapeHtml(action.url)}" style="background:#1f4e5f;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(action.label)}</a></p><p style="font-size:12px;color:#555">Or paste this link into your browser: ${escapeHtml(action.url)}</p>`
+    ? `<p style="margin:20px 0"><a href="${escapeHtml(action.url)}" style="display:inline-block;background:#1f4e5f;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(action.label)}</a></p><p style="font-size:12px;color:#555;${WRAP_ANYWHERE};word-break:break-all">Or paste this link into your browser: <a href="${escapeHtml(action.url)}" style="color:#1f4e5f">${escapeHtml(action.url)}</a></p>`
     : '';
   return `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1a1a1a;max-width:560px;margin:24px auto;padding:0 16px"><h1 style="font-size:18px">${escapeHtml(title)}</h1>${body}${button}<hr style="border:none;border-top:1px solid #ddd;margin:24px 0"><p style="font-size:12px;color:#666">Lattice Ledger</p></body></html>`;
 }

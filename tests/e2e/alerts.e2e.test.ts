@@ -29,24 +29,24 @@ const SUBJECT = /^Benchmark shifted: Γ-point frequencies — all methods \(demo
 
 const HEADER = 'material,quantity,value,unit,uncertainty,temperature_K,irrep,technique,source,notes';
 const NOTE = 'invented re-measurement for the alert test (demo only)';
-/** −15 % on single-line Raman modes: every method's error grows on these pairs. */
+/** −15 % on single-line Raman modes (of the values in data/demo/modes.csv): every method's error grows on these pairs. */
 const SHIFTING = [
   ['Si', 442.4],
   ['Ge', 255.6],
   ['C-diamond', 1132.8],
   ['CaF2', 273.7],
-  ['SrF2', 243.1],
-  ['BaF2', 204.9],
-  ['CeO2', 395.3],
+  ['SrF2', 230.9],
+  ['BaF2', 217.2],
+  ['CeO2', 379.4],
 ]
   .map(([material, value]) => `${material},frequency,${value},cm-1,0.1,295,T2g,raman,demo-invented-2026,${NOTE}`)
   .join('\n');
 /** One line 0.5 cm⁻¹ from the value already measured: a typical error, nothing meaningful. */
-const QUIET = `TiO2-rutile,frequency,612.5,cm-1,1,295,A1g,raman,demo-invented-2026,${NOTE}`;
+const QUIET = `TiO2-rutile,frequency,643.1,cm-1,1,295,A1g,raman,demo-invented-2026,${NOTE}`;
 const SHIFTING_AGAIN = [
-  ['Eg', 380],
-  ['B1g', 121.6],
-  ['B2g', 702.1],
+  ['Eg', 399.0],
+  ['B1g', 127.7],
+  ['B2g', 737.2],
 ]
   // 80 K: a spectrum of its own, so these lines pair instead of competing with the 295 K ones
   .map(([irrep, value]) => `TiO2-rutile,frequency,${value},cm-1,0.1,80,${irrep},raman,demo-invented-2026,${NOTE}`)

@@ -20,6 +20,11 @@ describe('CSV export neutralises formula cells (OWASP CSV injection)', () => {
     expect(neutraliseCell(null)).toBe('');
   });
 
+  it('writes computed numbers without floating-point noise (an error of 531.85 − 520.45)', () => {
+    expect(neutraliseCell(531.85 - 520.45)).toBe('11.4');
+    expect(neutraliseCell(Number.NaN)).toBe('');
+  });
+
   it('quotes cells with commas, quotes and line breaks so the file reads back cell for cell', () => {
     expect(csvLine(['a,b', 'say "x"', '1.50'])).toBe('"a,b","say ""x""",1.50');
     const csv = toCsv(['notes', 'value'], [['two\nlines', '1.50'], ['=1+1', -2]]);

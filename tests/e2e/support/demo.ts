@@ -1,5 +1,7 @@
 import { readFileSync } from 'node:fs';
-import type { Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { newBrowser } from './browser';
 
 const group = JSON.parse(readFileSync('data/demo/group.json', 'utf8')) as {
   password: string;
@@ -25,4 +27,21 @@ export async function signInDemo(page: Page, base: string, role: 'owner' | 'cura
 export async function signOut(page: Page) {
   await page.getByRole('button', { name: 'Sign out' }).first().click();
   await page.waitForURL(/\/sign-in/);
+}
+
+/**
+ * A fresh browser signed in as a demo member for the tests of one file:
+ * `const session = demoSession('curator')`, then `session.page` inside the tests.
+ */
+export function demoSession(role: 'owner' | 'curator' | 'contributor' | 'reviewer', base: string): { page: Page } {
+  const session = {} as { page: Page; browser: BrowserContext };
+  beforeAll(async () => {
+    session.browser = await newBrowser();
+    session.page = await session.browser.newPage();
+    await signInDemo(session.page, base, role);
+  });
+  afterAll(async () => {
+    await session.browser?.close();
+  });
+  return session;
 }

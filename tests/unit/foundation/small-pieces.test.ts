@@ -24,6 +24,15 @@ describe('mail templates', () => {
     expect(mail.htmlBody).toContain('&lt;script&gt;');
     expect(mail.textBody).toContain('http://localhost/invitations/1');
   });
+
+  it('lets a long link break anywhere instead of widening the message', () => {
+    const url = `http://localhost/reset-password?token=${'x'.repeat(180)}`;
+    const mail = invitationMail({ to: 'a@example.org', workspaceName: 'Lab', inviterName: 'Eve', role: 'reviewer', url });
+    const pasted = mail.htmlBody.split('<p').find((p) => p.includes('Or paste this link'))!;
+    expect(pasted).toContain('overflow-wrap:anywhere');
+    expect(pasted).toContain('word-break:break-all');
+    expect(pasted).toContain(`>${url}</a>`);
+  });
 });
 
 describe('WriteLock', () => {

@@ -30,6 +30,16 @@ describe('browser preview (papaparse in chunks)', () => {
     expect(fractions.at(-1)).toBe(1);
   });
 
+  it('shows what would be stored (normalised label, canonical value with the entry\'s precision) and which cells are bad', () => {
+    const text = 'material,quantity,value,unit,irrep,source\nSi,frequency,15.60,THz,F2g,parker1967\nSi,frequency,520.2,cm-1,t2g,parker1967\nSi,frequency,12x,cm-1,T2g,nobody\n';
+    const result = previewCsv(text, { kind: 'measurements', references });
+    // 15.60 THz × 33.356 409 52 cm⁻¹/THz (CODATA 2018, derived) = 520.36 cm⁻¹; 4 significant figures typed → 520.4
+    expect(result.preview[0]).toMatchObject({ ok: true, badColumns: [], stored: { label: 'T2g', value: '520.4\u00a0cm⁻¹' } });
+    expect(result.preview[1].stored).toEqual({ label: 'T2g', value: '520.2\u00a0cm⁻¹' });
+    expect(result.preview[2]).toMatchObject({ ok: false, stored: null });
+    expect(result.preview[2].badColumns.sort()).toEqual(['source', 'value']);
+  });
+
   it('uses a corrected mapping and file-wide units', () => {
     const text = 'name,q,v,cite\nSi,frequency,15.6,parker1967\n';
     const result = previewCsv(text, { kind: 'measurements', references, mapping: { material: 'name', quantity: 'q', value: 'v', source: 'cite' }, units: { frequency: 'THz' } });

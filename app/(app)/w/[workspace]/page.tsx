@@ -5,6 +5,7 @@ import { listBenchmarks } from '@/db/queries/benchmarks';
 import { listImports } from '@/db/queries/imports';
 import { Panel } from '@/components/ui/panel';
 import { ROLE_DESCRIPTIONS } from '@/lib/permissions';
+import { count, stat, withUnit } from '@/lib/format';
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 
@@ -34,7 +35,7 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
         {counts.map((c) => (
           <Link key={c.label} href={`/w/${slug}/${c.href}`} className="rounded-lg border border-rule bg-panel px-4 py-3 no-underline hover:border-accent/50">
             <dt className="text-xs text-ink-muted">{c.label}</dt>
-            <dd className="num text-2xl font-semibold text-ink">{c.value.toLocaleString('en')}</dd>
+            <dd className="num text-2xl font-semibold text-ink">{count(c.value)}</dd>
           </Link>
         ))}
       </dl>
@@ -54,8 +55,8 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
                   <span className="block text-xs text-ink-muted">
                     {b.best ? (
                       <>
-                        best MAE <span className="num">{b.best.mae.toFixed(2)}</span> {b.quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹'} ({b.best.label},{' '}
-                        {b.best.common ? `on the N = ${b.best.n} pairs the ${b.best.ranked} ranked methods share` : `N = ${b.best.n}`}
+                        best MAE <span className="num">{withUnit(stat('error', b.best.mae), b.quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹')}</span> ({b.best.label},{' '}
+                        {b.best.common ? `on the N = ${count(b.best.n)} pairs the ${b.best.ranked} ranked methods share` : `N = ${count(b.best.n)}`}
                         {b.best.coverage != null ? `, coverage ${Math.round(100 * b.best.coverage)} %` : ''}) · {b.best.ranked} of {b.methodCount} methods ranked · revision {b.revisionNumber}
                       </>
                     ) : (
@@ -78,7 +79,7 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
                 <li key={i.id}>
                   <Link href={`/w/${slug}/imports/${i.id}`}>{i.fileName ?? i.kind}</Link>
                   <span className="block text-xs text-ink-muted">
-                    <span className="num">{i.insertedCount.toLocaleString('en')}</span> {i.kind} · {i.creatorName ?? i.tokenName ?? 'a pipeline'} · {when.format(i.createdAt)} UTC
+                    <span className="num">{count(i.insertedCount)}</span> {i.kind} · {i.creatorName ?? i.tokenName ?? 'a pipeline'} · {when.format(i.createdAt)} UTC
                     {i.status === 'undone' ? ' · undone' : ''}
                   </span>
                 </li>

@@ -1,6 +1,9 @@
 import type { Metadata } from 'next';
 import { ExportCsvLink } from '../measurements/_components/export-link';
+import Link from 'next/link';
 import { requirePageMember } from '@/lib/session';
+import { roleCan } from '@/lib/permissions';
+import { buttonClass } from '@/components/ui/button';
 import { parseValueListParams } from '@/lib/catalog/value-list-params';
 import { QUANTITIES } from '@/db/schema/values';
 import { listCalculationRows, listMethodChoices } from '@/db/queries/values';
@@ -19,7 +22,14 @@ export default async function CalculationsPage({ params, searchParams }: { param
       <header className="space-y-1">
         <div className="flex items-center justify-between gap-3">
           <h1>Calculations</h1>
-          <ExportCsvLink workspaceId={ctx.workspace.id} kind="calculations" searchParams={query} />
+          <div className="flex flex-wrap items-center gap-2">
+            {roleCan(ctx.role, 'calculations:create') && (
+              <Link href={`/w/${ctx.workspace.slug}/calculations/new`} className={buttonClass('secondary', 'no-underline')}>
+                Add one calculation
+              </Link>
+            )}
+            <ExportCsvLink workspaceId={ctx.workspace.id} kind="calculations" searchParams={query} />
+          </div>
         </div>
         <p className="text-sm text-ink-muted">
           Computed modes and entropies, one row per value, with the method that produced them. The value is shown as entered (with its unit) and in canonical units.

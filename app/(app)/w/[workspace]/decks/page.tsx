@@ -4,7 +4,7 @@ import { requirePageMember } from '@/lib/session';
 import { roleCan } from '@/lib/permissions';
 import { listDecks } from '@/db/queries/decks';
 import { EmptyState, Panel } from '@/components/ui/panel';
-import { when } from '../benchmarks/_components/format';
+import { utcMinute } from '@/lib/format';
 import { CreateDeckForm } from './_components/deck-forms';
 
 export const metadata: Metadata = { title: 'Decks' };
@@ -36,7 +36,7 @@ export default async function DecksPage({ params }: { params: Promise<{ workspac
                     {d.title}
                   </Link>
                   <p className="text-xs text-ink-muted">
-                    {d.views} view{d.views === 1 ? '' : 's'} · {d.createdBy ?? 'unknown'}, {when(d.updatedAt ?? d.createdAt)}
+                    {d.views} view{d.views === 1 ? '' : 's'} · {d.createdBy ?? 'unknown'}, {utcMinute(d.updatedAt ?? d.createdAt)}
                   </p>
                 </div>
                 <div className="flex gap-3 text-sm">

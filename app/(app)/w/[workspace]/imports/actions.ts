@@ -1,15 +1,25 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
+import { roleCan } from '@/lib/permissions';
+import { count } from '@/lib/format';
+import { undoVerdict } from '@/lib/import/undo-rule';
 import { undoImport } from '@/db/queries/imports';
 import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
 import { undoImportSchema } from './schemas';
 
-/** Retracts every row of an import with the reason, marks it undone, audits it — one transaction. */
-export const undoImportAction = workspaceAction('imports:undo', undoImportSchema, async (input, ctx) => {
-  const { retracted } = await undoImport(ctx.workspace.id, input.importId, ctx.user.id, input.reason);
+/**
+ * Retracts every row of an import with the reason, marks it undone, audits it — one transaction.
+ * A curator or owner may undo any import; whoever made it, their own within the undo window (lib/import/undo-rule).
+ */
+export const undoImportAction = workspaceAction('imports:create', undoImportSchema, async (input, ctx) => {
+  const canUndoAny = roleCan(ctx.role, 'imports:undo');
+  const { retracted } = await undoImport(ctx.workspace.id, input.importId, ctx.user.id, input.reason, (batch) => {
+    const verdict = undoVerdict({ canUndoAny, canImport: true, userId: ctx.user.id, batch });
+    return verdict.allowed ? null : verdict.reason;
+  });
   if (retracted > 0) scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'import-undone', importId: input.importId, userId: ctx.user.id });
   revalidatePath(`/w/${ctx.workspace.slug}/imports`);
   revalidatePath(`/w/${ctx.workspace.slug}/imports/${input.importId}`);
-  return { ok: true, message: `Import undone: ${retracted.toLocaleString('en')} rows retracted.` };
+  return { ok: true, message: `Import undone: ${count(retracted)} ${retracted === 1 ? 'row' : 'rows'} retracted.` };
 });

@@ -6,6 +6,7 @@ import { roleCan } from '@/lib/permissions';
 import { listImports } from '@/db/queries/imports';
 import { buttonClass } from '@/components/ui/button';
 import { EmptyState, Panel } from '@/components/ui/panel';
+import { count } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Imports' };
 
@@ -36,7 +37,7 @@ export default async function ImportsPage({ params, searchParams }: { params: Pr
       {total === 0 ? (
         <EmptyState title="No imports yet">Start with a template: Imports → New import. Pipelines can post to /api/v1/imports with an API token.</EmptyState>
       ) : (
-        <Panel title={`${total.toLocaleString('en')} imports`}>
+        <Panel title={`${count(total)} imports`}>
           <table className="w-full text-sm" data-testid="import-history">
             <thead className="text-left text-xs text-ink-muted">
               <tr>
@@ -59,14 +60,15 @@ export default async function ImportsPage({ params, searchParams }: { params: Pr
                   <td className="py-2 pr-3">
                     {i.creatorName ?? '—'}
                     {i.via === 'api' && <span className="text-xs text-ink-muted"> via API{i.tokenName ? ` (${i.tokenName})` : ''}</span>}
+                    {i.via === 'form' && <span className="text-xs text-ink-muted"> single entry</span>}
                   </td>
                   <td className="py-2 pr-3">{i.kind}</td>
                   <td className="max-w-64 truncate py-2 pr-3 text-ink-muted" title={i.fileName ?? undefined}>
                     {i.fileName ?? '—'}
                   </td>
-                  <td className="num py-2 pr-3 text-right">{i.rowCount.toLocaleString('en')}</td>
-                  <td className="num py-2 pr-3 text-right">{i.insertedCount.toLocaleString('en')}</td>
-                  <td className="num py-2 pr-3 text-right text-ink-muted">{i.duplicateCount.toLocaleString('en')}</td>
+                  <td className="num py-2 pr-3 text-right">{count(i.rowCount)}</td>
+                  <td className="num py-2 pr-3 text-right">{count(i.insertedCount)}</td>
+                  <td className="num py-2 pr-3 text-right text-ink-muted">{count(i.duplicateCount)}</td>
                   <td className={`py-2 pl-3 ${i.status === 'undone' ? 'text-warn' : 'text-good'}`}>{i.status}</td>
                 </tr>
               ))}

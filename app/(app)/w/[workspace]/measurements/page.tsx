@@ -1,6 +1,9 @@
 import type { Metadata } from 'next';
 import { ExportCsvLink } from './_components/export-link';
+import Link from 'next/link';
 import { requirePageMember } from '@/lib/session';
+import { roleCan } from '@/lib/permissions';
+import { buttonClass } from '@/components/ui/button';
 import { parseValueListParams } from '@/lib/catalog/value-list-params';
 import { QUANTITIES, TECHNIQUES } from '@/db/schema/values';
 import { listMeasurementRows } from '@/db/queries/values';
@@ -19,7 +22,14 @@ export default async function MeasurementsPage({ params, searchParams }: { param
       <header className="space-y-1">
         <div className="flex items-center justify-between gap-3">
           <h1>Measurements</h1>
-          <ExportCsvLink workspaceId={ctx.workspace.id} kind="measurements" searchParams={query} />
+          <div className="flex flex-wrap items-center gap-2">
+            {roleCan(ctx.role, 'measurements:create') && (
+              <Link href={`/w/${ctx.workspace.slug}/measurements/new`} className={buttonClass('secondary', 'no-underline')}>
+                Add one measurement
+              </Link>
+            )}
+            <ExportCsvLink workspaceId={ctx.workspace.id} kind="measurements" searchParams={query} />
+          </div>
         </div>
         <p className="text-sm text-ink-muted">
           Measured peaks and entropies with their source. The value is shown as entered (with its unit) and in canonical units; every row links to its import and history.

@@ -9,7 +9,7 @@ import { buttonClass } from '@/components/ui/button';
 import { inputClass } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { Panel } from '@/components/ui/panel';
-import { when } from '../benchmarks/_components/format';
+import { utcMinute } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Minutes' };
 
@@ -66,7 +66,7 @@ export default async function MinutesPage({ params, searchParams }: { params: Pr
                         <Link href={`/w/${slug}/benchmarks/${d.benchmarkId}`}>{d.benchmarkName}</Link>
                       </>
                     ) : null}{' '}
-                    — “{d.reason}” · {d.by ?? 'unknown'}, {when(d.at)}
+                    — “{d.reason}” · {d.by ?? 'unknown'}, {utcMinute(d.at)}
                     {d.threadId ? <span className="text-xs text-ink-muted"> · from a discussion</span> : null}
                   </li>
                 ))}
@@ -87,14 +87,14 @@ export default async function MinutesPage({ params, searchParams }: { params: Pr
                       {t.benchmarkName ? <span className="text-ink-muted"> · {t.benchmarkName}</span> : null}
                       <span className="text-xs text-ink-muted">
                         {' '}
-                        · resolved by {t.resolvedByName ?? 'unknown'}, {when(t.resolvedAt!)}
+                        · resolved by {t.resolvedByName ?? 'unknown'}, {utcMinute(t.resolvedAt!)}
                       </span>
                     </p>
                     <ol className="space-y-1 border-l-2 border-rule pl-3">
                       {t.comments.map((c) => (
                         <li key={c.id}>
                           <span className="text-xs text-ink-muted">
-                            {c.authorName ?? 'former member'}, {when(c.createdAt)}
+                            {c.authorName ?? 'former member'}, {utcMinute(c.createdAt)}
                           </span>
                           <CommentBody body={c.body} />
                         </li>

@@ -20,7 +20,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
   const [decided, decide] = useActionState(decideAction, { ok: false });
   const [pinned, pin] = useActionState(pinAction, { ok: false });
   return (
-    <div className="space-y-1">
+    <div className="relative space-y-1">
       <div className="flex gap-1.5">
         <button type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open === 'decide'} onClick={() => setOpen(open === 'decide' ? null : 'decide')}>
           Exclude / keep…
@@ -30,7 +30,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
         </button>
       </div>
       {open === 'decide' ? (
-        <form action={decide} className="space-y-1.5 rounded-md border border-rule bg-paper p-2">
+        <form action={decide} className="absolute right-0 z-30 mt-1 w-[30rem] max-w-[calc(100vw-2rem)] space-y-1.5 rounded-md border border-rule-strong bg-panel p-3 text-left shadow-lg">
           <input type="hidden" name="workspaceId" value={pair.workspaceId} />
           <input type="hidden" name="benchmarkId" value={pair.benchmarkId} />
           <input type="hidden" name="measurementId" value={pair.measurementId} />
@@ -47,7 +47,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
         </form>
       ) : null}
       {open === 'pin' ? (
-        <form action={pin} className="space-y-1.5 rounded-md border border-rule bg-paper p-2">
+        <form action={pin} className="absolute right-0 z-30 mt-1 w-[30rem] max-w-[calc(100vw-2rem)] space-y-1.5 rounded-md border border-rule-strong bg-panel p-3 text-left shadow-lg">
           <input type="hidden" name="workspaceId" value={pair.workspaceId} />
           <input type="hidden" name="benchmarkId" value={pair.benchmarkId} />
           <input type="hidden" name="measurementId" value={pair.measurementId} />

@@ -7,7 +7,7 @@ import { describeProblem, getDeck } from '@/db/queries/decks';
 import { VIEW_KIND_LABELS } from '@/components/decks/view-kinds';
 import { buttonClass } from '@/components/ui/button';
 import { EmptyState, Panel } from '@/components/ui/panel';
-import { when } from '../../benchmarks/_components/format';
+import { utcMinute } from '@/lib/format';
 import { RetitleDeckForm, ViewControls, ViewTextForm } from '../_components/deck-forms';
 
 export const metadata: Metadata = { title: 'Deck' };
@@ -29,7 +29,7 @@ export default async function DeckPage({ params }: { params: Promise<{ workspace
         <div>
           <h1>{deck.title}</h1>
           <p className="text-xs text-ink-muted">
-            {deck.views.length} view{deck.views.length === 1 ? '' : 's'} · updated {when(deck.updatedAt ?? deck.createdAt)}
+            {deck.views.length} view{deck.views.length === 1 ? '' : 's'} · updated {utcMinute(deck.updatedAt ?? deck.createdAt)}
           </p>
         </div>
         <div className="flex gap-2">

@@ -6,12 +6,20 @@ import { roleCan } from '@/lib/permissions';
 import { getImport, listImportHistory } from '@/db/queries/imports';
 import { listCalculations, listMeasurements } from '@/db/queries/values';
 import { Panel } from '@/components/ui/panel';
+import { count, storedValue, unitSymbol } from '@/lib/format';
+import { UNDO_RULE, undoVerdict } from '@/lib/import/undo-rule';
 import { UndoImportForm } from '../_components/undo-import-form';
 
 export const metadata: Metadata = { title: 'Import' };
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium' });
 const SAMPLE_ROWS = 100;
+
+const VIA: Record<'wizard' | 'api' | 'form', (token: string | null) => string> = {
+  wizard: () => ' with the import wizard',
+  form: () => ' with the single-entry form',
+  api: (token) => ` via API${token ? ` (token “${token}”)` : ''}`,
+};
 
 export default async function ImportPage({ params }: { params: Promise<{ workspace: string; importId: string }> }) {
   const { workspace, importId } = await params;
@@ -23,18 +31,18 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
     batch.kind === 'measurements' ? listMeasurements(ctx.workspace.id, filter) : listCalculations(ctx.workspace.id, filter),
     listImportHistory(ctx.workspace.id, batch.id),
   ]);
-  const canUndo = batch.status === 'committed' && roleCan(ctx.role, 'imports:undo');
+  const verdict = undoVerdict({ canUndoAny: roleCan(ctx.role, 'imports:undo'), canImport: roleCan(ctx.role, 'imports:create'), userId: ctx.user.id, batch });
 
   const facts: Array<[string, React.ReactNode]> = [
     ['Kind', batch.kind],
     ['File', batch.fileName ?? '—'],
-    ['By', `${batch.creatorName ?? '—'}${batch.via === 'api' ? ` via API${batch.tokenName ? ` (token “${batch.tokenName}”)` : ''}` : ' with the wizard'}`],
+    ['By', `${batch.creatorName ?? '—'}${VIA[batch.via](batch.tokenName)}`],
     ['When', when.format(batch.createdAt)],
-    ['Bytes', batch.byteCount.toLocaleString('en')],
+    ['Bytes', count(batch.byteCount)],
     ['SHA-256', <code key="sha" className="break-all font-mono text-xs">{batch.sha256}</code>],
-    ['Rows in the file', batch.rowCount.toLocaleString('en')],
-    ['Inserted', batch.insertedCount.toLocaleString('en')],
-    ['Identical to existing rows (skipped)', batch.duplicateCount.toLocaleString('en')],
+    ['Rows in the file', count(batch.rowCount)],
+    ['Inserted', count(batch.insertedCount)],
+    ['Identical to existing rows (skipped)', count(batch.duplicateCount)],
     ['Status', batch.status === 'undone' ? `undone ${batch.undoneAt ? when.format(batch.undoneAt) : ''} by ${batch.undoneByName ?? '—'}: “${batch.undoReason}”` : 'committed'],
   ];
 
@@ -58,9 +66,22 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
           </dl>
         </Panel>
         <div className="space-y-5">
-          {canUndo && (
+          {batch.status === 'committed' && (
             <Panel title="Undo">
-              <UndoImportForm workspaceId={ctx.workspace.id} importId={batch.id} rowCount={batch.insertedCount} />
+              {verdict.allowed ? (
+                <div className="space-y-2">
+                  {verdict.as === 'importer' && (
+                    <p className="text-sm" data-testid="undo-window">
+                      You made this import, so you can undo it until {when.format(verdict.until)}. After that a curator or owner can.
+                    </p>
+                  )}
+                  <UndoImportForm workspaceId={ctx.workspace.id} importId={batch.id} rowCount={batch.insertedCount} />
+                </div>
+              ) : (
+                <p className="text-sm text-ink-muted" data-testid="undo-rule">
+                  {verdict.reason === UNDO_RULE ? UNDO_RULE : <>{verdict.reason} {UNDO_RULE}</>}
+                </p>
+              )}
             </Panel>
           )}
           <Panel title="History">
@@ -76,16 +97,16 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
           </Panel>
         </div>
       </div>
-      <Panel title={`Rows (${values.total.toLocaleString('en')}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
+      <Panel title={`Rows (${count(values.total)}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
         <div className="overflow-x-auto">
           <table className="w-full text-sm" data-testid="import-rows">
             <thead className="text-left text-xs text-ink-muted">
               <tr>
                 <th className="pb-2 font-medium">Quantity</th>
                 <th className="pb-2 text-right font-medium">Value as entered</th>
-                <th className="pb-2 font-medium">Unit</th>
-                <th className="pb-2 text-right font-medium">Canonical</th>
-                <th className="pb-2 font-medium">Label</th>
+                <th className="pb-2 pl-2 font-medium">Unit as entered</th>
+                <th className="pb-2 text-right font-medium">Stored value (canonical unit)</th>
+                <th className="pb-2 pl-3 font-medium">Label</th>
                 <th className="pb-2 font-medium">Status</th>
               </tr>
             </thead>
@@ -94,11 +115,9 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
                 <tr key={r.id} className={r.retractedAt ? 'text-ink-muted line-through decoration-ink-faint' : ''}>
                   <td className="py-1.5 pr-3">{r.quantity}</td>
                   <td className="num py-1.5 pr-3 text-right">{r.valueText}</td>
-                  <td className="py-1.5 pr-3">{r.unit}</td>
-                  <td className="num py-1.5 pr-3 text-right">
-                    {r.value.toPrecision(6)} {r.quantity === 'frequency' ? 'cm⁻¹' : 'J mol⁻¹ K⁻¹'}
-                  </td>
-                  <td className="py-1.5 pr-3">{r.irrepNormalized ?? '—'}</td>
+                  <td className="py-1.5 pl-2 pr-3">{unitSymbol(r.unit)}</td>
+                  <td className="num py-1.5 pr-3 text-right">{storedValue(r)}</td>
+                  <td className="py-1.5 pl-3 pr-3">{r.irrepNormalized ?? '—'}</td>
                   <td className="py-1.5">{r.retractedAt ? 'retracted' : 'live'}</td>
                 </tr>
               ))}

@@ -4,6 +4,7 @@ import { undoImportAction } from '../actions';
 import { TextField } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
+import { count } from '@/lib/format';
 
 export function UndoImportForm({ workspaceId, importId, rowCount }: { workspaceId: string; importId: string; rowCount: number }) {
   const [state, action] = useActionState(undoImportAction, { ok: false });
@@ -12,7 +13,7 @@ export function UndoImportForm({ workspaceId, importId, rowCount }: { workspaceI
       <input type="hidden" name="workspaceId" value={workspaceId} />
       <input type="hidden" name="importId" value={importId} />
       <p className="text-sm text-ink-muted">
-        Retracts the {rowCount.toLocaleString('en')} rows of this import. They stay in the history with your reason; nothing is deleted.
+        Retracts the {count(rowCount)} rows of this import. They stay in the history with your reason; nothing is deleted.
       </p>
       <TextField label="Reason" name="reason" required minLength={3} maxLength={500} errors={state.fieldErrors?.reason} placeholder="e.g. wrong calibration file" />
       <SubmitButton variant="danger" pendingLabel="Undoing…">

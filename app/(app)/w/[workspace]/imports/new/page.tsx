@@ -16,7 +16,8 @@ export default async function NewImportPage({ params }: { params: Promise<{ work
         <h1>New import</h1>
         <p className="max-w-3xl text-sm text-ink-muted">
           Every row needs a material, a source and (for calculations) a method that already exist in this workspace. The file is checked in your browser, then
-          again on the server; it is imported completely or not at all.
+          again on the server; it is imported completely or not at all. Only one value to add? Use the single-entry form for a{' '}
+          <Link href={`/w/${ctx.workspace.slug}/measurements/new`}>measurement</Link> or a <Link href={`/w/${ctx.workspace.slug}/calculations/new`}>calculation</Link>.
         </p>
       </header>
       <ImportWizard workspaceId={ctx.workspace.id} slug={ctx.workspace.slug} />

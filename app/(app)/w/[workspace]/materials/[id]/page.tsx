@@ -62,6 +62,11 @@ export default async function MaterialPage({ params, searchParams }: { params: P
               Edit
             </Link>
           )}
+          {!m.retractedAt && roleCan(ctx.role, 'measurements:create') && (
+            <Link href={`/w/${slug}/measurements/new?material=${encodeURIComponent(m.name)}`} className={buttonClass('secondary', 'no-underline')}>
+              Add a measurement
+            </Link>
+          )}
           <Link href={`/w/${slug}/history/material/${m.id}`} className={buttonClass('ghost', 'no-underline')}>
             History
           </Link>

@@ -3,22 +3,26 @@ import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import type { ComputedModeRow, MaterialValues, MeasuredPeakRow } from '@/db/queries/material-values';
 import { StickSpectrum } from '@/components/charts/stick-spectrum';
 import { EmptyState, Panel } from '@/components/ui/panel';
+import { asEntered, count, header, plain } from '@/lib/format';
 
-const fmt = (v: number | null | undefined, digits = 1) => (v == null ? '–' : v.toFixed(digits));
+/** A stored value as typed when it was typed in the canonical unit, else with the typed significant figures. */
+const shown = (value: number | null, text: string | null, unit: string, canonical: string) => (value === null ? '–' : asEntered(value, text ?? String(value), unit === canonical));
+const th = 'py-1 pr-2 font-medium';
+const thNum = `${th} text-right`;
 
 function PeaksTable({ slug, peaks }: { slug: string; peaks: MeasuredPeakRow[] }) {
   if (peaks.length === 0) return <p className="text-sm text-ink-muted">No measured peaks.</p>;
   return (
     <table className="w-full text-sm">
-      <caption className="sr-only">Measured peaks</caption>
+      <caption className="sr-only">Measured peaks, by frequency</caption>
       <thead className="text-left text-xs text-ink-muted">
         <tr>
-          <th className="py-1 pr-2 text-right font-medium">cm⁻¹</th>
-          <th className="py-1 pr-2 text-right font-medium">±</th>
-          <th className="py-1 pr-2 font-medium">Irrep</th>
-          <th className="py-1 pr-2 font-medium">Branch</th>
-          <th className="py-1 pr-2 font-medium">Technique</th>
-          <th className="py-1 pr-2 text-right font-medium">T (K)</th>
+          <th className={thNum}>{header('Frequency', 'cm⁻¹')}</th>
+          <th className={thNum}>{header('±', 'cm⁻¹')}</th>
+          <th className={th}>Irrep</th>
+          <th className={th}>Branch</th>
+          <th className={th}>Technique</th>
+          <th className={thNum}>{header('T', 'K')}</th>
           <th className="py-1 font-medium">Source</th>
         </tr>
       </thead>
@@ -26,13 +30,13 @@ function PeaksTable({ slug, peaks }: { slug: string; peaks: MeasuredPeakRow[] })
         {peaks.map((p) => (
           <tr key={p.id}>
             <td className="num py-1 pr-2 text-right" title={`${p.valueText} ${p.unit} as entered`}>
-              {fmt(p.value)}
+              {shown(p.value, p.valueText, p.unit, 'cm-1')}
             </td>
-            <td className="num py-1 pr-2 text-right">{fmt(p.uncertainty)}</td>
+            <td className="num py-1 pr-2 text-right">{shown(p.uncertainty, p.uncertaintyText, p.unit, 'cm-1')}</td>
             <td className="py-1 pr-2">{p.irrep ?? '–'}</td>
             <td className="py-1 pr-2">{p.branch ?? '–'}</td>
             <td className="py-1 pr-2">{p.technique ?? '–'}</td>
-            <td className="num py-1 pr-2 text-right">{fmt(p.temperatureK, 0)}</td>
+            <td className="num py-1 pr-2 text-right">{p.temperatureK === null ? '–' : plain(p.temperatureK)}</td>
             <td className="py-1">
               <Link href={`/w/${slug}/sources/${p.sourceId}`}>{p.citeKey}</Link>
               <IncompleteMark gaps={p.sourceGaps} />
@@ -44,52 +48,64 @@ function PeaksTable({ slug, peaks }: { slug: string; peaks: MeasuredPeakRow[] })
   );
 }
 
+/** Computed modes by frequency (the mode number of the computed list kept beside), with their degeneracy. */
 function ModesTable({ modes }: { modes: ComputedModeRow[] }) {
   if (modes.length === 0) return <p className="text-sm text-ink-muted">No computed modes for this method.</p>;
+  const byFrequency = [...modes].sort((a, b) => a.value - b.value || (a.modeIndex ?? 0) - (b.modeIndex ?? 0));
+  const modeCount = modes.reduce((n, m) => n + (m.degeneracy ?? 1), 0);
   return (
-    <table className="w-full text-sm">
-      <caption className="sr-only">Computed modes</caption>
+    <table className="w-full text-sm" data-testid="computed-modes">
+      <caption className="sr-only">Computed modes, by frequency</caption>
       <thead className="text-left text-xs text-ink-muted">
         <tr>
-          <th className="py-1 pr-2 text-right font-medium">Mode</th>
-          <th className="py-1 pr-2 text-right font-medium">cm⁻¹</th>
-          <th className="py-1 pr-2 font-medium">Irrep</th>
-          <th className="py-1 pr-2 font-medium">Branch</th>
-          <th className="py-1 font-medium">Activity</th>
+          <th className={thNum}>{header('Frequency', 'cm⁻¹')}</th>
+          <th className={th}>Irrep</th>
+          <th className={th}>Branch</th>
+          <th className={thNum}>Degeneracy</th>
+          <th className={th}>Activity</th>
+          <th className="py-1 text-right font-medium">Mode no.</th>
         </tr>
       </thead>
       <tbody className="divide-y divide-rule">
-        {modes.map((m) => (
+        {byFrequency.map((m) => (
           <tr key={m.id}>
-            <td className="num py-1 pr-2 text-right">{m.modeIndex ?? '–'}</td>
             <td className={`num py-1 pr-2 text-right ${m.value < 0 ? 'text-bad' : ''}`} title={`${m.valueText} ${m.unit} as entered`}>
-              {fmt(m.value)}
+              {shown(m.value, m.valueText, m.unit, 'cm-1')}
             </td>
             <td className="py-1 pr-2">{m.irrep ?? '–'}</td>
             <td className="py-1 pr-2">{m.branch ?? '–'}</td>
-            <td className="py-1">{m.activity ?? '–'}</td>
+            <td className="num py-1 pr-2 text-right">{m.degeneracy ?? '–'}</td>
+            <td className="py-1 pr-2">{m.activity ?? '–'}</td>
+            <td className="num py-1 text-right text-ink-muted">{m.modeIndex ?? '–'}</td>
           </tr>
         ))}
       </tbody>
+      <tfoot className="text-xs text-ink-muted">
+        <tr>
+          <td colSpan={6} className="pt-1.5" data-testid="mode-total">
+            {count(modes.length)} {modes.length === 1 ? 'line' : 'lines'}, {count(modeCount)} {modeCount === 1 ? 'mode' : 'modes'} counting degeneracy{modes.some((m) => m.degeneracy === null) ? ' (a line without a degeneracy counts once)' : ''}.
+          </td>
+        </tr>
+      </tfoot>
     </table>
   );
 }
 
 function EntropyTable({ slug, values }: { slug: string; values: MaterialValues }) {
   const rows = [
-    ...values.entropies.map((e) => ({ id: e.id, series: 'Measured', t: e.temperatureK, s: e.value, u: e.uncertainty, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
-    ...values.methods.flatMap((m) => m.entropies.map((e) => ({ id: e.id, series: m.methodLabel, t: e.temperatureK, s: e.value, u: null as number | null, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps }))),
+    ...values.entropies.map((e) => ({ id: e.id, series: 'Measured', t: e.temperatureK, s: shown(e.value, e.valueText, e.unit, 'J/mol/K'), u: shown(e.uncertainty, e.uncertaintyText, e.unit, 'J/mol/K'), sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+    ...values.methods.flatMap((m) => m.entropies.map((e) => ({ id: e.id, series: m.methodLabel, t: e.temperatureK, s: shown(e.value, e.valueText, e.unit, 'J/mol/K'), u: '–', sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps }))),
   ].sort((a, b) => (a.t ?? 0) - (b.t ?? 0) || a.series.localeCompare(b.series));
   if (rows.length === 0) return null;
   return (
-    <Panel title="Vibrational entropy (J mol⁻¹ K⁻¹ per formula unit)">
+    <Panel title="Vibrational entropy (per formula unit)">
       <table className="w-full max-w-2xl text-sm">
         <thead className="text-left text-xs text-ink-muted">
           <tr>
-            <th className="py-1 pr-2 font-medium">Measured / method</th>
-            <th className="py-1 pr-2 text-right font-medium">T (K)</th>
-            <th className="py-1 pr-2 text-right font-medium">S</th>
-            <th className="py-1 pr-2 text-right font-medium">±</th>
+            <th className={th}>Measured / method</th>
+            <th className={thNum}>{header('T', 'K')}</th>
+            <th className={thNum}>{header('S', 'J mol⁻¹ K⁻¹')}</th>
+            <th className={thNum}>{header('±', 'J mol⁻¹ K⁻¹')}</th>
             <th className="py-1 font-medium">Source</th>
           </tr>
         </thead>
@@ -97,9 +113,9 @@ function EntropyTable({ slug, values }: { slug: string; values: MaterialValues }
           {rows.map((r) => (
             <tr key={r.id}>
               <td className="py-1 pr-2">{r.series}</td>
-              <td className="num py-1 pr-2 text-right">{fmt(r.t, 2)}</td>
-              <td className="num py-1 pr-2 text-right">{fmt(r.s, 2)}</td>
-              <td className="num py-1 pr-2 text-right">{fmt(r.u, 2)}</td>
+              <td className="num py-1 pr-2 text-right">{r.t === null ? '–' : plain(r.t)}</td>
+              <td className="num py-1 pr-2 text-right">{r.s}</td>
+              <td className="num py-1 pr-2 text-right">{r.u}</td>
               <td className="py-1">
                 <Link href={`/w/${slug}/sources/${r.sourceId}`}>{r.citeKey}</Link>
                 <IncompleteMark gaps={r.sourceGaps} />
@@ -143,12 +159,12 @@ export function MaterialValuesSection({ slug, materialId, materialName, values, 
       )}
       {(values.peaks.length > 0 || selected) && (
         <Panel title={selected ? `Measured peaks and ${selected.methodLabel} modes` : 'Measured peaks'}>
-          <div className="grid gap-6 lg:grid-cols-2">
-            <div>
+          <div className="grid gap-6 xl:grid-cols-2">
+            <div className="min-w-0 overflow-x-auto">
               <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-muted">Measured ({values.peaks.length})</h3>
               <PeaksTable slug={slug} peaks={values.peaks} />
             </div>
-            <div>
+            <div className="min-w-0 overflow-x-auto">
               <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-muted">
                 {selected ? (
                   <>

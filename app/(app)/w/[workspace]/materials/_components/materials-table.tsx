@@ -64,7 +64,7 @@ export function MaterialsTable({ slug, rows, rowCount, state, tags, systems }: {
   ];
   return (
     <div className="space-y-3">
-      <DataTableToolbar placeholder="Filter by name, formula or external id…" filters={filters} />
+      <DataTableToolbar search="Name, formula or external id" filters={filters} />
       <DataTable
         caption="Materials"
         columns={columns}
@@ -72,7 +72,7 @@ export function MaterialsTable({ slug, rows, rowCount, state, tags, systems }: {
         rowCount={rowCount}
         state={state}
         rowClassName={(r) => (r.retracted ? 'text-ink-faint line-through decoration-ink-faint/40' : '')}
-        emptyMessage="No materials match. Clear the filter, or add one."
+        emptyMessage="No material meets these conditions. Reset them, or add a material."
       />
     </div>
   );

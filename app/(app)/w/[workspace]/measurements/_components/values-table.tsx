@@ -5,18 +5,11 @@ import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import { DataTable, type DataTableState } from '@/components/data-table/data-table';
 import { DataTableToolbar, type ToolbarFilter } from '@/components/data-table/data-table-toolbar';
 import { createDataColumnHelper } from '@/components/data-table/features';
-import { UrlTextFilter } from './url-text-filter';
 import type { ValueRow } from './value-row';
+import { asEntered, CANONICAL_UNIT_SYMBOL, unitSymbol } from '@/lib/format';
 
-/** Units of the canonical value per quantity (see the value columns of db/schema/values.ts). */
-const CANONICAL_UNIT: Record<string, string> = {
-  frequency: 'cm⁻¹',
-  entropy: 'J mol⁻¹ K⁻¹',
-  'heat-capacity': 'J mol⁻¹ K⁻¹',
-  'eps-inf': '',
-  'eps-static': '',
-  'born-charge': 'e',
-};
+/** Canonical unit codes: a value typed in them is shown exactly as typed. */
+const CANONICAL_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K' };
 
 const helper = createDataColumnHelper<ValueRow>();
 const dash = (v: string | number | null | undefined) => (v === null || v === undefined || v === '' ? '–' : v);
@@ -56,23 +49,26 @@ function columnsFor(slug: string, kind: 'measurements' | 'calculations') {
       meta: { numeric: true },
       cell: (c) => (
         <span title={`${c.getValue()} ${c.row.original.unit} as entered`}>
-          {c.getValue()} <span className="text-ink-muted">{c.row.original.unit}</span>
+          {c.getValue()} <span className="text-ink-muted">{unitSymbol(c.row.original.unit)}</span>
         </span>
       ),
     }),
     helper.accessor('value', {
       id: 'value',
-      header: 'Value',
+      header: 'Stored (canonical unit)',
       meta: { numeric: true },
-      cell: (c) => (
-        <span className={c.getValue() < 0 ? 'text-bad' : ''}>
-          {Number(c.getValue().toPrecision(6))} <span className="text-ink-muted">{CANONICAL_UNIT[c.row.original.quantity] ?? ''}</span>
-        </span>
-      ),
+      cell: (c) => {
+        const r = c.row.original;
+        return (
+          <span className={c.getValue() < 0 ? 'text-bad' : ''}>
+            {asEntered(c.getValue(), r.valueText, CANONICAL_CODE[r.quantity] === r.unit)} <span className="text-ink-muted">{CANONICAL_UNIT_SYMBOL[r.quantity] ?? ''}</span>
+          </span>
+        );
+      },
     }),
     helper.accessor('uncertaintyText', {
       id: 'uncertainty',
-      header: '±',
+      header: '± (as entered)',
       enableSorting: false,
       meta: { numeric: true },
       cell: (c) => dash(c.getValue() ?? c.row.original.uncertainty),
@@ -135,13 +131,14 @@ export function ValuesTable({ slug, kind, rows, rowCount, state, filters }: Valu
   const columns = useMemo(() => columnsFor(slug, kind), [slug, kind]);
   return (
     <div className="space-y-3">
-      <div className="flex flex-wrap items-end gap-3">
-        <div className="min-w-0 flex-[3]">
-          <DataTableToolbar placeholder="Filter by material name…" filters={filters} />
-        </div>
-        <UrlTextFilter param="source" label="Source cite key" placeholder="e.g. azuhata" />
-        <UrlTextFilter param="import" label="Import id" placeholder="exact id" />
-      </div>
+      <DataTableToolbar
+        search="Material name"
+        filters={filters}
+        texts={[
+          { param: 'source', label: 'source cite key contains', placeholder: 'e.g. azuhata' },
+          { param: 'import', label: 'import id is', placeholder: 'exact id' },
+        ]}
+      />
       <DataTable
         caption={kind === 'measurements' ? 'Measurements' : 'Calculations'}
         columns={columns}
@@ -149,7 +146,7 @@ export function ValuesTable({ slug, kind, rows, rowCount, state, filters }: Valu
         rowCount={rowCount}
         state={state}
         rowClassName={(r) => (r.retracted ? 'text-ink-faint line-through decoration-ink-faint/40' : '')}
-        emptyMessage={`No ${kind} match. Clear the filters, or import some on the Imports page.`}
+        emptyMessage={`No ${kind === 'measurements' ? 'measurement' : 'calculation'} meets these conditions. Reset them, add one, or import a file on the Imports page.`}
       />
     </div>
   );

@@ -48,7 +48,7 @@ export function MethodsTable({ slug, rows, rowCount, state }: { slug: string; ro
   const columns = useMemo(() => columnsFor(slug), [slug]);
   return (
     <div className="space-y-3">
-      <DataTableToolbar placeholder="Filter by label, functional, pseudopotentials or notes…" />
+      <DataTableToolbar search="Label, functional, pseudopotentials or notes" />
       <DataTable
         caption="Methods"
         columns={columns}
@@ -56,7 +56,7 @@ export function MethodsTable({ slug, rows, rowCount, state }: { slug: string; ro
         rowCount={rowCount}
         state={state}
         rowClassName={(r) => (r.retracted ? 'text-ink-faint line-through decoration-ink-faint/40' : '')}
-        emptyMessage="No methods match. Add the recipe your calculations used."
+        emptyMessage="No method meets these conditions. Reset them, or add the recipe your calculations used."
       />
     </div>
   );

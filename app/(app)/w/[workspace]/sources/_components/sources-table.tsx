@@ -70,7 +70,7 @@ export function SourcesTable({ slug, rows, rowCount, state }: { slug: string; ro
   const columns = useMemo(() => columnsFor(slug), [slug]);
   return (
     <div className="space-y-3">
-      <DataTableToolbar placeholder="Filter by cite key, title, author, DOI or notebook…" />
+      <DataTableToolbar search="Cite key, title, author, DOI or notebook" />
       <DataTable
         caption="Sources"
         columns={columns}
@@ -78,7 +78,7 @@ export function SourcesTable({ slug, rows, rowCount, state }: { slug: string; ro
         rowCount={rowCount}
         state={state}
         rowClassName={(r) => (r.retracted ? 'text-ink-faint line-through decoration-ink-faint/40' : '')}
-        emptyMessage="No sources match. Add one, or import a .bib file."
+        emptyMessage="No source meets these conditions. Reset them, add a source, or import a .bib file."
       />
     </div>
   );

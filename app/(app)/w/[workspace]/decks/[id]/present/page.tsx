@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { requirePageMember } from '@/lib/session';
 import { getDeck } from '@/db/queries/decks';
 import { DeckSlide } from '@/components/decks/deck-slide';
+import { deckSlides } from '@/components/decks/slide-parts';
 import { Presenter } from '@/components/decks/presenter';
 
 export const metadata: Metadata = { title: 'Present' };
@@ -13,6 +14,6 @@ export default async function PresentPage({ params, searchParams }: { params: Pr
   const deck = await getDeck(ctx.workspace.id, id);
   if (!deck) notFound();
   const start = Number((await searchParams).slide);
-  const slides = deck.views.map((v) => <DeckSlide key={v.id} workspace={ctx.workspace} entry={v} mode="present" />);
+  const slides = (await deckSlides(ctx.workspace.id, deck.views, 'present')).map((s) => <DeckSlide key={s.key} workspace={ctx.workspace} entry={s.entry} mode="present" part={s.part} parts={s.parts} />);
   return <Presenter title={deck.title} slides={slides} exitHref={`/w/${ctx.workspace.slug}/decks/${deck.id}`} initial={Number.isInteger(start) && start > 0 ? start - 1 : 0} />;
 }
