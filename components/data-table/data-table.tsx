@@ -83,7 +83,7 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
 
   return (
     <div className="space-y-2" aria-busy={pending}>
-      <div ref={scrollRef} className={`overflow-auto rounded-lg border border-rule bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
+      <div ref={scrollRef} role="region" aria-label={caption ?? 'Table'} tabIndex={0} className={`overflow-auto rounded-lg border border-rule bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
         <table className="w-full border-collapse text-sm">
           {caption && <caption className="sr-only">{caption}</caption>}
           <thead className="sticky top-0 z-10 bg-panel text-left text-xs text-ink-muted shadow-[inset_0_-1px_0_var(--color-rule)]">

@@ -1,6 +1,7 @@
 'use client';
 import { useMemo } from 'react';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
+import { blandAltmanText, comparisonText, histogramText, parityText, residualText } from '@/components/charts/benchmark/figure-text';
 import { blandAltmanSpec, errorHistogramSpec, pairedScatterSpec, parityPlotSpec, rendererFor, residualSpec, type PairedPoint } from '@/components/charts/benchmark/specs';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 import type { ViewFilters } from './view-kinds';
@@ -49,15 +50,16 @@ export function SlidePlot({
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 500, height: forPrint ? 420 : 360 }), n: visible.length };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 500, height: forPrint ? 420 : 360 }), text: parityText(visible, unit), n: visible.length };
       case 'histogram':
-        return { spec: errorHistogramSpec(visible, { unit, methods: labels }), n: visible.length };
+        return { spec: errorHistogramSpec(visible, { unit, methods: labels }), text: histogramText(visible, unit, labels), n: visible.length };
       case 'residuals':
-        return { spec: residualSpec(visible, { unit, methods: labels }), n: visible.length };
+        return { spec: residualSpec(visible, { unit, methods: labels }), text: residualText(visible, unit), n: visible.length };
       case 'bland-altman': {
         const m = methods.find((x) => x.methodId === filters.methodId) ?? methods.find((x) => x.limits) ?? methods[0];
         const shown = visible.filter((p) => p.methodId === m?.methodId);
-        return { spec: blandAltmanSpec(shown, m?.limits ? [{ method: m.label, ...m.limits }] : [], { unit, methods: labels }), n: shown.length };
+        const limits = m?.limits ? [{ method: m.label, ...m.limits }] : [];
+        return { spec: blandAltmanSpec(shown, limits, { unit, methods: labels }), text: blandAltmanText(shown, limits, unit), n: shown.length };
       }
       case 'comparison': {
         const a = filters.methodA ?? methods[0]?.methodId;
@@ -70,7 +72,7 @@ export function SlidePlot({
             return q ? [{ key: p.key, material: p.material, label: p.label, a: Math.abs(p.error), b: Math.abs(q.error) }] : [];
           });
         const label = (id: string | undefined) => methods.find((m) => m.methodId === id)?.label ?? '—';
-        return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), n: paired.length };
+        return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), text: comparisonText(paired, unit, label(a), label(b)), n: paired.length };
       }
     }
   }, [kind, points, methods, labels, unit, filters, forPrint]);
@@ -78,5 +80,5 @@ export function SlidePlot({
   if (spec.n === 0) return <p className="text-ink-muted">No pairs to plot with these filters.</p>;
   // On a projector (1280×720) the legend goes beside the plot, where there is room, not under it.
   const shown = forPrint ? spec.spec : { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } };
-  return <VegaFigure spec={shown} renderer={forPrint ? 'svg' : rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} />;
+  return <VegaFigure spec={shown} text={spec.text} renderer={forPrint ? 'svg' : rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} />;
 }

@@ -179,7 +179,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
 
 function PreviewTable({ headers, rows }: { headers: string[]; rows: Array<{ row: number; cells: string[]; ok: boolean }> }) {
   return (
-    <div className="max-h-96 overflow-auto rounded-md border border-rule">
+    <div role="region" aria-label="First rows of the file" tabIndex={0} className="max-h-96 overflow-auto rounded-md border border-rule">
       <table className="w-full text-xs" data-testid="import-preview">
         <caption className="sr-only">First rows of the file</caption>
         <thead className="sticky top-0 bg-panel text-left text-ink-muted">

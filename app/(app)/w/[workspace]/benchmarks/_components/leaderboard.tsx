@@ -1,6 +1,7 @@
 import type { MethodResult, PairRecord } from '@/lib/benchmark/types';
 import { MIN_PAIRS_FOR_STATISTICS } from '@/lib/benchmark/compute';
 import { fmt, signed } from './format';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 const th = 'px-2 py-1.5 text-left font-medium text-ink-muted whitespace-nowrap';
 const td = 'px-2 py-1.5 num whitespace-nowrap';
@@ -8,7 +9,7 @@ const td = 'px-2 py-1.5 num whitespace-nowrap';
 /** Per-method statistics, best MAE first; methods below the minimum N show N only. */
 export function Leaderboard({ methods, unit, pairByKey, materialName }: { methods: MethodResult[]; unit: string; pairByKey: Map<string, PairRecord>; materialName: (id: string) => string }) {
   return (
-    <div className="overflow-x-auto">
+    <ScrollRegion label="Leaderboard table">
       <table className="min-w-full border-collapse text-[13px]" data-testid="leaderboard">
         <caption className="sr-only">Leaderboard: error statistics per method, errors in {unit}</caption>
         <thead className="border-b border-rule">
@@ -91,6 +92,6 @@ export function Leaderboard({ methods, unit, pairByKey, materialName }: { method
         Errors are calculated − measured, in {unit}. Unpaired measurements per method:{' '}
         {methods.map((m) => `${m.label} ${m.unpairedMeasurements}`).join(', ')}.
       </p>
-    </div>
+    </ScrollRegion>
   );
 }

@@ -7,6 +7,7 @@ import { getImport, listImportHistory } from '@/db/queries/imports';
 import { listCalculations, listMeasurements } from '@/db/queries/values';
 import { Panel } from '@/components/ui/panel';
 import { UndoImportForm } from '../_components/undo-import-form';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 export const metadata: Metadata = { title: 'Import' };
 
@@ -77,7 +78,7 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
         </div>
       </div>
       <Panel title={`Rows (${values.total.toLocaleString('en')}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
-        <div className="overflow-x-auto">
+        <ScrollRegion label="Rows of this import">
           <table className="w-full text-sm" data-testid="import-rows">
             <thead className="text-left text-xs text-ink-muted">
               <tr>
@@ -104,7 +105,7 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       </Panel>
     </div>
   );
