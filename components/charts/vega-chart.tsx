@@ -2,6 +2,7 @@
 import { useId, useRef, useState } from 'react';
 import { useVegaEmbed } from 'react-vega';
 import type { EmbedOptions, VisualizationSpec } from 'vega-embed';
+import { hideMarks } from './benchmark/vega-figure';
 
 export interface VegaChartProps {
   spec: VisualizationSpec;
@@ -22,7 +23,7 @@ export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, sum
   const ref = useRef<HTMLDivElement>(null);
   const [options] = useState<EmbedOptions>(() => ({ renderer, actions: false, tooltip: { theme: 'light' } }));
   const [failed, setFailed] = useState<string | null>(null);
-  const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
+  const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onEmbed: hideMarks, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
 
   async function download(type: 'svg' | 'png') {
     if (!result || !downloadName) return;

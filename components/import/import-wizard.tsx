@@ -1,6 +1,6 @@
 'use client';
 import Link from 'next/link';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { columnsOf, type ImportableKind } from '@/lib/import/columns';
 import type { ColumnMapping } from '@/lib/import/header';
 import type { ReferenceLists } from '@/lib/import/preview';
@@ -210,6 +210,19 @@ function PreviewTable({ headers, rows }: { headers: string[]; rows: Array<{ row:
 }
 
 function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
+  const box = useRef<HTMLDivElement>(null);
+  // the Import button is disabled once the rows are in: focus goes to what happened instead
+  useEffect(() => {
+    if (state.status === 'done' || state.status === 'refused') box.current?.focus();
+  }, [state.status]);
+  return (
+    <div ref={box} tabIndex={-1} className="focus:outline-none" data-testid="commit-result">
+      <CommitOutcome state={state} slug={slug} />
+    </div>
+  );
+}
+
+function CommitOutcome({ state, slug }: { state: CommitState; slug: string }) {
   if (state.status === 'done') {
     const o = state.outcome;
     return (

@@ -30,7 +30,7 @@ const OPEN_EVENT = 'ledger:shortcuts';
 /** A button that opens the shortcut list (for those who do not know "?" yet). */
 export function ShortcutButton() {
   return (
-    <button type="button" className="text-left text-xs text-ink-muted underline decoration-ink-muted/40 underline-offset-2 hover:text-ink" onClick={() => window.dispatchEvent(new Event(OPEN_EVENT))}>
+    <button type="button" className="block py-1 text-left text-xs text-ink-muted underline decoration-ink-muted/40 underline-offset-2 hover:text-ink" onClick={() => window.dispatchEvent(new Event(OPEN_EVENT))}>
       Keyboard shortcuts <kbd className="font-mono">?</kbd>
     </button>
   );

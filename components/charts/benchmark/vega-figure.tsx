@@ -42,6 +42,7 @@ export function VegaFigure({
     spec,
     options: { renderer, actions: false, tooltip: { theme: 'light' } },
     onEmbed: (r: Result) => {
+      hideMarks(r);
       r.view.addEventListener('click', (_event, item) => {
         const datum = (item as { datum?: { key?: unknown } } | null | undefined)?.datum;
         if (datum && typeof datum.key === 'string') pickRef.current?.(datum.key);
@@ -135,6 +136,11 @@ export function VegaFigure({
       </details>
     </figure>
   );
+}
+
+/** The figure's name, summary and table speak for the plot; its marks are hidden from assistive technology. */
+export function hideMarks(r: Result) {
+  r.view.container()?.querySelector('svg')?.setAttribute('aria-hidden', 'true');
 }
 
 function FigureTable({ table, onPick }: { table: FigureText['table']; onPick?: (key: string) => void }) {

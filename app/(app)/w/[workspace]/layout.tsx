@@ -26,7 +26,11 @@ export default async function WorkspaceLayout({ children, params }: { children: 
           <p className="truncate" title={ctx.user.email}>
             {ctx.user.name} · <span className="font-medium">{ctx.role}</span>
           </p>
-          {mailboxEnabled() && <Link href="/dev/mailbox">Dev mailbox</Link>}
+          {mailboxEnabled() && (
+            <Link href="/dev/mailbox" className="inline-block py-1">
+              Dev mailbox
+            </Link>
+          )}
           <ShortcutButton />
           <SignOutButton />
         </div>

@@ -288,7 +288,7 @@ export async function BenchmarkView({
       )}
 
       <div className="grid gap-4 xl:grid-cols-2">
-        <Panel title={`Decisions and pins (${decisions.filter((d) => !d.revertedAt).length} in force, ${activePins.length} pins)`}>
+        <Panel id="decisions" title={`Decisions and pins (${decisions.filter((d) => !d.revertedAt).length} in force, ${activePins.length} pins)`}>
           {decisions.length === 0 && activePins.length === 0 ? (
             <p className="text-sm text-ink-muted">No decision recorded yet.</p>
           ) : (
