@@ -36,7 +36,9 @@ export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, sum
 
   return (
     <figure className={`space-y-1 ${className}`}>
-      <div ref={ref} data-plot="" role="img" aria-label={ariaLabel} aria-describedby={summary ? `${id}-summary` : undefined} className="w-full" />
+      <div data-plot="" role="img" aria-label={ariaLabel} aria-describedby={summary ? `${id}-summary` : undefined} className="w-full">
+        <div ref={ref} aria-hidden="true" className="w-full" />
+      </div>
       {summary ? (
         <p id={`${id}-summary`} className="text-xs text-ink-muted" data-testid="plot-summary">
           {summary}

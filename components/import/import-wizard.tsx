@@ -51,10 +51,15 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
 
   const request = useMemo(() => (kind !== 'dos' && file && references ? { file, kind: tableKind, mapping, units, references } : null), [file, kind, tableKind, mapping, units, references]);
   const preview = usePreviewWorker(request);
-  const result = preview.status === 'done' ? preview.result : null;
+  const done = preview.status === 'done' ? preview.result : null;
+  // while a changed mapping is re-checked, or refused (two columns on one header), the last result stays on
+  // screen so the select being changed keeps its place and its focus
+  const [lastDone, setLastDone] = useState<{ file: File; result: NonNullable<typeof done> } | null>(null);
+  if (done && lastDone?.result !== done && file) setLastDone({ file, result: done });
+  const result = done ?? ((preview.status === 'working' || preview.status === 'refused') && mapping && lastDone?.file === file ? lastDone.result : null);
   const columns = columnsOf(tableKind);
   const noUnitColumn = result !== null && !result.mapping.unit;
-  const canCommit = result !== null && result.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
+  const canCommit = done !== null && done.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
 
   const reset = (next: Partial<{ kind: WizardKind; file: File | null }>) => {
     if (next.kind) setKind(next.kind);
@@ -123,7 +128,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                   {result.delimiterName}-separated, {result.headers.length} columns. Matched automatically — correct any column below.
                   {result.ignored.length > 0 && <> Ignored file columns: {result.ignored.map((h) => `“${h}”`).join(', ')}.</>}
                 </p>
-                <ColumnMappingForm columns={columns} headers={result.headers} mapping={result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
+                <ColumnMappingForm columns={columns} headers={result.headers} mapping={mapping ?? result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
                 {noUnitColumn && (
                   <div className="flex flex-wrap gap-4">
                     <p className="w-full text-sm text-ink-muted">The file has no unit column: choose the unit of its values.</p>

@@ -119,7 +119,8 @@ function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readon
   const x = (title?: string) => ({ field: axes.x, type: 'quantitative' as const, title, scale: { domain: axes.domainX, zero: false, nice: false } });
   const y = (title?: string) => ({ field: axes.y, type: 'quantitative' as const, title, scale: { domain: axes.domainY, zero: false, nice: false } });
   const rows = points.map((p) => ({ ...p, status: statusOf(p), marker: p.excluded ? EXCLUDED : p.outlier ? FLAGGED : null }));
-  const markers = { field: 'marker', type: 'nominal' as const, title: null, scale: { domain: [FLAGGED, EXCLUDED], range: [MARKER_INK[FLAGGED], MARKER_INK[EXCLUDED]] } };
+  // the markers' legend sits above the plot, the methods' below, so neither runs off the side
+  const markers = { field: 'marker', type: 'nominal' as const, title: null, legend: { orient: 'top' as const }, scale: { domain: [FLAGGED, EXCLUDED], range: [MARKER_INK[FLAGGED], MARKER_INK[EXCLUDED]] } };
   const pick = { name: 'pick', select: { type: 'point' as const, fields: ['key'], on: 'click' } };
   return [
     {

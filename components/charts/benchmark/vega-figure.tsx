@@ -112,7 +112,6 @@ export function VegaFigure({
       </div>
       {error ? <p className="text-sm text-bad">The plot could not be drawn: {error}</p> : null}
       <div
-        ref={ref}
         data-plot=""
         role="img"
         tabIndex={0}
@@ -123,7 +122,10 @@ export function VegaFigure({
           if (!e.currentTarget.contains(e.relatedTarget as Node | null)) setCursor(null);
         }}
         className="max-w-full overflow-x-auto rounded-sm"
-      />
+      >
+        {/* vega-embed labels its own container; the wrapper's name and summary speak for the plot */}
+        <div ref={ref} aria-hidden="true" />
+      </div>
       <p className="text-xs text-ink-muted" aria-live="polite" data-testid="plot-cursor">
         {current?.spoken ? `Point ${(cursor ?? 0) + 1} of ${nav.length}: ${current.spoken}` : ''}
       </p>
