@@ -10,7 +10,15 @@ export const metadata: Metadata = {
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
     <html lang="en" className={`${sans.variable} ${greek.variable} ${mono.variable}`}>
-      <body className="min-h-screen">{children}</body>
+      <body className="min-h-screen">
+        <a
+          href="#main"
+          className="sr-only rounded-md bg-accent px-3 py-2 text-sm font-medium text-white no-underline focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-[100]"
+        >
+          Skip to main content
+        </a>
+        {children}
+      </body>
     </html>
   );
 }

@@ -3,7 +3,7 @@ import { mailboxEnabled } from '@/lib/env';
 
 export default function AuthLayout({ children }: { children: React.ReactNode }) {
   return (
-    <main className="flex min-h-screen flex-col items-center justify-center px-4 py-12">
+    <main id="main" tabIndex={-1} className="focus:outline-none flex min-h-screen flex-col items-center justify-center px-4 py-12">
       <Link href="/" className="mb-6 text-lg font-semibold tracking-tight text-ink no-underline">
         Lattice Ledger
       </Link>

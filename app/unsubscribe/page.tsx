@@ -10,7 +10,7 @@ export const metadata: Metadata = { title: 'Unsubscribe', robots: { index: false
 
 function Shell({ children }: { children: React.ReactNode }) {
   return (
-    <main className="flex min-h-screen flex-col items-center justify-center px-4 py-12">
+    <main id="main" tabIndex={-1} className="focus:outline-none flex min-h-screen flex-col items-center justify-center px-4 py-12">
       <Link href="/" className="mb-6 text-lg font-semibold tracking-tight text-ink no-underline">
         Lattice Ledger
       </Link>

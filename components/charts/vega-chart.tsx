@@ -1,7 +1,8 @@
 'use client';
-import { useRef, useState } from 'react';
+import { useId, useRef, useState } from 'react';
 import { useVegaEmbed } from 'react-vega';
 import type { EmbedOptions, VisualizationSpec } from 'vega-embed';
+import { hideMarks } from './benchmark/vega-figure';
 
 export interface VegaChartProps {
   spec: VisualizationSpec;
@@ -9,17 +10,20 @@ export interface VegaChartProps {
   renderer?: 'svg' | 'canvas';
   /** When set, SVG and PNG download buttons save "<downloadName>.svg|png". */
   downloadName?: string;
-  /** Describes the chart for screen readers. */
+  /** Names the chart for screen readers. */
   ariaLabel: string;
+  /** A generated description, shown under the chart and read after its name. */
+  summary?: string;
   className?: string;
 }
 
 /** The one client wrapper around react-vega: embeds a Vega-Lite spec and offers figure downloads. */
-export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, className = '' }: VegaChartProps) {
+export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, summary, className = '' }: VegaChartProps) {
+  const id = useId();
   const ref = useRef<HTMLDivElement>(null);
   const [options] = useState<EmbedOptions>(() => ({ renderer, actions: false, tooltip: { theme: 'light' } }));
   const [failed, setFailed] = useState<string | null>(null);
-  const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
+  const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onEmbed: hideMarks, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
 
   async function download(type: 'svg' | 'png') {
     if (!result || !downloadName) return;
@@ -32,14 +36,21 @@ export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, cla
 
   return (
     <figure className={`space-y-1 ${className}`}>
-      <div ref={ref} role="img" aria-label={ariaLabel} className="w-full" />
+      <div data-plot="" role="img" aria-label={ariaLabel} aria-describedby={summary ? `${id}-summary` : undefined} className="w-full">
+        <div ref={ref} aria-hidden="true" className="w-full" />
+      </div>
+      {summary ? (
+        <p id={`${id}-summary`} className="text-xs text-ink-muted" data-testid="plot-summary">
+          {summary}
+        </p>
+      ) : null}
       {failed && <p className="text-xs text-bad">The chart could not be drawn: {failed}</p>}
       {downloadName && (
         <figcaption className="flex justify-end gap-2 text-xs">
-          <button type="button" className="text-accent hover:underline disabled:opacity-50" disabled={!result} onClick={() => download('svg')}>
+          <button type="button" className="text-accent underline underline-offset-2 disabled:opacity-50" disabled={!result} onClick={() => download('svg')}>
             Download SVG
           </button>
-          <button type="button" className="text-accent hover:underline disabled:opacity-50" disabled={!result} onClick={() => download('png')}>
+          <button type="button" className="text-accent underline underline-offset-2 disabled:opacity-50" disabled={!result} onClick={() => download('png')}>
             Download PNG
           </button>
         </figcaption>

@@ -109,7 +109,7 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
           more columns →
         </div>
       )}
-      <div ref={scrollRef} className={`overflow-auto rounded-md border border-rule-strong bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
+      <div ref={scrollRef} role="region" aria-label={caption ?? 'Table'} tabIndex={0} className={`overflow-auto rounded-md border border-rule-strong bg-panel ${virtual ? 'max-h-[70vh]' : ''} ${pending ? 'opacity-70' : ''}`}>
         <table className="w-full border-collapse text-sm">
           {caption && <caption className="sr-only">{caption}</caption>}
           <thead className="sticky top-0 z-10 bg-panel text-left text-[11px] uppercase tracking-wider text-ink-muted shadow-[inset_0_-2px_0_var(--color-ink)]">

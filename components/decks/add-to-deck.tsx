@@ -1,5 +1,5 @@
 'use client';
-import { useActionState, useEffect, useId, useState } from 'react';
+import { useActionState, useEffect, useId, useRef, useState } from 'react';
 import Link from 'next/link';
 import { addToDeckAction, listDecksAction } from '@/app/(app)/w/[workspace]/decks/actions';
 import { buttonClass } from '@/components/ui/button';
@@ -36,6 +36,12 @@ export function AddToDeck({
   const [loadError, setLoadError] = useState<string | null>(null);
   const [deckId, setDeckId] = useState('');
   const [state, action] = useActionState(addToDeckAction, { ok: false });
+  const trigger = useRef<HTMLButtonElement>(null);
+  const firstField = useRef<HTMLSelectElement>(null);
+  const close = () => {
+    setOpen(false);
+    trigger.current?.focus();
+  };
 
   const added = state.ok ? (state.data as { deckId: string; href: string } | undefined) : undefined;
 
@@ -57,10 +63,14 @@ export function AddToDeck({
   }, [open, decks, workspaceId, added]);
 
   const href = added?.href;
+  const loaded = decks !== null;
+  useEffect(() => {
+    if (open && loaded) firstField.current?.focus();
+  }, [open, loaded]);
 
   return (
     <div className="relative inline-block text-left">
-      <button type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open} aria-controls={`${id}-dialog`} onClick={() => setOpen(!open)}>
+      <button ref={trigger} type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open} aria-controls={`${id}-dialog`} onClick={() => setOpen(!open)}>
         Add to deck
       </button>
       {open ? (
@@ -70,7 +80,7 @@ export function AddToDeck({
           aria-label="Add this view to a deck"
           className="absolute right-0 z-30 mt-1 w-80 space-y-2 rounded-md border border-rule-strong bg-panel p-3 text-sm shadow-lg"
           onKeyDown={(e) => {
-            if (e.key === 'Escape') setOpen(false);
+            if (e.key === 'Escape') close();
           }}
         >
           {loadError ? <p className="text-bad">{loadError}</p> : null}
@@ -83,7 +93,7 @@ export function AddToDeck({
               <input type="hidden" name="filters" value={JSON.stringify(filters)} />
               <label className="block space-y-1">
                 <span className="text-[13px] font-medium">Deck</span>
-                <select name="deckId" className={inputClass} value={deckId} onChange={(e) => setDeckId(e.target.value)}>
+                <select ref={firstField} name="deckId" className={inputClass} value={deckId} onChange={(e) => setDeckId(e.target.value)}>
                   {decks.list.map((d) => (
                     <option key={d.id} value={d.id}>
                       {d.title} ({d.views})
@@ -119,7 +129,7 @@ export function AddToDeck({
               {revisionNumber ? <p className="text-xs text-ink-faint">Pinned to revision {revisionNumber}.</p> : null}
               <div className="flex items-center gap-2">
                 <SubmitButton pendingLabel="Adding…">Add view</SubmitButton>
-                <button type="button" className={buttonClass('ghost')} onClick={() => setOpen(false)}>
+                <button type="button" className={buttonClass('ghost')} onClick={close}>
                   Close
                 </button>
               </div>

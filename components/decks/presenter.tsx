@@ -71,7 +71,7 @@ export function Presenter({ title, slides, exitHref, initial = 0 }: { title: str
           </button>
         </div>
       </div>
-      <div className="min-h-0 flex-1 overflow-auto px-10 py-6">
+      <div role="region" aria-label="Current slide" tabIndex={0} className="min-h-0 flex-1 overflow-auto px-10 py-6">
         {total === 0 ? <p className="text-xl text-ink-muted">This deck has no views yet.</p> : <div key={index} className="mx-auto h-full max-w-[1400px]">{slides[index]}</div>}
       </div>
       <p className="border-t border-rule bg-panel px-6 py-1 text-xs text-ink-faint">← → or PageUp / PageDown to move · Home / End for the first and last slide · Esc to leave</p>

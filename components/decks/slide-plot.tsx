@@ -2,6 +2,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { TopLevelSpec } from 'vega-lite';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
+import { blandAltmanText, comparisonText, histogramText, parityText, residualText } from '@/components/charts/benchmark/figure-text';
 import { blandAltmanSpec, errorHistogramSpec, pairedScatterSpec, parityPlotSpec, rendererFor, residualSpec, type PairedPoint } from '@/components/charts/benchmark/specs';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 import type { ViewFilters } from './view-kinds';
@@ -90,15 +91,16 @@ export function SlidePlot({
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), n: visible.length };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), text: parityText(visible, unit), n: visible.length };
       case 'histogram':
-        return { spec: errorHistogramSpec(visible, { unit, methods: labels }), n: visible.length };
+        return { spec: errorHistogramSpec(visible, { unit, methods: labels }), text: histogramText(visible, unit, labels), n: visible.length };
       case 'residuals':
-        return { spec: residualSpec(visible, { unit, methods: labels }), n: visible.length };
+        return { spec: residualSpec(visible, { unit, methods: labels }), text: residualText(visible, unit), n: visible.length };
       case 'bland-altman': {
         const m = methods.find((x) => x.methodId === filters.methodId) ?? methods.find((x) => x.limits) ?? methods[0];
         const shown = visible.filter((p) => p.methodId === m?.methodId);
-        return { spec: blandAltmanSpec(shown, m?.limits ? [{ method: m.label, ...m.limits }] : [], { unit, methods: labels }), n: shown.length };
+        const limits = m?.limits ? [{ method: m.label, ...m.limits }] : [];
+        return { spec: blandAltmanSpec(shown, limits, { unit, methods: labels }), text: blandAltmanText(shown, limits, unit), n: shown.length };
       }
       case 'comparison': {
         const a = filters.methodA ?? methods[0]?.methodId;
@@ -111,7 +113,7 @@ export function SlidePlot({
             return q ? [{ key: p.key, material: p.material, label: p.label, a: Math.abs(p.error), b: Math.abs(q.error) }] : [];
           });
         const label = (id: string | undefined) => methods.find((m) => m.methodId === id)?.label ?? '—';
-        return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), n: paired.length };
+        return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), text: comparisonText(paired, unit, label(a), label(b)), n: paired.length };
       }
     }
   }, [kind, points, methods, labels, unit, filters]);
@@ -126,12 +128,12 @@ export function SlidePlot({
   }
   // The legend goes beside the plot, where a landscape page or a projector (1280×720) has room, not under it.
   const sideLegend = { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } } as TopLevelSpec;
-  if (forPrint) return <VegaFigure spec={kind === 'histogram' ? spec.spec : sideLegend} renderer="svg" fileName={fileName} title={TITLES[kind]} />;
+  if (forPrint) return <VegaFigure spec={kind === 'histogram' ? spec.spec : sideLegend} renderer="svg" text={spec.text} fileName={fileName} title={TITLES[kind]} />;
   // On a projector the plot fills the slide.
   const facets = new Set(points.map((p) => p.methodId)).size;
   return (
     <div ref={ref} className="h-full w-full" data-testid="slide-plot">
-      {size ? <VegaFigure spec={fitted(sideLegend, kind, size, facets)} renderer={rendererFor(spec.n)} fileName={fileName} title={TITLES[kind]} /> : null}
+      {size ? <VegaFigure spec={fitted(sideLegend, kind, size, facets)} renderer={rendererFor(spec.n)} text={spec.text} fileName={fileName} title={TITLES[kind]} /> : null}
     </div>
   );
 }

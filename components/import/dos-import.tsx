@@ -127,7 +127,7 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
 
 function DosBlocksTable({ result }: { result: DosPreviewResult }) {
   return (
-    <div className="max-h-96 overflow-auto rounded-md border border-rule">
+    <div role="region" aria-label="Densities of states in the file" tabIndex={0} className="max-h-96 overflow-auto rounded-md border border-rule">
       <table className="w-full text-xs" data-testid="dos-preview">
         <caption className="sr-only">Densities of states in the file and the values computed from them</caption>
         <thead className="sticky top-0 bg-panel text-left text-ink-muted">

@@ -17,7 +17,7 @@ export function FileDrop({ onFile, disabled }: { onFile: (file: File) => void; d
         const file = e.dataTransfer.files[0];
         if (file && !disabled) onFile(file);
       }}
-      className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-lg border-2 border-dashed px-6 py-8 text-center text-sm ${
+      className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-lg border-2 border-dashed px-6 py-8 text-center text-sm focus-within:ring-2 focus-within:ring-accent ${
         over ? 'border-accent bg-accent-soft' : 'border-rule-strong bg-panel/60'
       }`}
     >

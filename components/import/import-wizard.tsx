@@ -1,6 +1,6 @@
 'use client';
 import Link from 'next/link';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { columnsOf, type ImportableKind } from '@/lib/import/columns';
 import type { ColumnMapping } from '@/lib/import/header';
 import type { PreviewRow, ReferenceLists } from '@/lib/import/preview';
@@ -62,10 +62,15 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
 
   const request = useMemo(() => (kind !== 'dos' && file && references ? { file, kind: tableKind, mapping, units, references } : null), [file, kind, tableKind, mapping, units, references]);
   const preview = usePreviewWorker(request);
-  const result = preview.status === 'done' ? preview.result : null;
+  const done = preview.status === 'done' ? preview.result : null;
+  // while a changed mapping is re-checked, or refused (two columns on one header), the last result stays on
+  // screen so the select being changed keeps its place and its focus
+  const [lastDone, setLastDone] = useState<{ file: File; result: NonNullable<typeof done> } | null>(null);
+  if (done && lastDone?.result !== done && file) setLastDone({ file, result: done });
+  const result = done ?? ((preview.status === 'working' || preview.status === 'refused') && mapping && lastDone?.file === file ? lastDone.result : null);
   const columns = columnsOf(tableKind);
   const noUnitColumn = result !== null && !result.mapping.unit;
-  const canCommit = result !== null && result.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
+  const canCommit = done !== null && done.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
 
   const reset = (next: Partial<{ kind: WizardKind; file: File | null }>) => {
     if (next.kind) setKind(next.kind);
@@ -134,7 +139,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                   {result.delimiterName}-separated, {result.headers.length} columns. Matched automatically — correct any column below.
                   {result.ignored.length > 0 && <> Ignored file columns: {result.ignored.map((h) => `“${h}”`).join(', ')}.</>}
                 </p>
-                <ColumnMappingForm columns={columns} headers={result.headers} mapping={result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
+                <ColumnMappingForm columns={columns} headers={result.headers} mapping={mapping ?? result.mapping} onChange={setMapping} disabled={commit.status === 'sending'} />
                 {noUnitColumn && (
                   <div className="flex flex-wrap gap-4">
                     <p className="w-full text-sm text-ink-muted">The file has no unit column: choose the unit of its values.</p>
@@ -194,7 +199,7 @@ function PreviewTable({ headers, rows, errors }: { headers: string[]; rows: Prev
   const reasons = new Map<string, string>();
   for (const e of errors) if (e.column) reasons.set(`${e.row}|${e.column}`, [reasons.get(`${e.row}|${e.column}`), e.reason].filter(Boolean).join(' '));
   return (
-    <div className="max-h-96 overflow-auto rounded-md border border-rule">
+    <div role="region" aria-label="First rows of the file" tabIndex={0} className="max-h-96 overflow-auto rounded-md border border-rule">
       <table className="w-full text-xs" data-testid="import-preview">
         <caption className="sr-only">First rows of the file, with the label and value each valid row will store</caption>
         <thead className="sticky top-0 bg-panel text-left text-ink-muted">
@@ -261,6 +266,19 @@ function ModeSetWarnings({ warnings, count }: { warnings: ModeSetWarning[]; coun
 }
 
 function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
+  const box = useRef<HTMLDivElement>(null);
+  // the Import button is disabled once the rows are in: focus goes to what happened instead
+  useEffect(() => {
+    if (state.status === 'done' || state.status === 'refused') box.current?.focus();
+  }, [state.status]);
+  return (
+    <div ref={box} tabIndex={-1} className="focus:outline-none" data-testid="commit-result">
+      <CommitOutcome state={state} slug={slug} />
+    </div>
+  );
+}
+
+function CommitOutcome({ state, slug }: { state: CommitState; slug: string }) {
   if (state.status === 'done') {
     const o = state.outcome;
     return (

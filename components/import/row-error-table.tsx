@@ -9,7 +9,7 @@ export function RowErrorTable({ errors, errorCount }: { errors: RowError[]; erro
         {count(errorCount)} {errorCount === 1 ? 'error' : 'errors'} — nothing can be imported until they are fixed.
         {errorCount > errors.length && ` The first ${count(errors.length)} are listed.`}
       </p>
-      <div className="max-h-80 overflow-auto rounded-md border border-rule">
+      <div role="region" aria-label="Row errors" tabIndex={0} className="max-h-80 overflow-auto rounded-md border border-rule">
         <table className="w-full text-sm" data-testid="row-errors">
           <thead className="sticky top-0 bg-panel text-left text-xs text-ink-muted">
             <tr>

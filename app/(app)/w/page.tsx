@@ -14,7 +14,7 @@ export default async function WorkspacesPage() {
   if (!session) redirect('/sign-in?next=/w');
   const workspaces = await listWorkspacesOfUser(session.user.id);
   return (
-    <main className="mx-auto max-w-3xl space-y-6 px-6 py-10">
+    <main id="main" tabIndex={-1} className="focus:outline-none mx-auto max-w-3xl space-y-6 px-6 py-10">
       <header className="flex items-center justify-between">
         <div>
           <p className="text-xs uppercase tracking-wide text-ink-faint">Lattice Ledger</p>

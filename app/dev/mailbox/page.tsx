@@ -34,7 +34,7 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
   const { messages, error } = await fetchMessages();
   const selected = messages.find((m) => m.id === id) ?? messages[0];
   return (
-    <main className="mx-auto max-w-6xl space-y-4 px-6 py-8">
+    <main id="main" tabIndex={-1} className="focus:outline-none mx-auto max-w-6xl space-y-4 px-6 py-8">
       <header className="flex items-baseline justify-between">
         <div>
           <p className="text-xs uppercase tracking-wide text-warn">Development only</p>

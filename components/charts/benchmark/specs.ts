@@ -2,7 +2,10 @@
  * Vega-Lite specifications of the benchmark plots, as typed pure functions.
  * Every layered x/y plot fixes one shared numeric domain with `zero: false`, so
  * the y = x reference and the ±band span exactly the data and the axes do not
- * start at 0. Colours follow the method order given, the same in every plot.
+ * start at 0. Colours and shapes follow the method order given, the same in every
+ * plot, so a method is told apart by its shape as well as its colour. Marks carry
+ * no ARIA labels (config.aria false): the figure around a plot describes it and
+ * links a table of its points instead.
  */
 import type { TopLevelSpec } from 'vega-lite';
 
@@ -29,19 +32,49 @@ export function rendererFor(pointCount: number): 'svg' | 'canvas' {
 }
 
 const PALETTE = ['#1d5a6e', '#c2571a', '#6b4c9a', '#2f7d32', '#a3242c', '#8a6d00', '#1565c0', '#6d4c41', '#00838f', '#ad1457'];
+/** Diamonds are not used for methods, and no shape relies on its fill alone. */
+export const SHAPES = ['circle', 'square', 'triangle-up', 'cross', 'triangle-down', 'triangle-right', 'triangle-left', 'wedge', 'arrow', 'stroke'];
 
-function colour(methods: readonly string[]) {
-  return { field: 'method', type: 'nominal' as const, title: 'Method', scale: { domain: [...methods], range: PALETTE.slice(0, Math.max(1, methods.length)) } };
+/** What the marks beside the method symbols mean (their own legend). */
+const FLAGGED = 'Flagged outlier';
+const EXCLUDED = 'Excluded (hollow)';
+const MARKER_INK = { [FLAGGED]: '#a3242c', [EXCLUDED]: '#5f6b77' };
+
+/** The name of the parameter a keyboard cursor sets to the key of the point it is on. */
+export const FOCUS_PARAM = 'focusKey';
+
+/** Scale for a method channel: `shown` (default: every method) in the domain, each keeping its place in `methods`. */
+function methodScale(methods: readonly string[], range: readonly string[], shown: readonly string[] = methods) {
+  const domain = shown.length ? [...shown] : [...methods];
+  return { domain, range: domain.map((m) => range[Math.max(0, methods.indexOf(m)) % range.length]) };
 }
 
-function config(pointCount: number) {
+function colour(methods: readonly string[], shown?: readonly string[]) {
+  return { field: 'method', type: 'nominal' as const, title: 'Method', scale: methodScale(methods, PALETTE, shown) };
+}
+
+function shape(methods: readonly string[], shown?: readonly string[]) {
+  return { field: 'method', type: 'nominal' as const, title: 'Method', scale: methodScale(methods, SHAPES, shown) };
+}
+
+const AXIS_TEXT = { labelColor: '#4d5b69', titleColor: '#17212b', gridColor: '#eef1f3', domainColor: '#c3cbd2', tickColor: '#c3cbd2' };
+
+function config() {
   return {
-    aria: pointCount <= 1000,
+    aria: false,
     font: 'Inter, system-ui, sans-serif',
-    axis: { labelColor: '#4d5b69', titleColor: '#17212b', gridColor: '#eef1f3', domainColor: '#c3cbd2', tickColor: '#c3cbd2' },
+    // labels never overlap: thinned when they would, kept inside the plot at the ends (print included)
+    axis: { ...AXIS_TEXT, labelOverlap: 'greedy' as const, labelSeparation: 6, labelFlush: true, tickCount: 6, labelFontSize: 11, titleFontSize: 11 },
     view: { stroke: '#dde2e6' },
     legend: { labelColor: '#4d5b69', titleColor: '#17212b', orient: 'bottom', direction: 'horizontal', labelLimit: 220 },
   };
+}
+
+/** Numbers as the plots print them: a true minus sign and a sign on request. */
+export function plotNumber(value: number, digits = 2, sign = false): string {
+  const text = Math.abs(value).toFixed(digits);
+  if (value < 0 && Number(text) !== 0) return `−${text}`;
+  return sign ? `+${text}` : text;
 }
 
 /** A padded [min, max] over the given values; [0, 1] for none. */
@@ -58,31 +91,64 @@ export function sharedDomain(values: readonly number[], padFraction = 0.03): [nu
   return [lo - pad, hi + pad];
 }
 
-const TOOLTIP = [
-  { field: 'material', title: 'Material' },
-  { field: 'label', title: 'Mode' },
-  { field: 'method', title: 'Method' },
-  { field: 'measured', title: 'Measured', format: '.2f' },
-  { field: 'calculated', title: 'Calculated', format: '.2f' },
-  { field: 'error', title: 'Error', format: '+.2f' },
-  { field: 'citation', title: 'Source' },
-];
-
-/** The included pairs (excluded ones are drawn hollow and grey, so they stay visible). */
-function pointLayer(x: string, y: string, domainX: [number, number], domainY: [number, number], methods: readonly string[], titles: { x: string; y: string }) {
-  return {
-    mark: { type: 'point' as const, filled: true, size: 36, cursor: 'pointer' as const },
-    params: [{ name: 'pick', select: { type: 'point' as const, fields: ['key'], on: 'click' } }],
-    encoding: {
-      x: { field: x, type: 'quantitative' as const, title: titles.x, scale: { domain: domainX, zero: false, nice: false } },
-      y: { field: y, type: 'quantitative' as const, title: titles.y, scale: { domain: domainY, zero: false, nice: false } },
-      color: { condition: { test: 'datum.excluded', value: '#b8c0c8' }, ...colour(methods) },
-      shape: { condition: { test: 'datum.outlier', value: 'diamond' }, value: 'circle' },
-      opacity: { condition: { test: 'datum.excluded', value: 0.45 }, value: 0.85 },
-      tooltip: TOOLTIP,
-    },
-  };
+function tooltip(unit: string) {
+  return [
+    { field: 'material', title: 'Material' },
+    { field: 'label', title: 'Mode' },
+    { field: 'method', title: 'Method' },
+    { field: 'measured', title: `Measured (${unit})`, format: '.2f' },
+    { field: 'calculated', title: `Calculated (${unit})`, format: '.2f' },
+    { field: 'error', title: `Error (${unit})`, format: '+.2f' },
+    { field: 'status', title: 'Status' },
+    { field: 'citation', title: 'Source' },
+  ];
 }
+
+type Axes = { x: string; y: string; domainX: [number, number]; domainY: [number, number]; titles: { x: string; y: string } };
+
+function statusOf(p: ParityPoint): string {
+  return p.excluded ? 'excluded' : p.outlier ? 'flagged outlier' : 'included';
+}
+
+/**
+ * The pairs: included ones filled, in the method's colour and shape; excluded ones
+ * hollow and grey (still visible); flagged outliers ringed, with a legend entry for
+ * each marker; and a dark ring on the point a keyboard cursor is on.
+ */
+function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readonly string[], unit: string, shown?: readonly string[]) {
+  const x = (title?: string) => ({ field: axes.x, type: 'quantitative' as const, title, scale: { domain: axes.domainX, zero: false, nice: false } });
+  const y = (title?: string) => ({ field: axes.y, type: 'quantitative' as const, title, scale: { domain: axes.domainY, zero: false, nice: false } });
+  const rows = points.map((p) => ({ ...p, status: statusOf(p), marker: p.excluded ? EXCLUDED : p.outlier ? FLAGGED : null }));
+  // the markers' legend sits above the plot, the methods' below, so neither runs off the side
+  const markers = { field: 'marker', type: 'nominal' as const, title: null, legend: { orient: 'top' as const }, scale: { domain: [FLAGGED, EXCLUDED], range: [MARKER_INK[FLAGGED], MARKER_INK[EXCLUDED]] } };
+  const pick = { name: 'pick', select: { type: 'point' as const, fields: ['key'], on: 'click' } };
+  return [
+    {
+      data: { values: rows.filter((p) => !p.excluded) },
+      mark: { type: 'point' as const, filled: true, size: 40, opacity: 0.85, cursor: 'pointer' as const },
+      params: [pick],
+      encoding: { x: x(axes.titles.x), y: y(axes.titles.y), color: colour(methods, shown), shape: shape(methods, shown), tooltip: tooltip(unit) },
+    },
+    {
+      data: { values: rows.filter((p) => p.excluded) },
+      mark: { type: 'point' as const, filled: false, size: 40, strokeWidth: 1.2, opacity: 0.9, cursor: 'pointer' as const },
+      encoding: { x: x(), y: y(), stroke: markers, shape: shape(methods, shown), tooltip: tooltip(unit) },
+    },
+    {
+      data: { values: rows.filter((p) => p.outlier && !p.excluded) },
+      mark: { type: 'point' as const, shape: 'circle', filled: false, size: 190, strokeWidth: 1.6 },
+      encoding: { x: x(), y: y(), stroke: markers, tooltip: tooltip(unit) },
+    },
+    {
+      data: { values: rows },
+      transform: [{ filter: `${FOCUS_PARAM} !== null && datum.key === ${FOCUS_PARAM}` }],
+      mark: { type: 'point' as const, shape: 'circle', filled: false, size: 420, strokeWidth: 2.5, color: '#17212b' },
+      encoding: { x: x(), y: y() },
+    },
+  ];
+}
+
+const FOCUS = { name: FOCUS_PARAM, value: null };
 
 export interface ParityOptions {
   unit: string;
@@ -108,11 +174,12 @@ export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions)
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: o.width ?? 460,
     height: o.height ?? 460,
-    config: config(points.length),
+    config: config(),
+    params: [FOCUS],
     layer: [
       {
         data: { values: bandValues },
-        mark: { type: 'area', color: '#1d5a6e', opacity: 0.08 },
+        mark: { type: 'area', color: '#1d5a6e', opacity: 0.08, clip: true },
         encoding: {
           x: { field: 'x', type: 'quantitative', scale: axis, title: `Measured (${o.unit})` },
           y: { field: 'lower', type: 'quantitative', scale: axis, title: `Calculated (${o.unit})` },
@@ -137,29 +204,68 @@ export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions)
           color: colour(o.methods),
         },
       },
-      { data: { values: [...points] }, ...pointLayer('measured', 'calculated', domain, domain, o.methods, { x: `Measured (${o.unit})`, y: `Calculated (${o.unit})` }) },
+      ...pointLayers(points, { x: 'measured', y: 'calculated', domainX: domain, domainY: domain, titles: { x: `Measured (${o.unit})`, y: `Calculated (${o.unit})` } }, o.methods, o.unit),
     ],
   } as TopLevelSpec;
 }
 
-/** Histogram of the errors, one panel per method. */
+/** A 1–2–5 step near `raw`. */
+function niceStep(raw: number): number {
+  if (!(raw > 0)) return 1;
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const f = raw / power;
+  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * power;
+}
+
+/**
+ * Bins whose edges are multiples of one step (so zero is an edge whenever the
+ * errors straddle it) and axis ticks on multiples of a coarser step, zero among them.
+ */
+export function histogramBins(errors: readonly number[], maxBins = 30): { step: number; extent: [number, number]; ticks: number[] } {
+  const finite = errors.filter(Number.isFinite);
+  let lo = finite.length ? Math.min(...finite) : -1;
+  let hi = finite.length ? Math.max(...finite) : 1;
+  if (lo === hi) {
+    lo -= 1;
+    hi += 1;
+  }
+  const step = niceStep((hi - lo) / maxBins);
+  const extent: [number, number] = [Math.floor(lo / step) * step, Math.max(Math.ceil(hi / step), Math.floor(lo / step) + 1) * step];
+  const tickStep = niceStep((extent[1] - extent[0]) / 6);
+  const ticks: number[] = [];
+  for (let t = Math.ceil(extent[0] / tickStep) * tickStep; t <= extent[1] + tickStep * 1e-9; t += tickStep) ticks.push(Number(t.toFixed(10)));
+  return { step, extent: [Number(extent[0].toFixed(10)), Number(extent[1].toFixed(10))], ticks };
+}
+
+/** Histogram of the errors, one panel per method, with the zero line. */
 export function errorHistogramSpec(points: readonly ParityPoint[], o: { unit: string; methods: readonly string[]; maxBins?: number }): TopLevelSpec {
+  const included = points.filter((p) => !p.excluded);
+  const bins = histogramBins(included.map((p) => p.error), o.maxBins ?? 30);
+  const x = { field: 'error', type: 'quantitative' as const, title: `Error (${o.unit})`, scale: { domain: bins.extent, nice: false, zero: false } };
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
-    config: config(points.length),
-    data: { values: points.filter((p) => !p.excluded) },
+    config: config(),
+    data: { values: included },
     facet: { field: 'method', type: 'nominal', title: null, sort: [...o.methods] },
     columns: 3,
     spec: {
       width: 220,
       height: 140,
-      mark: { type: 'bar', opacity: 0.85 },
-      encoding: {
-        x: { field: 'error', type: 'quantitative', bin: { maxbins: o.maxBins ?? 30 }, title: `Error (${o.unit})` },
-        y: { aggregate: 'count', type: 'quantitative', title: 'Pairs' },
-        color: { ...colour(o.methods), legend: null },
-        tooltip: [{ aggregate: 'count', title: 'Pairs' }],
-      },
+      layer: [
+        {
+          mark: { type: 'bar', opacity: 0.85 },
+          encoding: {
+            x: { ...x, bin: { step: bins.step, extent: bins.extent }, axis: { values: bins.ticks } },
+            y: { aggregate: 'count', type: 'quantitative', title: 'Pairs' },
+            color: { ...colour(o.methods), legend: null },
+            tooltip: [
+              { field: 'error', type: 'quantitative', bin: { step: bins.step, extent: bins.extent }, title: `Error (${o.unit})`, format: '.1f' },
+              { aggregate: 'count', title: 'Pairs' },
+            ],
+          },
+        },
+        { mark: { type: 'rule', color: '#17212b', strokeDash: [3, 2] }, encoding: { x: { datum: 0, type: 'quantitative', scale: x.scale } } },
+      ],
     },
   } as TopLevelSpec;
 }
@@ -172,14 +278,15 @@ export function residualSpec(points: readonly ParityPoint[], o: { unit: string; 
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: 460,
     height: 300,
-    config: config(points.length),
+    config: config(),
+    params: [FOCUS],
     layer: [
       {
         data: { values: [{ y: 0 }] },
         mark: { type: 'rule', color: '#4d5b69', strokeDash: [4, 3] },
         encoding: { y: { field: 'y', type: 'quantitative', scale: { domain: domainY, zero: false, nice: false } } },
       },
-      { data: { values: [...points] }, ...pointLayer('measured', 'error', domainX, domainY, o.methods, { x: `Measured (${o.unit})`, y: `Error, calculated − measured (${o.unit})` }) },
+      ...pointLayers(points, { x: 'measured', y: 'error', domainX, domainY, titles: { x: `Measured (${o.unit})`, y: `Error, calculated − measured (${o.unit})` } }, o.methods, o.unit),
     ],
   } as TopLevelSpec;
 }
@@ -191,33 +298,53 @@ export interface AgreementLimits {
   upper: number;
 }
 
-/** Bland–Altman: difference vs mean of measured and calculated, with each method's bias and 95 % limits. */
+const LIMIT_KINDS = ['bias', 'upper limit', 'lower limit'] as const;
+
+/**
+ * Bland–Altman: difference vs mean of measured and calculated, with each plotted
+ * method's bias and 95 % limits, each line labelled with its value. The legend
+ * lists only the methods drawn.
+ */
 export function blandAltmanSpec(points: readonly ParityPoint[], limits: readonly AgreementLimits[], o: { unit: string; methods: readonly string[] }): TopLevelSpec {
   const included = points.filter((p) => !p.excluded);
+  const shown = o.methods.filter((m) => included.some((p) => p.method === m) || limits.some((l) => l.method === m));
   const domainX = sharedDomain(included.map((p) => p.mean));
   const domainY = sharedDomain([...included.map((p) => p.error), ...limits.flatMap((l) => [l.lower, l.upper])]);
-  const lines = limits.flatMap((l) => [
-    { method: l.method, y: l.bias, kind: 'bias' },
-    { method: l.method, y: l.lower, kind: 'lower limit' },
-    { method: l.method, y: l.upper, kind: 'upper limit' },
-  ]);
+  const lines = limits.flatMap((l) =>
+    LIMIT_KINDS.map((kind) => {
+      const y = kind === 'bias' ? l.bias : kind === 'lower limit' ? l.lower : l.upper;
+      return { method: l.method, y, kind, text: `${kind === 'bias' ? 'bias' : kind === 'upper limit' ? 'upper 95 % limit' : 'lower 95 % limit'} ${plotNumber(y, 2, true)} ${o.unit}` };
+    }),
+  );
+  const yScale = { domain: domainY, zero: false, nice: false };
+  const axes = { x: 'mean', y: 'error', domainX, domainY, titles: { x: `Mean of measured and calculated (${o.unit})`, y: `Calculated − measured (${o.unit})` } };
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: 460,
     height: 300,
-    config: config(points.length),
+    config: config(),
+    params: [FOCUS],
     layer: [
       {
         data: { values: lines },
         mark: { type: 'rule', strokeWidth: 1.2 },
         encoding: {
-          y: { field: 'y', type: 'quantitative', scale: { domain: domainY, zero: false, nice: false } },
-          color: colour(o.methods),
-          strokeDash: { field: 'kind', type: 'nominal', scale: { domain: ['bias', 'lower limit', 'upper limit'], range: [[1, 0], [5, 3], [5, 3]] }, legend: null },
-          tooltip: [{ field: 'method' }, { field: 'kind' }, { field: 'y', format: '+.2f', title: o.unit }],
+          y: { field: 'y', type: 'quantitative', scale: yScale },
+          color: colour(o.methods, shown),
+          strokeDash: { field: 'kind', type: 'nominal', scale: { domain: [...LIMIT_KINDS], range: [[1, 0], [5, 3], [5, 3]] }, legend: null },
+          tooltip: [{ field: 'method', title: 'Method' }, { field: 'text', title: 'Line' }],
         },
       },
-      { data: { values: included }, ...pointLayer('mean', 'error', domainX, domainY, o.methods, { x: `Mean of measured and calculated (${o.unit})`, y: `Calculated − measured (${o.unit})` }) },
+      {
+        data: { values: lines },
+        mark: { type: 'text', align: 'right', baseline: 'bottom', dx: -4, dy: -3, fontSize: 11, color: '#17212b' },
+        encoding: {
+          x: { datum: domainX[1], type: 'quantitative', scale: { domain: domainX, zero: false, nice: false } },
+          y: { field: 'y', type: 'quantitative', scale: yScale },
+          text: { field: 'text' },
+        },
+      },
+      ...pointLayers(included, axes, o.methods, o.unit, shown),
     ],
   } as TopLevelSpec;
 }
@@ -238,7 +365,8 @@ export function pairedScatterSpec(points: readonly PairedPoint[], o: { unit: str
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: 360,
     height: 360,
-    config: config(points.length),
+    config: config(),
+    params: [FOCUS],
     layer: [
       {
         data: { values: [{ x: domain[0], y: domain[0] }, { x: domain[1], y: domain[1] }] },
@@ -254,10 +382,16 @@ export function pairedScatterSpec(points: readonly PairedPoint[], o: { unit: str
           tooltip: [
             { field: 'material', title: 'Material' },
             { field: 'label', title: 'Mode' },
-            { field: 'a', title: `|e| ${o.a}`, format: '.2f' },
-            { field: 'b', title: `|e| ${o.b}`, format: '.2f' },
+            { field: 'a', title: `|error| ${o.a} (${o.unit})`, format: '.2f' },
+            { field: 'b', title: `|error| ${o.b} (${o.unit})`, format: '.2f' },
           ],
         },
+      },
+      {
+        data: { values: [...points] },
+        transform: [{ filter: `${FOCUS_PARAM} !== null && datum.key === ${FOCUS_PARAM}` }],
+        mark: { type: 'point', shape: 'circle', filled: false, size: 420, strokeWidth: 2.5, color: '#17212b' },
+        encoding: { x: { field: 'a', type: 'quantitative', scale: axis }, y: { field: 'b', type: 'quantitative', scale: axis } },
       },
     ],
   } as TopLevelSpec;

@@ -17,7 +17,7 @@ export default async function InvitationPage({ params }: { params: Promise<{ id:
   const mine = invitation && invitation.email.toLowerCase() === session.user.email.toLowerCase();
 
   return (
-    <main className="mx-auto max-w-lg space-y-4 px-6 py-16">
+    <main id="main" tabIndex={-1} className="focus:outline-none mx-auto max-w-lg space-y-4 px-6 py-16">
       <h1>Invitation</h1>
       {!invitation || !mine ? (
         <Notice tone="bad">

@@ -33,10 +33,15 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
       </header>
       <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6">
         {counts.map((c) => (
-          <Link key={c.label} href={`/w/${slug}/${c.href}`} className="rounded-lg border border-rule bg-panel px-4 py-3 no-underline hover:border-accent/50">
-            <dt className="text-xs text-ink-muted">{c.label}</dt>
+          <div key={c.label} className="relative rounded-lg border border-rule bg-panel px-4 py-3 focus-within:border-accent hover:border-accent/50">
+            <dt className="text-xs">
+              {/* the link covers the whole card, so the card stays one click target */}
+              <Link href={`/w/${slug}/${c.href}`} className="text-ink-muted no-underline after:absolute after:inset-0 after:content-['']">
+                {c.label}
+              </Link>
+            </dt>
             <dd className="num text-2xl font-semibold text-ink">{count(c.value)}</dd>
-          </Link>
+          </div>
         ))}
       </dl>
       <div className="grid gap-4 lg:grid-cols-3">

@@ -1,7 +1,9 @@
 'use client';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { useSearchParams } from 'next/navigation';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
 import { blandAltmanSpec, errorHistogramSpec, parityPlotSpec, rendererFor, residualSpec, type AgreementLimits } from '@/components/charts/benchmark/specs';
+import { blandAltmanText, histogramText, parityText, residualText } from '@/components/charts/benchmark/figure-text';
 import { inputClass } from '@/components/ui/field';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 import { usePairs } from './use-benchmark-data';
@@ -29,11 +31,29 @@ export function BenchmarkPlots({
   fileStem: string;
 }) {
   const { data, error, isPending } = usePairs(workspaceId, benchmarkId, revision);
-  const [hidden, setHidden] = useState<Set<string>>(new Set());
-  const [bandPercent, setBandPercent] = useState(5);
-  const [showExcluded, setShowExcluded] = useState(true);
-  const [baMethod, setBaMethod] = useState(methods.find((m) => m.limits)?.methodId ?? methods[0]?.methodId ?? '');
+  const initial = usePlotSettings(methods);
+  const [hidden, setHidden] = useState<Set<string>>(initial.hidden);
+  const [bandPercent, setBandPercent] = useState(initial.bandPercent);
+  const [showExcluded, setShowExcluded] = useState(initial.showExcluded);
+  const [baMethod, setBaMethod] = useState(initial.baMethod);
   const [picked, setPicked] = useState<PlotPoint | null>(null);
+  const pickedPanel = useRef<HTMLDivElement>(null);
+  const pickedFrom = useRef<HTMLElement | null>(null);
+
+  // the settings live in the address, so a shared or reloaded link shows the same plots
+  useEffect(() => {
+    const url = new URL(window.location.href);
+    const set = (name: string, value: string | null) => (value === null ? url.searchParams.delete(name) : url.searchParams.set(name, value));
+    set('hide', hidden.size ? [...hidden].join(',') : null);
+    set('band', bandPercent === DEFAULT_BAND ? null : String(bandPercent));
+    set('excluded', showExcluded ? null : 'hide');
+    set('ba', baMethod && baMethod !== defaultBaMethod(methods) ? baMethod : null);
+    if (url.href !== window.location.href) window.history.replaceState(window.history.state, '', url);
+  }, [hidden, bandPercent, showExcluded, baMethod, methods]);
+
+  useEffect(() => {
+    if (picked) pickedPanel.current?.focus();
+  }, [picked]);
 
   const labels = useMemo(() => methods.map((m) => m.label), [methods]);
   const visible = useMemo(
@@ -50,18 +70,26 @@ export function BenchmarkPlots({
   const ba = useMemo(() => {
     const m = methods.find((x) => x.methodId === baMethod);
     const limits: AgreementLimits[] = m?.limits ? [{ method: m.label, ...m.limits }] : [];
-    return blandAltmanSpec(
-      visible.filter((p) => p.methodId === baMethod),
-      limits,
-      { unit, methods: labels },
-    );
+    const shown = visible.filter((p) => p.methodId === baMethod);
+    return { spec: blandAltmanSpec(shown, limits, { unit, methods: labels }), text: blandAltmanText(shown, limits, unit) };
   }, [visible, baMethod, methods, unit, labels]);
+  const texts = useMemo(
+    () => ({ parity: parityText(visible, unit), residual: residualText(visible, unit), histogram: histogramText(visible, unit, labels) }),
+    [visible, unit, labels],
+  );
 
   if (isPending) return <p className="text-sm text-ink-muted">Loading the pairs…</p>;
   if (error) return <p className="text-sm text-bad">Could not load the pairs: {error.message}</p>;
   if (!data || data.points.length === 0) return <p className="text-sm text-ink-muted">No pairs to plot.</p>;
 
-  const pick = (key: string) => setPicked(byKey.get(key) ?? null);
+  const pick = (key: string) => {
+    pickedFrom.current = document.activeElement as HTMLElement | null;
+    setPicked(byKey.get(key) ?? null);
+  };
+  const closePicked = () => {
+    setPicked(null);
+    pickedFrom.current?.focus();
+  };
 
   return (
     <div className="space-y-4">
@@ -103,18 +131,18 @@ export function BenchmarkPlots({
           %
         </label>
         <span className="text-xs text-ink-faint num">
-          {visible.length.toLocaleString('en')} points · {renderer === 'canvas' ? 'canvas' : 'SVG'} renderer · click a point to open its pair
+          {visible.length.toLocaleString('en')} points · {renderer === 'canvas' ? 'canvas' : 'SVG'} renderer · click a point, or focus a plot and use the arrow keys and Enter, to open its pair
         </span>
         <AddToDeck workspaceId={workspaceId} kinds={PLOT_KINDS} benchmarkId={benchmarkId} revisionNumber={revision} filters={{ hiddenMethods: [...hidden], bandPercent, showExcluded, methodId: baMethod || undefined }} />
       </div>
 
       {picked ? (
-        <div className="rounded-md border border-rule bg-paper px-3 py-2 text-sm" role="status">
+        <div ref={pickedPanel} tabIndex={-1} className="rounded-md border border-rule bg-paper px-3 py-2 text-sm" role="region" aria-label="Selected pair" data-testid="picked-pair">
           <div className="flex justify-between gap-2">
             <strong>
               {picked.material} · {picked.label} · {picked.method}
             </strong>
-            <button type="button" className="text-xs text-ink-muted hover:text-ink" onClick={() => setPicked(null)}>
+            <button type="button" className="text-xs text-ink-muted underline underline-offset-2 hover:text-ink" onClick={closePicked}>
               Close
             </button>
           </div>
@@ -135,8 +163,8 @@ export function BenchmarkPlots({
       ) : null}
 
       <div className="grid gap-6 xl:grid-cols-2">
-        <VegaFigure spec={parity} renderer={renderer} fileName={`${fileStem}-parity`} title="Parity plot (y = x, dashed; shaded ± band)" onPick={pick} />
-        <VegaFigure spec={residual} renderer={renderer} fileName={`${fileStem}-residuals`} title="Residual vs measured" onPick={pick} />
+        <VegaFigure spec={parity} text={texts.parity} renderer={renderer} fileName={`${fileStem}-parity`} title="Parity plot (y = x, dashed; shaded ± band)" onPick={pick} />
+        <VegaFigure spec={residual} text={texts.residual} renderer={renderer} fileName={`${fileStem}-residuals`} title="Residual vs measured" onPick={pick} />
         <div className="space-y-2">
           <label className="flex items-center gap-2 text-sm">
             Bland–Altman for
@@ -148,12 +176,32 @@ export function BenchmarkPlots({
               ))}
             </select>
           </label>
-          <VegaFigure spec={ba} renderer={renderer} fileName={`${fileStem}-bland-altman`} title="Bland–Altman: bias and 95 % limits of agreement" onPick={pick} />
+          <VegaFigure spec={ba.spec} text={ba.text} renderer={renderer} fileName={`${fileStem}-bland-altman`} title="Bland–Altman: bias and 95 % limits of agreement" onPick={pick} />
         </div>
         <div className="xl:col-span-2">
-          <VegaFigure spec={histogram} renderer="svg" fileName={`${fileStem}-error-histogram`} title="Error histogram per method (included pairs)" />
+          <VegaFigure spec={histogram} text={texts.histogram} renderer="svg" fileName={`${fileStem}-error-histogram`} title="Error histogram per method (included pairs)" />
         </div>
       </div>
     </div>
   );
+}
+
+const DEFAULT_BAND = 5;
+
+function defaultBaMethod(methods: readonly PlotMethod[]): string {
+  return methods.find((m) => m.limits)?.methodId ?? methods[0]?.methodId ?? '';
+}
+
+/** The plot settings in the address: hide=<method ids>, band=<percent>, excluded=hide, ba=<method id>. */
+function usePlotSettings(methods: readonly PlotMethod[]) {
+  const params = useSearchParams();
+  const known = new Set(methods.map((m) => m.methodId));
+  const band = Number(params.get('band'));
+  const ba = params.get('ba');
+  return {
+    hidden: new Set((params.get('hide') ?? '').split(',').filter((id) => known.has(id))),
+    bandPercent: Number.isFinite(band) && band >= 0.5 && band <= 50 ? band : DEFAULT_BAND,
+    showExcluded: params.get('excluded') !== 'hide',
+    baMethod: ba && known.has(ba) ? ba : defaultBaMethod(methods),
+  };
 }

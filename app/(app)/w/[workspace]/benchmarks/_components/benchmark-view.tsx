@@ -25,6 +25,7 @@ import { fmt, signed, when } from './format';
 import { AddToDeck } from '@/components/decks/add-to-deck';
 import { DiscussButton } from '@/components/discussion/discuss-button';
 import { listBenchmarkThreads, threadsBySubject } from '@/db/queries/comments';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 export const QUALITY_BAR_NOTE =
   'Statistics depend on the quality and representativeness of the data; they support, and do not replace, expert judgement and peer review.';
@@ -239,7 +240,7 @@ export async function BenchmarkView({
             {flagged.length === 0 ? (
               <p className="text-sm text-ink-muted">No pair is flagged or excluded.</p>
             ) : (
-              <div className="overflow-x-auto">
+              <ScrollRegion label="Outliers and excluded pairs table">
                 <table className="min-w-full border-collapse text-[13px]" data-testid="outliers">
                   <thead className="border-b border-rule">
                     <tr className="text-left text-ink-muted">
@@ -319,14 +320,14 @@ export async function BenchmarkView({
                   </tbody>
                 </table>
                 {flagged.length > OUTLIER_ROWS ? <p className="mt-1 text-xs text-ink-muted">Showing the first {OUTLIER_ROWS}; the pairs CSV lists all.</p> : null}
-              </div>
+              </ScrollRegion>
             )}
           </Panel>
         </QueryProvider>
       )}
 
       <div className="grid gap-4 xl:grid-cols-2">
-        <Panel title={`Decisions and pins (${decisions.filter((d) => !d.revertedAt).length} in force, ${activePins.length} pins)`}>
+        <Panel id="decisions" title={`Decisions and pins (${decisions.filter((d) => !d.revertedAt).length} in force, ${activePins.length} pins)`}>
           {decisions.length === 0 && activePins.length === 0 ? (
             <p className="text-sm text-ink-muted">No decision recorded yet.</p>
           ) : (
@@ -360,13 +361,15 @@ export async function BenchmarkView({
           {snap.quality.length === 0 ? (
             <p className="text-sm text-ink-muted">No calculation set in scope fails a quality check.</p>
           ) : (
-            <ul className="max-h-72 space-y-1 overflow-y-auto text-sm">
+            <ScrollRegion label="Quality flags list" className="max-h-72 overflow-y-auto">
+            <ul className="space-y-1 text-sm">
               {snap.quality.slice(0, 300).map((f, i) => (
                 <li key={i}>
                   <span className={f.severity === 'error' ? 'text-bad' : 'text-warn'}>{f.code}</span> · {methodLabel.get(f.methodId)} · {materialName(f.materialId)}: {f.message}
                 </li>
               ))}
             </ul>
+            </ScrollRegion>
           )}
         </Panel>
       </div>

@@ -1,5 +1,6 @@
 import type { BreakdownRow } from '@/lib/benchmark/types';
 import { fmt, signed } from './format';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 /** Groups (material classes, frequency bands, species, branches, techniques) × methods: N, mean signed error, MAE, RMSE. */
 export function BreakdownTable({ rows, methods, groupTitle, caption }: { rows: BreakdownRow[]; methods: Array<{ methodId: string; label: string }>; groupTitle: string; caption: string }) {
@@ -7,7 +8,7 @@ export function BreakdownTable({ rows, methods, groupTitle, caption }: { rows: B
   const cell = new Map(rows.map((r) => [`${r.group}|${r.methodId}`, r]));
   if (groups.length === 0) return <p className="text-sm text-ink-muted">No included pairs.</p>;
   return (
-    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={`${caption} (scrolls sideways)`}>
+    <ScrollRegion label={`${caption} (scrolls sideways)`}>
       <table className="min-w-full border-collapse text-[13px]">
         <caption className="sr-only">{caption}</caption>
         <thead className="border-b border-rule">
@@ -47,6 +48,6 @@ export function BreakdownTable({ rows, methods, groupTitle, caption }: { rows: B
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollRegion>
   );
 }

@@ -1,6 +1,7 @@
 'use client';
 import { useActionState, useState } from 'react';
 import { decideAction, pinAction, recomputeBenchmarkAction, revertDecisionAction, revokePinAction } from '../actions';
+import { focusSoon } from '@/components/ui/focus-soon';
 import { inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
@@ -17,8 +18,17 @@ interface PairRef {
 /** Exclude a pair or its whole measurement, keep it, or pin its pairing — each with a reason. */
 export function PairDecisionForm({ pair }: { pair: PairRef }) {
   const [open, setOpen] = useState<null | 'decide' | 'pin'>(null);
-  const [decided, decide] = useActionState(decideAction, { ok: false });
-  const [pinned, pin] = useActionState(pinAction, { ok: false });
+  // on success the row loses this form: focus goes to the decisions list, which now holds the new entry
+  const [decided, decide] = useActionState(async (prev: Awaited<ReturnType<typeof decideAction>>, form: FormData) => {
+    const result = await decideAction(prev, form);
+    if (result.ok) focusSoon('#decisions');
+    return result;
+  }, { ok: false });
+  const [pinned, pin] = useActionState(async (prev: Awaited<ReturnType<typeof pinAction>>, form: FormData) => {
+    const result = await pinAction(prev, form);
+    if (result.ok) focusSoon('#decisions');
+    return result;
+  }, { ok: false });
   return (
     <div className="relative space-y-1">
       <div className="flex gap-1.5">
@@ -35,7 +45,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
           <input type="hidden" name="benchmarkId" value={pair.benchmarkId} />
           <input type="hidden" name="measurementId" value={pair.measurementId} />
           <input type="hidden" name="methodId" value={pair.methodId} />
-          <select name="kind" className={inputClass} aria-label="Decision" defaultValue="exclude-pair">
+          <select name="kind" className={inputClass} aria-label="Decision" defaultValue="exclude-pair" autoFocus>
             <option value="exclude-pair">Exclude this pair (this method)</option>
             <option value="exclude-measurement">Exclude the measurement (every method)</option>
             <option value="keep">Keep (flag reviewed)</option>
@@ -52,7 +62,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
           <input type="hidden" name="benchmarkId" value={pair.benchmarkId} />
           <input type="hidden" name="measurementId" value={pair.measurementId} />
           <input type="hidden" name="methodId" value={pair.methodId} />
-          <select name="calculationId" className={inputClass} aria-label="Pin" defaultValue={pair.calculationId ?? ''}>
+          <select name="calculationId" className={inputClass} aria-label="Pin" defaultValue={pair.calculationId ?? ''} autoFocus>
             {pair.calculationId ? <option value={pair.calculationId}>Pin this pairing (keep it whatever new data arrive)</option> : null}
             <option value="">No counterpart: never pair this measurement under this method</option>
           </select>

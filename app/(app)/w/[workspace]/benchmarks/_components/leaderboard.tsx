@@ -1,6 +1,7 @@
 import type { MethodResult, PairRecord, RankingRecord } from '@/lib/benchmark/types';
 import { MIN_PAIRS_FOR_STATISTICS } from '@/lib/benchmark/compute';
 import { fmt, signed } from './format';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 const th = 'px-2 py-1.5 text-left align-bottom font-medium text-ink-muted';
 const td = 'px-2 py-1.5 num whitespace-nowrap';
@@ -54,7 +55,7 @@ export function Leaderboard({
           </span>
         </p>
       ) : null}
-      <div className="overflow-x-auto rounded-md border border-rule" tabIndex={0} role="region" aria-label="Leaderboard table (scrolls sideways)">
+      <ScrollRegion label="Leaderboard table (scrolls sideways)" className="overflow-x-auto rounded-md border border-rule">
         <table className="min-w-full border-collapse text-[13px]" data-testid="leaderboard">
           <caption className="sr-only">Leaderboard: error statistics per method, errors in {unit}</caption>
           <thead className="border-b border-rule">
@@ -180,7 +181,7 @@ export function Leaderboard({
             })}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       {unranked.length ? (
         <ul className="text-xs text-ink-muted" data-testid="unranked">
           {unranked.map((m) => (

@@ -1,6 +1,7 @@
 'use client';
 import { useMemo, useState } from 'react';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
+import { comparisonText } from '@/components/charts/benchmark/figure-text';
 import { pairedScatterSpec, rendererFor, type PairedPoint } from '@/components/charts/benchmark/specs';
 import { inputClass } from '@/components/ui/field';
 import type { ComparisonRecord } from '@/lib/benchmark/types';
@@ -48,6 +49,7 @@ export function MethodComparison({
       });
   }, [data, a, b]);
   const spec = useMemo(() => pairedScatterSpec(points, { unit, a: label(a), b: label(b) }), [points, unit, a, b]); // eslint-disable-line react-hooks/exhaustive-deps
+  const text = useMemo(() => comparisonText(points, unit, label(a), label(b)), [points, unit, a, b]); // eslint-disable-line react-hooks/exhaustive-deps
 
   if (methods.length < 2) return <p className="text-sm text-ink-muted">Comparing needs at least two methods in scope.</p>;
 
@@ -102,7 +104,7 @@ export function MethodComparison({
         <AddToDeck workspaceId={workspaceId} kinds={['comparison']} benchmarkId={benchmarkId} revisionNumber={revision} filters={{ methodA: a, methodB: b }} defaultTitle={`${label(a)} vs ${label(b)}`} />
       </div>
       {a !== b && points.length > 0 ? (
-        <VegaFigure spec={spec} renderer={rendererFor(points.length)} fileName={`${fileStem}-${label(a)}-vs-${label(b)}`} title={`|error| per common pair: ${label(a)} vs ${label(b)}`} />
+        <VegaFigure spec={spec} text={text} renderer={rendererFor(points.length)} fileName={`${fileStem}-${label(a)}-vs-${label(b)}`} title={`|error| per common pair: ${label(a)} vs ${label(b)}`} />
       ) : null}
     </div>
   );

@@ -9,6 +9,7 @@ import { Panel } from '@/components/ui/panel';
 import { count, storedValue, unitSymbol } from '@/lib/format';
 import { UNDO_RULE, undoVerdict } from '@/lib/import/undo-rule';
 import { UndoImportForm } from '../_components/undo-import-form';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 export const metadata: Metadata = { title: 'Import' };
 
@@ -98,7 +99,7 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
         </div>
       </div>
       <Panel title={`Rows (${count(values.total)}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
-        <div className="overflow-x-auto">
+        <ScrollRegion label="Rows of this import">
           <table className="w-full text-sm" data-testid="import-rows">
             <thead className="text-left text-xs text-ink-muted">
               <tr>
@@ -123,7 +124,7 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       </Panel>
     </div>
   );

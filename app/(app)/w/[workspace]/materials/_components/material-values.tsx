@@ -184,7 +184,7 @@ export function MaterialValuesSection({ slug, materialId, materialName, values, 
               computedName={selected?.methodLabel ?? 'Computed'}
               downloadName={`${materialName}-${selected?.methodLabel ?? 'measured'}-spectrum`.replace(/[^A-Za-z0-9._-]+/g, '_')}
             />
-            <p className="text-xs text-ink-faint">Measured lines point up, computed lines down. Hover a line for its label and source.</p>
+            <p className="text-xs text-ink-faint">Measured lines point up, computed lines down; labels that would collide are staggered or left out. Hover a line for its label and source.</p>
           </div>
         </Panel>
       )}

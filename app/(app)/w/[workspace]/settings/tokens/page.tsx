@@ -81,7 +81,7 @@ export default async function TokensPage({ params }: { params: Promise<{ workspa
         <Panel title="Using a token">
           <div className="space-y-2 text-sm text-ink-muted">
             <p>Only a hash of each token is stored; a lost token cannot be recovered — revoke it and create another.</p>
-            <pre className="overflow-x-auto rounded bg-paper p-2 font-mono text-xs text-ink">{`curl -H "Authorization: Bearer llt_…" \\
+            <pre tabIndex={0} role="region" aria-label="Example request with a token" className="overflow-x-auto rounded bg-paper p-2 font-mono text-xs text-ink">{`curl -H "Authorization: Bearer llt_…" \\
   -H "Content-Type: text/csv" \\
   --data-binary @calculations.csv \\
   "$ORIGIN/api/v1/imports?kind=calculations&fileName=calculations.csv"`}</pre>
