@@ -49,6 +49,9 @@ function expectClean(who: string, results: Awaited<ReturnType<typeof walk>>) {
   expect(lines, `${lines.length} accessibility violations:\n${lines.join('\n')}`).toEqual([]);
 }
 
+// A cap, not a target: axe takes several seconds on a large page, and the walk grows with every new route.
+const WALK_TIMEOUT_MS = 600_000;
+
 describe('accessibility walk (axe-core, WCAG 2.2 AA)', () => {
   it('finds every page route in the app folder', () => {
     const routes = pageRoutes();
@@ -59,7 +62,7 @@ describe('accessibility walk (axe-core, WCAG 2.2 AA)', () => {
 
   it('signed out: every route, screen and print', async () => {
     expectClean('signed out', await walk(page, base, values, { media: ['screen', 'print'] }));
-  });
+  }, WALK_TIMEOUT_MS);
 
   it('as the owner: every route, screen and print', async () => {
     await signInDemo(page, base, 'owner');
@@ -68,7 +71,7 @@ describe('accessibility walk (axe-core, WCAG 2.2 AA)', () => {
     expect(results.length).toBeGreaterThan(pageRoutes().length);
     expectClean('owner', results);
     await page.context().clearCookies();
-  });
+  }, WALK_TIMEOUT_MS);
 
   for (const role of ['curator', 'contributor', 'reviewer'] as const) {
     it(`as the ${role}: the pages that change with the role, screen and print`, async () => {

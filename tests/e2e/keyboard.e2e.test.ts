@@ -55,7 +55,12 @@ describe('keyboard only', () => {
     await mapping.waitFor();
     expect(await mapping.inputValue()).toBe('');
     await tabTo(page, (f) => f.id === 'map-temperature_K', 'the temperature mapping');
-    for (let i = 0; i < 12 && (await mapping.inputValue()) !== 'T at sample (K)'; i++) await page.keyboard.press('ArrowDown');
+    // one option at a time, as a user reads each (every step re-checks the file in the worker;
+    // keys sent within the same few milliseconds can land before React has committed the last change)
+    for (let i = 0; i < 12 && (await mapping.inputValue()) !== 'T at sample (K)'; i++) {
+      await page.keyboard.press('ArrowDown');
+      await page.waitForTimeout(100);
+    }
     expect(await mapping.inputValue()).toBe('T at sample (K)');
 
     const commit = page.getByRole('button', { name: 'Import 1 rows' });
