@@ -3,8 +3,8 @@ export async function register() {
     // Fail at start-up, with the list of bad variables, rather than on the first request.
     const { env } = await import('@/lib/env');
     env();
-    const { startMailWorker } = await import('@/lib/mail/worker');
+    const { startMailWorker } = await import('@/lib/services/mail/worker');
     startMailWorker();
-    (await import('@/lib/alerts/scheduler')).startDigestTimer();
+    (await import('@/lib/services/alerts/scheduler')).startDigestTimer();
   }
 }

@@ -30,7 +30,7 @@ const { getClient, db, closeDb } = await import('../db/client');
 const { connect } = await import('../db/connection');
 const { migrateClient } = await import('../db/migrate');
 const schema = await import('../db/schema');
-const { importCsvFile } = await import('../lib/api/run-import');
+const { importCsvFile } = await import('../lib/services/imports/csv-import');
 const { INSERT_CHUNK_ROWS, multiRowInsertSql, valueTableOf } = await import('../db/queries/imports');
 
 function mb(bytes: number): string {

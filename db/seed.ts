@@ -14,7 +14,7 @@ import { WORKSPACE_ROLES } from '@/lib/permissions';
 import { loadDemoScenario } from '@/db/demo-data';
 import { benchmark } from '@/db/schema';
 import { createBenchmark } from '@/db/queries/benchmarks';
-import { recomputeBenchmark } from '@/db/queries/revisions';
+import { recomputeBenchmark } from '@/lib/services/benchmarks/recompute';
 import type { BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
 
 const groupSchema = z.object({

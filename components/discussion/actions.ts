@@ -8,7 +8,7 @@ import { THREAD_SUBJECTS } from '@/db/schema';
 import { getThread, parsePairKey, postComment, setThreadResolved, COMMENT_MAX_CHARS } from '@/db/queries/comments';
 import { createDecision, createPin } from '@/db/queries/decisions';
 import { getRevision } from '@/db/queries/revisions';
-import { scheduleRecompute } from '@/lib/benchmark/recompute-queue';
+import { scheduleRecompute } from '@/lib/services/benchmarks/recompute-queue';
 import { threadPath } from '@/lib/discussion/thread-url';
 
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);

@@ -5,7 +5,7 @@ import type { CauseLookups } from '@/lib/alerts/causes';
 import { db } from '@/db/client';
 import { auditLog, decision, importBatch, mailOutbox, method, pairPin, revision, user, watch, type NewMail } from '@/db/schema';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
-import type { RevisionCause } from './revisions';
+import type { RevisionCause } from '@/lib/benchmark/revision-record';
 import { enqueueMail } from './mail';
 
 export interface AlertRevision {

@@ -4,44 +4,14 @@ import { db } from '@/db/client';
 import { flag, importBatch, material, revision, source, user } from '@/db/schema';
 import { shortCitation } from '@/lib/citations/short-citation';
 import { AppError } from '@/lib/errors';
-import { computeBenchmark } from '@/lib/benchmark/compute';
-import { benchmarkFingerprint } from '@/lib/benchmark/fingerprint';
+import type { RevisionBaseline, RevisionCause, RevisionRecord } from '@/lib/benchmark/revision-record';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
-import { requireBenchmark, loadBenchmarkInput } from './benchmarks';
-import { revisionStored } from '@/lib/alerts/scheduler';
-
-/** What made a recomputation run (accumulated by the queue while it waits). */
-export interface RecomputeCause {
-  trigger: 'benchmark-created' | 'benchmark-updated' | 'import' | 'import-undone' | 'decision' | 'pin' | 'manual' | 'data-change';
-  importId?: string;
-  decisionId?: string;
-  pinId?: string;
-  userId?: string | null;
-}
-
-/** What a revision records about its origin: the reported causes and the change it measured. */
-export interface RevisionCause {
-  reported: RecomputeCause[];
-  rows: { measurementsAdded: number; measurementsRemoved: number; calculationsAdded: number; calculationsRemoved: number };
-  /** Imports whose rows entered the scope with this revision. */
-  imports: Array<{ id: string; rows: number }>;
-  decisions: { added: string[]; reverted: string[] };
-  pins: { added: string[]; revoked: string[] };
-}
 
 export interface RevisionHead {
   id: string;
   number: number;
   fingerprint: string;
   createdAt: Date;
-}
-
-type RowIds = { measurements: string[]; calculations: string[] };
-
-function setDiff(now: readonly string[], before: readonly string[]): { added: string[]; removed: string[] } {
-  const a = new Set(now);
-  const b = new Set(before);
-  return { added: now.filter((x) => !b.has(x)), removed: before.filter((x) => !a.has(x)) };
 }
 
 async function latestReady(workspaceId: string, benchmarkId: string) {
@@ -56,91 +26,33 @@ async function latestReady(workspaceId: string, benchmarkId: string) {
 
 const CHUNK = 400;
 
+/** The latest stored revision of a benchmark, or null before the first. */
+export async function latestRevisionHead(workspaceId: string, benchmarkId: string): Promise<RevisionHead | null> {
+  return latestReady(workspaceId, benchmarkId);
+}
+
+/** The row ids, decisions and pins a revision was computed from: the baseline of the next revision's cause. */
+export async function revisionBaseline(workspaceId: string, revisionId: string): Promise<RevisionBaseline> {
+  const [row] = await db
+    .select({
+      rowIds: revision.rowIds,
+      decisions: sql<string | null>`json_extract(${revision.statistics}, '$.decisions')`,
+      pins: sql<string | null>`json_extract(${revision.statistics}, '$.pins')`,
+    })
+    .from(revision)
+    .where(and(eq(revision.workspaceId, workspaceId), eq(revision.id, revisionId)));
+  if (!row) throw new AppError('not-found', 'That revision does not exist in this workspace.');
+  const ids = (json: string | null) => (JSON.parse(json ?? '[]') as Array<{ id: string }>).map((x) => x.id);
+  return { rowIds: row.rowIds, decisionIds: ids(row.decisions), pinIds: ids(row.pins) };
+}
+
 /**
- * Recomputes a benchmark and stores a new Revision only when the fingerprint of
- * the rows, rules, decisions and pins changed. Revisions are never updated after
- * this insert: there is no function that writes to an existing one.
+ * Stores a new Revision and its flags in one transaction, numbered after the
+ * latest. Revisions are never updated after this insert: there is no function
+ * that writes to an existing one.
  */
-export async function recomputeBenchmark(
-  workspaceId: string,
-  benchmarkId: string,
-  reported: RecomputeCause[] = [{ trigger: 'manual' }],
-): Promise<{ created: boolean; revision: RevisionHead | null }> {
-  const bm = await requireBenchmark(workspaceId, benchmarkId);
-  const input = await loadBenchmarkInput(workspaceId, bm);
-  const fingerprint = benchmarkFingerprint(input, bm.scope);
-  const latest = await latestReady(workspaceId, benchmarkId);
-  if (latest && latest.fingerprint === fingerprint) return { created: false, revision: latest };
-
-  const snapshot = computeBenchmark(input);
-  const rowIds: RowIds = {
-    measurements: input.measurements.map((m) => m.id).sort(),
-    calculations: input.calculations.map((c) => c.id).sort(),
-  };
-  let previous: { rowIds: RowIds | null; statistics: BenchmarkSnapshot | null } | null = null;
-  if (latest) {
-    const [row] = await db
-      .select({
-        rowIds: revision.rowIds,
-        decisions: sql<string | null>`json_extract(${revision.statistics}, '$.decisions')`,
-        pins: sql<string | null>`json_extract(${revision.statistics}, '$.pins')`,
-      })
-      .from(revision)
-      .where(eq(revision.id, latest.id));
-    previous = {
-      rowIds: row.rowIds,
-      statistics: { decisions: JSON.parse(row.decisions ?? '[]'), pins: JSON.parse(row.pins ?? '[]') } as BenchmarkSnapshot,
-    };
-  }
-  const m = setDiff(rowIds.measurements, previous?.rowIds?.measurements ?? []);
-  const c = setDiff(rowIds.calculations, previous?.rowIds?.calculations ?? []);
-  const addedIds = new Set([...m.added, ...c.added]);
-  const importRows = new Map<string, number>();
-  for (const row of [...input.measurements, ...input.calculations]) {
-    if (row.importId && addedIds.has(row.id)) importRows.set(row.importId, (importRows.get(row.importId) ?? 0) + 1);
-  }
-  const d = setDiff(
-    snapshot.decisions.map((x) => x.id),
-    (previous?.statistics?.decisions ?? []).map((x) => x.id),
-  );
-  const p = setDiff(
-    snapshot.pins.map((x) => x.id),
-    (previous?.statistics?.pins ?? []).map((x) => x.id),
-  );
-  const cause: RevisionCause = {
-    reported,
-    rows: { measurementsAdded: m.added.length, measurementsRemoved: m.removed.length, calculationsAdded: c.added.length, calculationsRemoved: c.removed.length },
-    imports: [...importRows].map(([id, rows]) => ({ id, rows })).sort((a, b) => b.rows - a.rows),
-    decisions: { added: d.added, reverted: d.removed },
-    pins: { added: p.added, revoked: p.removed },
-  };
-
-  const flagRows = [
-    ...snapshot.pairs
-      .filter((pair) => pair.outlier !== null)
-      .map((pair) => ({
-        workspaceId,
-        benchmarkId,
-        kind: 'outlier' as const,
-        code: snapshot.rules.outlierRule.kind,
-        methodId: pair.methodId,
-        measurementId: pair.measurementIds[0],
-        subjectKey: pair.key,
-        details: { reason: pair.outlier, error: pair.error },
-      })),
-    ...snapshot.quality.map((q) => ({
-      workspaceId,
-      benchmarkId,
-      kind: 'quality' as const,
-      code: q.code,
-      methodId: q.methodId,
-      measurementId: null,
-      subjectKey: `${q.materialId}|${q.methodId}`,
-      details: { severity: q.severity, message: q.message, materialId: q.materialId },
-    })),
-  ];
-
-  const head = await db.transaction(async (tx) => {
+export async function insertRevision(workspaceId: string, benchmarkId: string, record: RevisionRecord): Promise<RevisionHead> {
+  return db.transaction(async (tx) => {
     const [{ last }] = await tx.select({ last: max(revision.number) }).from(revision).where(eq(revision.benchmarkId, benchmarkId));
     const [row] = await tx
       .insert(revision)
@@ -148,22 +60,20 @@ export async function recomputeBenchmark(
         workspaceId,
         benchmarkId,
         number: (last ?? 0) + 1,
-        fingerprint,
+        fingerprint: record.fingerprint,
         status: 'ready',
-        statistics: snapshot,
-        rowIds,
-        cause,
+        statistics: record.snapshot,
+        rowIds: record.rowIds,
+        cause: record.cause,
         completedAt: new Date(),
       })
       .returning({ id: revision.id, number: revision.number, fingerprint: revision.fingerprint, createdAt: revision.createdAt });
-    for (let i = 0; i < flagRows.length; i += CHUNK) {
-      await tx.insert(flag).values(flagRows.slice(i, i + CHUNK).map((f) => ({ ...f, revisionId: row.id })));
+    for (let i = 0; i < record.flags.length; i += CHUNK) {
+      await tx.insert(flag).values(record.flags.slice(i, i + CHUNK).map((f) => ({ ...f, workspaceId, benchmarkId, revisionId: row.id })));
       await new Promise(setImmediate);
     }
     return row;
   });
-  revisionStored(workspaceId, benchmarkId, head.id);
-  return { created: true, revision: head };
 }
 
 export interface RevisionView extends RevisionHead {

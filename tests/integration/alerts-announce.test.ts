@@ -2,9 +2,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { mailOutbox, member, watch } from '@/db/schema';
-import { announceBenchmark } from '@/lib/alerts/announce';
-import { whenAlertsIdle } from '@/lib/alerts/scheduler';
-import { deliverDueMail, type DeliveryConfig } from '@/lib/mail/deliver';
+import { announceBenchmark } from '@/lib/services/alerts/announce';
+import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
+import { deliverDueMail, type DeliveryConfig } from '@/lib/services/mail/deliver';
 import type { FakeResend } from '@/lib/mail/fake-resend-server';
 import { alertScenario, alertSetup, outboxTo } from './alerts-support';
 

@@ -8,8 +8,8 @@ import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { measurement } from '@/db/schema';
 import { createDecision } from '@/db/queries/decisions';
-import { recomputeBenchmark } from '@/db/queries/revisions';
-import { whenAlertsIdle } from '@/lib/alerts/scheduler';
+import { recomputeBenchmark } from '@/lib/services/benchmarks/recompute';
+import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
 import type { FakeResend } from '@/lib/mail/fake-resend-server';
 import { alertScenario, alertSetup, outboxTo } from './alerts-support';
 

@@ -4,8 +4,8 @@ import { db } from '@/db/client';
 import { mailOutbox, watch } from '@/db/schema';
 import { watchBenchmark } from '@/db/queries/watches';
 import { listAlertLog } from '@/db/queries/alerts';
-import { sendDueDigests } from '@/lib/alerts/announce';
-import { whenAlertsIdle } from '@/lib/alerts/scheduler';
+import { sendDueDigests } from '@/lib/services/alerts/announce';
+import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
 import { alertScenario, outboxTo } from './alerts-support';
 
 let s: Awaited<ReturnType<typeof alertScenario>>;

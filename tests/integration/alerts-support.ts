@@ -7,13 +7,14 @@
 import { eq } from 'drizzle-orm';
 import { expect } from 'vitest';
 import { watchAction } from '@/app/(app)/w/[workspace]/watches/actions';
-import { whenAlertsIdle } from '@/lib/alerts/scheduler';
+import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
 import { startFakeResend } from '@/lib/mail/fake-resend-server';
 import { callAction } from '@/tests/support/actions';
 import { db } from '@/db/client';
 import { importBatch, mailOutbox } from '@/db/schema';
 import { createBenchmark } from '@/db/queries/benchmarks';
-import { getRevision, recomputeBenchmark } from '@/db/queries/revisions';
+import { getRevision } from '@/db/queries/revisions';
+import { recomputeBenchmark } from '@/lib/services/benchmarks/recompute';
 import { createWorkspaceWith, signInAs } from '@/tests/support/users';
 import { addMaterial, addMeasurement, addMethod, addModeSet, addSource } from './benchmark-support';
 

@@ -5,7 +5,7 @@ import { auditLog, mailOutbox, watch } from '@/db/schema';
 import { POST } from '@/app/api/unsubscribe/route';
 import { watchBenchmark } from '@/db/queries/watches';
 import { signUnsubscribeToken } from '@/lib/alerts/unsubscribe-token';
-import { whenAlertsIdle } from '@/lib/alerts/scheduler';
+import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
 import { requestContext } from '@/tests/support/request-context';
 import { alertScenario, outboxTo } from './alerts-support';
 

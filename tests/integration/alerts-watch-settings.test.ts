@@ -6,7 +6,7 @@ import { unwatchAction, updateWatchAction, watchAction } from '@/app/(app)/w/[wo
 import { updateBenchmarkAction } from '@/app/(app)/w/[workspace]/benchmarks/actions';
 import { listAlertLog } from '@/db/queries/alerts';
 import { listMyWatches } from '@/db/queries/watches';
-import { whenAlertsIdle } from '@/lib/alerts/scheduler';
+import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
 import { callAction } from '@/tests/support/actions';
 import { signInAs } from '@/tests/support/users';
 import { alertScenario, outboxTo } from './alerts-support';

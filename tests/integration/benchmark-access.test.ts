@@ -8,7 +8,8 @@ import { GET as getStatistics } from '@/app/api/workspaces/[workspaceId]/benchma
 import { GET as getPairs } from '@/app/api/workspaces/[workspaceId]/benchmarks/[benchmarkId]/pairs/route';
 import { GET as getBibtex } from '@/app/api/workspaces/[workspaceId]/benchmarks/[benchmarkId]/bibtex/route';
 import { createBenchmark } from '@/db/queries/benchmarks';
-import { getRevision, recomputeBenchmark } from '@/db/queries/revisions';
+import { getRevision } from '@/db/queries/revisions';
+import { recomputeBenchmark } from '@/lib/services/benchmarks/recompute';
 import { addMaterial, addMeasurement, addMethod, addModeSet, addSource, formData } from './benchmark-support';
 
 let a: Awaited<ReturnType<typeof createWorkspaceWith>>;

@@ -5,7 +5,7 @@ import { auditLog, benchmark, deck, deckView } from '@/db/schema';
 import { addToDeckAction, createDeckAction, listDecksAction, moveViewAction, refreshViewAction, removeViewAction, retitleDeckAction, updateViewAction } from '@/app/(app)/w/[workspace]/decks/actions';
 import { decideAction } from '@/app/(app)/w/[workspace]/benchmarks/actions';
 import { getDeck } from '@/db/queries/decks';
-import { whenRecomputeIdle } from '@/lib/benchmark/recompute-queue';
+import { whenRecomputeIdle } from '@/lib/services/benchmarks/recompute-queue';
 import { createWorkspaceWith, signInAs } from '@/tests/support/users';
 import { formData } from './benchmark-support';
 import { meetingBenchmark } from './meeting-support';

@@ -6,7 +6,7 @@ import { pinFromThreadAction, postCommentAction } from '@/components/discussion/
 import { listSubjectThreads } from '@/db/queries/comments';
 import { listPins } from '@/db/queries/decisions';
 import { getRevision } from '@/db/queries/revisions';
-import { whenRecomputeIdle } from '@/lib/benchmark/recompute-queue';
+import { whenRecomputeIdle } from '@/lib/services/benchmarks/recompute-queue';
 import { calculationSetId, loadMaterialThreads } from '@/app/(app)/w/[workspace]/materials/_components/material-discussion';
 import { requestContext } from '@/tests/support/request-context';
 import { createWorkspaceWith, signInAs } from '@/tests/support/users';

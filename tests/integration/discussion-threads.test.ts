@@ -10,7 +10,7 @@ import { actionScope } from '@/lib/action';
 import { CommentBody } from '@/components/discussion/comment-body';
 import { listBenchmarkThreads } from '@/db/queries/comments';
 import { getRevision } from '@/db/queries/revisions';
-import { whenRecomputeIdle } from '@/lib/benchmark/recompute-queue';
+import { whenRecomputeIdle } from '@/lib/services/benchmarks/recompute-queue';
 import { GET as minutesRoute } from '@/app/api/workspaces/[workspaceId]/minutes/route';
 import { requestContext } from '@/tests/support/request-context';
 import { createWorkspaceWith, signInAs } from '@/tests/support/users';

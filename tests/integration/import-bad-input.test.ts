@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { importBatch, measurement } from '@/db/schema';
-import { importCsvFile } from '@/lib/api/run-import';
+import { importCsvFile } from '@/lib/services/imports/csv-import';
 import { ImportRefusal, type RowError } from '@/lib/import/errors';
 import { createWorkspaceWith } from '../support/users';
 import { bytesOf, chunksOf, seedCatalogue } from './import-fixtures';

@@ -3,7 +3,7 @@ import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { auditLog, calculation, importBatch, measurement } from '@/db/schema';
 import { undoImport } from '@/db/queries/imports';
-import { importCsvFile } from '@/lib/api/run-import';
+import { importCsvFile } from '@/lib/services/imports/csv-import';
 import { ImportRefusal } from '@/lib/import/errors';
 import { AppError } from '@/lib/errors';
 import { createWorkspaceWith } from '../support/users';

@@ -9,7 +9,7 @@ import * as v1ImportsRoute from '@/app/api/v1/imports/route';
 import * as templateRoute from '@/app/api/workspaces/[workspaceId]/imports/templates/[kind]/route';
 import * as referencesRoute from '@/app/api/workspaces/[workspaceId]/imports/references/route';
 import { createApiToken } from '@/app/(app)/w/[workspace]/settings/tokens/actions';
-import { whenRecomputeIdle } from '@/lib/benchmark/recompute-queue';
+import { whenRecomputeIdle } from '@/lib/services/benchmarks/recompute-queue';
 import { dosQuery } from '@/lib/import/dos-format';
 import { dosTemplateCsv } from '@/lib/import/dos-template';
 import { callAction } from '../support/actions';

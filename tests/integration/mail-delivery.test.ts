@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { mailOutbox } from '@/db/schema';
 import { claimDueMail, enqueueMail } from '@/db/queries/mail';
-import { deliverDueMail, sendOne, type DeliveryConfig } from '@/lib/mail/deliver';
+import { deliverDueMail, sendOne, type DeliveryConfig } from '@/lib/services/mail/deliver';
 import { startFakeResend, type FakeResend } from '@/lib/mail/fake-resend-server';
 
 let fake: FakeResend;

@@ -1,7 +1,7 @@
 /** A small benchmark for the deck and discussion tests (invented values, for tests only). */
 import { createBenchmarkAction } from '@/app/(app)/w/[workspace]/benchmarks/actions';
 import { getRevision } from '@/db/queries/revisions';
-import { whenRecomputeIdle } from '@/lib/benchmark/recompute-queue';
+import { whenRecomputeIdle } from '@/lib/services/benchmarks/recompute-queue';
 import { signInAs } from '@/tests/support/users';
 import { addMaterial, addMeasurement, addMethod, addModeSet, addSource, formData } from './benchmark-support';
 

@@ -13,7 +13,7 @@ import { callAction } from '../support/actions';
 import { createWorkspaceWith, signInAs } from '../support/users';
 
 const { scheduled } = vi.hoisted(() => ({ scheduled: [] as Array<{ workspaceId: string; cause: unknown }> }));
-vi.mock('@/lib/benchmark/recompute-queue', () => ({
+vi.mock('@/lib/services/benchmarks/recompute-queue', () => ({
   scheduleRecomputeForWorkspace: (workspaceId: string, cause: unknown) => scheduled.push({ workspaceId, cause }),
 }));
 

@@ -1,7 +1,7 @@
 import { describe, expect, it, vi } from 'vitest';
 
 vi.mock('server-only', () => ({}));
-const { backoffMs } = await import('@/lib/mail/deliver');
+const { backoffMs } = await import('@/lib/services/mail/deliver');
 
 describe('mail back-off', () => {
   it('doubles from 2 s and caps at 10 minutes', () => {

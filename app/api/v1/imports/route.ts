@@ -4,9 +4,9 @@ import { AppError } from '@/lib/errors';
 import { apiRoute } from '@/lib/api/handler';
 import { importMaxBytes } from '@/lib/api/import-limit';
 import { listRoute } from '@/lib/api/resources';
-import { importJsonBody, importCsvFile } from '@/lib/api/run-import';
+import { importJsonBody, importCsvFile } from '@/lib/services/imports/csv-import';
 import { parseDosQuery } from '@/lib/import/dos-format';
-import { importDosFile } from '@/lib/import/dos-run';
+import { importDosFile } from '@/lib/services/imports/dos-import';
 import { importKindQuerySchema, importSummarySchema } from '@/lib/api/schemas';
 import { limitedBody, readLimitedBody } from '@/lib/stream-limit';
 

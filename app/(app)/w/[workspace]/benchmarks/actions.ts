@@ -4,7 +4,7 @@ import { workspaceAction } from '@/lib/action';
 import { AppError } from '@/lib/errors';
 import { createBenchmark, requireBenchmark, updateBenchmark } from '@/db/queries/benchmarks';
 import { createDecision, createPin, revertDecision, revokePin } from '@/db/queries/decisions';
-import { scheduleRecompute } from '@/lib/benchmark/recompute-queue';
+import { scheduleRecompute } from '@/lib/services/benchmarks/recompute-queue';
 import {
   benchmarkFormSchema,
   benchmarkIdSchema,

@@ -5,7 +5,7 @@ import { roleCan } from '@/lib/permissions';
 import { count } from '@/lib/format';
 import { undoVerdict } from '@/lib/import/undo-rule';
 import { undoImport } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
+import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import { undoImportSchema } from './schemas';
 
 /**

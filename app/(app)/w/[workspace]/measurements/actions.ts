@@ -5,7 +5,7 @@ import { AppError } from '@/lib/errors';
 import { roleCan } from '@/lib/permissions';
 import { ImportRefusal } from '@/lib/import/errors';
 import { ENTRY_NOUN, entryFieldErrors, singleEntrySchema } from '@/lib/import/single-entry';
-import { commitSingleEntry } from '@/lib/import/single-entry-run';
+import { commitSingleEntry } from '@/lib/services/imports/single-entry';
 
 /** One measured peak (or entropy) or one computed mode, saved as a one-row import. */
 export const createSingleEntryAction = workspaceAction('imports:create', singleEntrySchema, async (input, ctx) => {

@@ -1,6 +1,6 @@
 'use server';
 import { revalidatePath } from 'next/cache';
-import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
+import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import { workspaceAction } from '@/lib/action';
 import { conflictAsFieldError } from '@/lib/catalog/action-state';
 import { createMethod, restoreMethod, retractMethod, updateMethod } from '@/db/queries/methods';

@@ -2,7 +2,7 @@ import { notFound } from 'next/navigation';
 import { requirePageMember } from '@/lib/session';
 import { getBenchmark } from '@/db/queries/benchmarks';
 import { getRevision } from '@/db/queries/revisions';
-import { recomputeState } from '@/lib/benchmark/recompute-queue';
+import { recomputeState } from '@/lib/services/benchmarks/recompute-queue';
 import { BenchmarkView } from '../_components/benchmark-view';
 import { BenchmarkWatch } from '@/components/watch/benchmark-watch';
 

@@ -1,7 +1,7 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
-import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
+import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import { updateQualityThresholds } from '@/db/queries/settings';
 import { qualityThresholdsSchema } from './schemas';
 

@@ -2,7 +2,7 @@ import { workspaceRoute } from '@/lib/route';
 import { AppError } from '@/lib/errors';
 import { requireBenchmark } from '@/db/queries/benchmarks';
 import { getRevision } from '@/db/queries/revisions';
-import { recomputeState } from '@/lib/benchmark/recompute-queue';
+import { recomputeState } from '@/lib/services/benchmarks/recompute-queue';
 import { benchmarkRouteParams, revisionParam } from '@/lib/benchmark/route-params';
 import { statisticsPayload } from '@/lib/benchmark/statistics-payload';
 

@@ -8,6 +8,7 @@ import 'server-only';
  * watcher × revision means nothing is sent twice.
  */
 import { z } from 'zod';
+import { announceBenchmark, sendDueDigests } from './announce';
 
 const debounceSchema = z.coerce
   .number({ message: 'ALERT_DEBOUNCE_MS must be a number of milliseconds.' })
@@ -43,8 +44,7 @@ function run(key: string, job: Pending, workspaceId: string, benchmarkId: string
     job.again = true;
     return;
   }
-  job.running = import('./announce')
-    .then(({ announceBenchmark }) => announceBenchmark(workspaceId, benchmarkId))
+  job.running = announceBenchmark(workspaceId, benchmarkId)
     .then(() => undefined)
     .catch((error: unknown) => console.error(`[alerts] benchmark ${benchmarkId}: announcing failed`, error))
     .finally(() => {
@@ -93,8 +93,7 @@ const DIGEST_CHECK_MS = 15 * 60_000;
 export function startDigestTimer(): void {
   if (store.ledgerDigestTimer) return;
   const tick = () =>
-    void import('./announce')
-      .then(({ sendDueDigests }) => sendDueDigests(new Date()))
+    void sendDueDigests(new Date())
       .catch((error: unknown) => console.error('[alerts] digest pass failed', error));
   store.ledgerDigestTimer = setInterval(tick, DIGEST_CHECK_MS);
   store.ledgerDigestTimer.unref?.();

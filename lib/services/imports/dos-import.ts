@@ -2,10 +2,10 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import { commitDosImport, type DosImportOutcome } from '@/db/queries/dos-import';
 import type { ImportActor } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
-import { StrictUtf8Decoder } from './decode';
-import { DosFileReader } from './dos-parse';
-import { ImportRefusal } from './errors';
+import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
+import { StrictUtf8Decoder } from '@/lib/import/decode';
+import { DosFileReader } from '@/lib/import/dos-parse';
+import { ImportRefusal } from '@/lib/import/errors';
 
 export interface DosImportInput {
   workspaceId: string;

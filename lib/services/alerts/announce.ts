@@ -15,11 +15,11 @@ import {
   type RevisionStep,
 } from '@/db/queries/alerts';
 import { activeDigestWatches, activeWatchesOf, type ActiveWatch } from '@/db/queries/watches';
-import { alertMail, digestMail, type AlertContent } from './alert-mail';
-import { attributeCauses, causeLine, summariseCauses } from './causes';
-import { describeReason, summarizeShift, type ShiftSummary } from './shift-summary';
-import { effectiveThresholds, readWatchThresholds } from './thresholds';
-import { signUnsubscribeToken } from './unsubscribe-token';
+import { alertMail, digestMail, type AlertContent } from '@/lib/alerts/alert-mail';
+import { attributeCauses, causeLine, summariseCauses } from '@/lib/alerts/causes';
+import { describeReason, summarizeShift, type ShiftSummary } from '@/lib/alerts/shift-summary';
+import { effectiveThresholds, readWatchThresholds } from '@/lib/alerts/thresholds';
+import { signUnsubscribeToken } from '@/lib/alerts/unsubscribe-token';
 
 /** Every cause of the steps between the baseline and the target, in words with its share (causes.ts). */
 async function describeCauses(w: ActiveWatch, baseline: AlertRevision | null, target: AlertRevision, steps: RevisionStep[]) {

@@ -1,9 +1,9 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
 import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
-import { entryName, entryRow, type SingleEntryInput } from './single-entry';
-import { jsonTable } from './table';
+import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
+import { entryName, entryRow, type SingleEntryInput } from '@/lib/import/single-entry';
+import { jsonTable } from '@/lib/import/table';
 
 /**
  * Commits one typed entry as a one-row import (validated by validateRow inside

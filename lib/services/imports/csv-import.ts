@@ -6,14 +6,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { once } from 'node:events';
 import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/benchmark/recompute-queue';
+import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import type { ImportableKind } from '@/lib/import/columns';
 import { decodeUtf8Strict } from '@/lib/import/decode';
 import { ImportRefusal, type RowError } from '@/lib/import/errors';
 import type { ColumnMapping } from '@/lib/import/header';
 import { jsonTable, openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
-import { importRequestSchema } from './schemas';
+import { importRequestSchema } from '@/lib/api/schemas';
 
 const READ_CHUNK_BYTES = 1 << 20;
 

@@ -13,7 +13,8 @@ import 'server-only';
  * `recomputeState` tells the page that a newer revision is being computed.
  */
 import { listBenchmarkIds } from '@/db/queries/benchmarks';
-import { recomputeBenchmark, type RecomputeCause } from '@/db/queries/revisions';
+import type { RecomputeCause } from '@/lib/benchmark/revision-record';
+import { recomputeBenchmark } from './recompute';
 
 export type RecomputeState = 'idle' | 'queued' | 'running';
 
