@@ -1,6 +1,6 @@
 import Link from 'next/link';
 import { Panel } from '@/components/ui/panel';
-import type { MethodQuality } from './material-quality';
+import type { MethodQuality } from '@/lib/benchmark/material-quality';
 
 const SEVERITY_CLASS = { error: 'bg-bad-soft text-bad', warning: 'bg-warn-soft text-warn' } as const;
 

@@ -90,7 +90,7 @@ function parseDefinition(input: BenchmarkDefinitionInput): BenchmarkDefinition {
 
 /**
  * Creates a benchmark (no request context needed: the seed calls it with an explicit
- * workspace and actor). It computes nothing: call recomputeBenchmark or scheduleRecompute.
+ * workspace and actor). It computes nothing: the benchmark services report the change.
  */
 export async function createBenchmark(workspaceId: string, actor: Actor, input: BenchmarkDefinitionInput): Promise<{ id: string }> {
   const def = parseDefinition(input);

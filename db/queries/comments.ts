@@ -3,11 +3,10 @@ import { and, asc, desc, eq, gte, inArray, isNotNull, isNull, lt } from 'drizzle
 import { db, type Executor } from '@/db/client';
 import { benchmark, comment, commentThread, decision, material, measurement, method, organization, revision, THREAD_SUBJECTS, user } from '@/db/schema';
 import { AppError } from '@/lib/errors';
-import { resolveMentions } from '@/lib/discussion/mentions';
-import { mentionMail } from '@/lib/discussion/mention-mail';
+import { COMMENT_MAX_CHARS, normaliseCommentBody } from '@/lib/discussion/mentions';
+import type { NewMail } from '@/db/schema/mail';
 import { writeAudit, type Actor } from './audit';
 import { enqueueMail } from './mail';
-import { listMembers } from './workspaces';
 
 export type ThreadSubjectKind = (typeof THREAD_SUBJECTS)[number];
 
@@ -230,24 +229,21 @@ export interface PostCommentInput {
   url: string;
 }
 
-export const COMMENT_MAX_CHARS = 5000;
 
 /**
  * Adds a comment (opening its thread if needed) and, in the same transaction,
- * one mail per member it mentions (the author and non-members excepted).
+ * the mails `outbox` composes for it (the discussion service's mention mails),
+ * so a comment is never stored without its notifications or the reverse.
  */
-export async function postComment(
+export async function insertComment(
   workspaceId: string,
-  author: { userId: string; name: string },
+  author: { userId: string },
   input: PostCommentInput,
-): Promise<{ threadId: string; commentId: string; mentioned: string[] }> {
-  const body = input.body.replace(/\r\n?/g, '\n').trim();
+  outbox: (posted: { commentId: string; body: string; subjectText: string }) => NewMail[] = () => [],
+): Promise<{ threadId: string; commentId: string }> {
+  const body = normaliseCommentBody(input.body);
   if (!body) throw new AppError('bad-request', 'Write something first.', [{ path: 'body' }]);
   if (body.length > COMMENT_MAX_CHARS) throw new AppError('bad-request', `A comment has at most ${COMMENT_MAX_CHARS} characters (this one has ${body.length}).`, [{ path: 'body' }]);
-  const [members, ws] = await Promise.all([
-    listMembers(workspaceId),
-    db.select({ name: organization.name }).from(organization).where(eq(organization.id, workspaceId)).limit(1),
-  ]);
   return db.transaction(async (tx) => {
     let threadId: string;
     let subject: ThreadSubject;
@@ -271,29 +267,15 @@ export async function postComment(
     }
     const subjectText = await describeSubject(workspaceId, { ...subject, benchmarkId: null }, tx).catch(() => subject.kind as string);
     const [row] = await tx.insert(comment).values({ workspaceId, threadId, authorId: author.userId, body }).returning({ id: comment.id });
-    const mentioned = resolveMentions(
-      body,
-      members.map((m) => ({ userId: m.userId, name: m.name, email: m.email })),
-    ).filter((m) => m.userId !== author.userId);
-    for (const m of mentioned) {
-      await enqueueMail(
-        tx,
-        mentionMail({
-          to: m.email,
-          recipientName: m.name,
-          authorName: author.name,
-          workspaceName: ws[0]?.name ?? 'your workspace',
-          subject: subjectText,
-          body,
-          url: input.url,
-          commentId: row.id,
-          userId: m.userId,
-        }),
-        workspaceId,
-      );
-    }
-    return { threadId, commentId: row.id, mentioned: mentioned.map((m) => m.userId) };
+    for (const mail of outbox({ commentId: row.id, body, subjectText })) await enqueueMail(tx, mail, workspaceId);
+    return { threadId, commentId: row.id };
   });
+}
+
+/** The workspace's display name, for mails. */
+export async function workspaceName(workspaceId: string): Promise<string | null> {
+  const rows = await db.select({ name: organization.name }).from(organization).where(eq(organization.id, workspaceId)).limit(1);
+  return rows[0]?.name ?? null;
 }
 
 /** Resolves (or reopens) a thread; audited. */

@@ -3,7 +3,7 @@ import { and, asc, count, desc, eq, gt, lt, max } from 'drizzle-orm';
 import { db, type Executor } from '@/db/client';
 import { benchmark, deck, deckView, material, revision, user } from '@/db/schema';
 import { AppError } from '@/lib/errors';
-import { readFilters, type ViewFilters, type ViewKind } from '@/components/decks/view-kinds';
+import { readFilters, type ViewFilters, type ViewKind } from '@/lib/decks/view-kinds';
 import { writeAudit, type Actor } from './audit';
 
 export async function listDecks(workspaceId: string) {

@@ -55,3 +55,10 @@ export function resolveMentions<M extends MentionCandidate>(body: string, member
   }
   return out;
 }
+
+export const COMMENT_MAX_CHARS = 5000;
+
+/** A comment as stored: line endings made \n, outer whitespace trimmed. */
+export function normaliseCommentBody(body: string): string {
+  return body.replace(/\r\n?/g, '\n').trim();
+}

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { auditLog, commentThread, decision, pairPin } from '@/db/schema';
-import { pinFromThreadAction, postCommentAction } from '@/components/discussion/actions';
+import { pinFromThreadAction, postCommentAction } from '@/app/(app)/w/[workspace]/_discussion/actions';
 import { listSubjectThreads } from '@/db/queries/comments';
 import { listPins } from '@/db/queries/decisions';
 import { getRevision } from '@/db/queries/revisions';

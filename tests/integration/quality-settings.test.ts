@@ -7,14 +7,16 @@ import { getMaterialValues } from '@/db/queries/material-values';
 import { getQualityThresholds } from '@/db/queries/settings';
 import { DEFAULT_QUALITY_THRESHOLDS } from '@/lib/science';
 import { updateQualityThresholdsAction } from '@/app/(app)/w/[workspace]/settings/quality/actions';
-import { loadMaterialQuality } from '@/components/quality/load-material-quality';
+import { loadMaterialQuality } from '@/app/(app)/w/[workspace]/materials/_components/load-material-quality';
 import { QualityFlags } from '@/components/quality/quality-flags';
 import { callAction } from '../support/actions';
 import { createWorkspaceWith, signInAs } from '../support/users';
 
 const { scheduled } = vi.hoisted(() => ({ scheduled: [] as Array<{ workspaceId: string; cause: unknown }> }));
 vi.mock('@/lib/services/benchmarks/recompute-queue', () => ({
-  scheduleRecomputeForWorkspace: (workspaceId: string, cause: unknown) => scheduled.push({ workspaceId, cause }),
+  scheduleRecompute: (workspaceId: string, benchmarkIds: string[] | undefined, cause: unknown) => {
+    if (benchmarkIds === undefined) scheduled.push({ workspaceId, cause });
+  },
 }));
 
 let ws: Awaited<ReturnType<typeof createWorkspaceWith>>;

@@ -97,11 +97,6 @@ export function scheduleRecompute(
   }
 }
 
-/** For the import pipeline, after a commit or an undo: every benchmark of the workspace. */
-export function scheduleRecomputeForWorkspace(workspaceId: string, cause: RecomputeCause): void {
-  scheduleRecompute(workspaceId, undefined, cause);
-}
-
 export function recomputeState(workspaceId: string, benchmarkId: string): RecomputeState {
   const job = jobs.get(key(workspaceId, benchmarkId));
   if (!job) return 'idle';

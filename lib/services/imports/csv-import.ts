@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { once } from 'node:events';
 import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
+import { dataChanged } from '@/lib/services/data-changed';
 import type { ImportableKind } from '@/lib/import/columns';
 import { decodeUtf8Strict } from '@/lib/import/decode';
 import { ImportRefusal, type RowError } from '@/lib/import/errors';
@@ -124,6 +124,6 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
 
 /** New rows may move every benchmark of the workspace: recompute them in the background, never blocking the import. */
 function recomputeAfter(workspaceId: string, actor: ImportActor, outcome: ImportOutcome): ImportOutcome {
-  if (outcome.insertedCount > 0) scheduleRecomputeForWorkspace(workspaceId, { trigger: 'import', importId: outcome.importId, userId: actor.userId });
+  if (outcome.insertedCount > 0) dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
   return outcome;
 }

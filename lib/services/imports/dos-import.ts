@@ -2,7 +2,7 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import { commitDosImport, type DosImportOutcome } from '@/db/queries/dos-import';
 import type { ImportActor } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
+import { dataChanged } from '@/lib/services/data-changed';
 import { StrictUtf8Decoder } from '@/lib/import/decode';
 import { DosFileReader } from '@/lib/import/dos-parse';
 import { ImportRefusal } from '@/lib/import/errors';
@@ -44,7 +44,7 @@ export async function importDosFile(input: DosImportInput): Promise<DosImportOut
     temperatures: input.temperatures,
   });
   if (outcome.insertedCount > 0) {
-    scheduleRecomputeForWorkspace(input.workspaceId, { trigger: 'import', importId: outcome.importId, userId: input.actor.userId });
+    dataChanged(input.workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: input.actor.userId } });
   }
   return outcome;
 }

@@ -1,7 +1,7 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
 import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
+import { dataChanged } from '@/lib/services/data-changed';
 import { entryName, entryRow, type SingleEntryInput } from '@/lib/import/single-entry';
 import { jsonTable } from '@/lib/import/table';
 
@@ -21,6 +21,6 @@ export async function commitSingleEntry(workspaceId: string, actor: ImportActor,
     file: { kind: input.kind, fileName: entryName(input), sha256, byteCount: Buffer.byteLength(body), via: 'form' },
     table: jsonTable(input.kind, [row]),
   });
-  if (outcome.insertedCount > 0) scheduleRecomputeForWorkspace(workspaceId, { trigger: 'import', importId: outcome.importId, userId: actor.userId });
+  if (outcome.insertedCount > 0) dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
   return outcome;
 }

@@ -2,9 +2,9 @@
 import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
 import { AppError } from '@/lib/errors';
-import { createBenchmark, requireBenchmark, updateBenchmark } from '@/db/queries/benchmarks';
-import { createDecision, createPin, revertDecision, revokePin } from '@/db/queries/decisions';
-import { scheduleRecompute } from '@/lib/services/benchmarks/recompute-queue';
+import { requireBenchmark } from '@/db/queries/benchmarks';
+import { createBenchmark, requestRecompute, updateBenchmark } from '@/lib/services/benchmarks/definitions';
+import { decide, pin, revertDecision, revokePin } from '@/lib/services/benchmarks/decisions';
 import {
   benchmarkFormSchema,
   benchmarkIdSchema,
@@ -29,7 +29,6 @@ function fieldErrorsOf(e: AppError): Record<string, string[]> | undefined {
 export const createBenchmarkAction = workspaceAction('benchmarks:create', benchmarkFormSchema, async (input, ctx) => {
   try {
     const { id } = await createBenchmark(ctx.workspace.id, { userId: ctx.user.id }, definitionFromForm(input));
-    scheduleRecompute(ctx.workspace.id, [id], { trigger: 'benchmark-created', userId: ctx.user.id }, 0);
     revalidatePath(`/w/${ctx.workspace.slug}/benchmarks`);
     return { ok: true, message: 'Benchmark created; its first revision is being computed.', data: { id, href: `/w/${ctx.workspace.slug}/benchmarks/${id}` } };
   } catch (e) {
@@ -45,20 +44,17 @@ export const updateBenchmarkAction = workspaceAction('benchmarks:update', editBe
     if (e instanceof AppError && e.code === 'bad-request') return { ok: false, code: e.code, message: e.message, fieldErrors: fieldErrorsOf(e) };
     throw e;
   }
-  scheduleRecompute(ctx.workspace.id, [input.benchmarkId], { trigger: 'benchmark-updated', userId: ctx.user.id }, 0);
   revalidatePath(`/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}`);
   return { ok: true, message: 'Saved; a new revision is being computed.', data: { href: `/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}` } };
 });
 
 export const recomputeBenchmarkAction = workspaceAction('benchmarks:update', benchmarkIdSchema, async (input, ctx) => {
-  await requireBenchmark(ctx.workspace.id, input.benchmarkId);
-  scheduleRecompute(ctx.workspace.id, [input.benchmarkId], { trigger: 'manual', userId: ctx.user.id }, 0);
+  await requestRecompute(ctx.workspace.id, { userId: ctx.user.id }, input.benchmarkId);
   return { ok: true, message: 'Recomputation queued; a revision is stored only if something changed.' };
 });
 
 export const decideAction = workspaceAction('decisions:create', decisionFormSchema, async (input, ctx) => {
-  const { id } = await createDecision(ctx.workspace.id, { userId: ctx.user.id }, input);
-  scheduleRecompute(ctx.workspace.id, [input.benchmarkId], { trigger: 'decision', decisionId: id, userId: ctx.user.id }, 0);
+  const { id } = await decide(ctx.workspace.id, { userId: ctx.user.id }, input);
   revalidatePath(`/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}`);
   const what = input.kind === 'keep' ? 'Kept' : input.kind === 'exclude-pair' ? 'Pair excluded' : 'Measurement excluded';
   return { ok: true, message: `${what}; the next revision is being computed.`, data: { id } };
@@ -66,17 +62,14 @@ export const decideAction = workspaceAction('decisions:create', decisionFormSche
 
 export const revertDecisionAction = workspaceAction('decisions:revert', revertDecisionFormSchema, async (input, ctx) => {
   await requireBenchmark(ctx.workspace.id, input.benchmarkId);
-  const { benchmarkId } = await revertDecision(ctx.workspace.id, { userId: ctx.user.id }, input.decisionId, input.reason);
-  scheduleRecompute(ctx.workspace.id, benchmarkId ? [benchmarkId] : undefined, { trigger: 'decision', decisionId: input.decisionId, userId: ctx.user.id }, 0);
+  await revertDecision(ctx.workspace.id, { userId: ctx.user.id }, input.decisionId, input.reason);
   revalidatePath(`/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}`);
   return { ok: true, message: 'Decision reverted; the next revision is being computed.' };
 });
 
 export const pinAction = workspaceAction('decisions:create', pinFormSchema, async (input, ctx) => {
   await requireBenchmark(ctx.workspace.id, input.benchmarkId);
-  const { id } = await createPin(ctx.workspace.id, { userId: ctx.user.id }, { ...input, calculationId: input.calculationId ?? null });
-  // Pins belong to the workspace, so every benchmark that pairs this method may change.
-  scheduleRecompute(ctx.workspace.id, undefined, { trigger: 'pin', pinId: id, userId: ctx.user.id }, 0);
+  const { id } = await pin(ctx.workspace.id, { userId: ctx.user.id }, { ...input, calculationId: input.calculationId ?? null });
   revalidatePath(`/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}`);
   return { ok: true, message: input.calculationId ? 'Pairing pinned.' : 'Marked as having no counterpart.', data: { id } };
 });
@@ -84,7 +77,6 @@ export const pinAction = workspaceAction('decisions:create', pinFormSchema, asyn
 export const revokePinAction = workspaceAction('decisions:revert', revokePinFormSchema, async (input, ctx) => {
   await requireBenchmark(ctx.workspace.id, input.benchmarkId);
   await revokePin(ctx.workspace.id, { userId: ctx.user.id }, input.pinId, input.reason);
-  scheduleRecompute(ctx.workspace.id, undefined, { trigger: 'pin', pinId: input.pinId, userId: ctx.user.id }, 0);
   revalidatePath(`/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}`);
   return { ok: true, message: 'Pin removed.' };
 });

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { VIEW_KINDS, viewFiltersSchema } from '@/components/decks/view-kinds';
+import { VIEW_KINDS, viewFiltersSchema } from '@/lib/decks/view-kinds';
 
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 const title = z.string().trim().min(1, 'Give the deck a title.').max(120, 'At most 120 characters.');

@@ -4,8 +4,7 @@ import { workspaceAction } from '@/lib/action';
 import { roleCan } from '@/lib/permissions';
 import { count } from '@/lib/format';
 import { undoVerdict } from '@/lib/import/undo-rule';
-import { undoImport } from '@/db/queries/imports';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
+import { undoImport } from '@/lib/services/imports/undo';
 import { undoImportSchema } from './schemas';
 
 /**
@@ -18,7 +17,6 @@ export const undoImportAction = workspaceAction('imports:create', undoImportSche
     const verdict = undoVerdict({ canUndoAny, canImport: true, userId: ctx.user.id, batch });
     return verdict.allowed ? null : verdict.reason;
   });
-  if (retracted > 0) scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'import-undone', importId: input.importId, userId: ctx.user.id });
   revalidatePath(`/w/${ctx.workspace.slug}/imports`);
   revalidatePath(`/w/${ctx.workspace.slug}/imports/${input.importId}`);
   return { ok: true, message: `Import undone: ${count(retracted)} ${retracted === 1 ? 'row' : 'rows'} retracted.` };

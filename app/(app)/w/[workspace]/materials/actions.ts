@@ -1,9 +1,9 @@
 'use server';
 import { revalidatePath } from 'next/cache';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import { workspaceAction } from '@/lib/action';
 import { conflictAsFieldError } from '@/lib/catalog/action-state';
-import { createMaterial, restoreMaterial, retractMaterial, updateMaterial } from '@/db/queries/materials';
+import { createMaterial } from '@/db/queries/materials';
+import { restoreMaterial, retractMaterial, updateMaterial } from '@/lib/services/catalog/changes';
 import { createMaterialSchema, restoreMaterialSchema, retractMaterialSchema, updateMaterialSchema } from './schemas';
 
 function refresh(slug: string, id?: string) {
@@ -24,7 +24,6 @@ export const createMaterialAction = workspaceAction('materials:create', createMa
 export const updateMaterialAction = workspaceAction('materials:update', updateMaterialSchema, async ({ workspaceId: _w, id, ...input }, ctx) => {
   try {
     await updateMaterial(ctx.workspace.id, { userId: ctx.user.id }, id, input);
-    scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
     refresh(ctx.workspace.slug, id);
     return { ok: true, message: `Material ${input.name} saved.`, data: { id } };
   } catch (e) {
@@ -34,7 +33,6 @@ export const updateMaterialAction = workspaceAction('materials:update', updateMa
 
 export const retractMaterialAction = workspaceAction('materials:retract', retractMaterialSchema, async ({ id, reason }, ctx) => {
   await retractMaterial(ctx.workspace.id, { userId: ctx.user.id }, id, reason);
-  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Material retracted. Its values stay in the database, hidden from lists and benchmarks.', data: { id } };
 });
@@ -42,7 +40,6 @@ export const retractMaterialAction = workspaceAction('materials:retract', retrac
 export const restoreMaterialAction = workspaceAction('materials:retract', restoreMaterialSchema, async ({ id, reason }, ctx) => {
   try {
     await restoreMaterial(ctx.workspace.id, { userId: ctx.user.id }, id, reason ?? null);
-    scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
     refresh(ctx.workspace.slug, id);
     return { ok: true, message: 'Material restored.', data: { id } };
   } catch (e) {

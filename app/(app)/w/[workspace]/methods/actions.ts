@@ -1,9 +1,9 @@
 'use server';
 import { revalidatePath } from 'next/cache';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import { workspaceAction } from '@/lib/action';
 import { conflictAsFieldError } from '@/lib/catalog/action-state';
-import { createMethod, restoreMethod, retractMethod, updateMethod } from '@/db/queries/methods';
+import { createMethod } from '@/db/queries/methods';
+import { restoreMethod, retractMethod, updateMethod } from '@/lib/services/catalog/changes';
 import { createMethodSchema, restoreMethodSchema, retractMethodSchema, updateMethodSchema } from './schemas';
 
 function refresh(slug: string, id?: string) {
@@ -24,7 +24,6 @@ export const createMethodAction = workspaceAction('methods:create', createMethod
 export const updateMethodAction = workspaceAction('methods:update', updateMethodSchema, async ({ workspaceId: _w, id, ...input }, ctx) => {
   try {
     await updateMethod(ctx.workspace.id, { userId: ctx.user.id }, id, input);
-    scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
     refresh(ctx.workspace.slug, id);
     return { ok: true, message: `Method ${input.label} saved.`, data: { id } };
   } catch (e) {
@@ -34,14 +33,12 @@ export const updateMethodAction = workspaceAction('methods:update', updateMethod
 
 export const retractMethodAction = workspaceAction('methods:retract', retractMethodSchema, async ({ id, reason }, ctx) => {
   await retractMethod(ctx.workspace.id, { userId: ctx.user.id }, id, reason);
-  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Method retracted.', data: { id } };
 });
 
 export const restoreMethodAction = workspaceAction('methods:retract', restoreMethodSchema, async ({ id, reason }, ctx) => {
   await restoreMethod(ctx.workspace.id, { userId: ctx.user.id }, id, reason ?? null);
-  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Method restored.', data: { id } };
 });

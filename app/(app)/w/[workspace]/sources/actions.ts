@@ -1,10 +1,10 @@
 'use server';
 import { revalidatePath } from 'next/cache';
-import { scheduleRecomputeForWorkspace } from '@/lib/services/benchmarks/recompute-queue';
 import { workspaceAction } from '@/lib/action';
 import { conflictAsFieldError } from '@/lib/catalog/action-state';
 import { describeReferenceError, detectFormat, IMPORT_FORMAT_LABELS, parseReferences } from '@/lib/citations/import';
-import { createSource, importSources, mergeSources, restoreSource, retractSource, updateSource } from '@/db/queries/sources';
+import { createSource, importSources } from '@/db/queries/sources';
+import { mergeSources, restoreSource, retractSource, updateSource } from '@/lib/services/catalog/changes';
 import { createSourceSchema, importReferencesSchema, mergeSourcesSchema, restoreSourceSchema, retractSourceSchema, updateSourceSchema } from './schemas';
 
 function refresh(slug: string, id?: string) {
@@ -25,7 +25,6 @@ export const createSourceAction = workspaceAction('sources:create', createSource
 export const updateSourceAction = workspaceAction('sources:update', updateSourceSchema, async ({ workspaceId: _w, id, ...input }, ctx) => {
   try {
     await updateSource(ctx.workspace.id, { userId: ctx.user.id }, id, input);
-    scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
     refresh(ctx.workspace.slug, id);
     return { ok: true, message: `Source ${input.citeKey} saved.`, data: { id } };
   } catch (e) {
@@ -35,14 +34,12 @@ export const updateSourceAction = workspaceAction('sources:update', updateSource
 
 export const retractSourceAction = workspaceAction('sources:retract', retractSourceSchema, async ({ id, reason }, ctx) => {
   await retractSource(ctx.workspace.id, { userId: ctx.user.id }, id, reason);
-  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Source retracted. Its cite key stays reserved.', data: { id } };
 });
 
 export const restoreSourceAction = workspaceAction('sources:retract', restoreSourceSchema, async ({ id, reason }, ctx) => {
   await restoreSource(ctx.workspace.id, { userId: ctx.user.id }, id, reason ?? null);
-  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, id);
   return { ok: true, message: 'Source restored.', data: { id } };
 });
@@ -79,7 +76,6 @@ export const importReferencesAction = workspaceAction('sources:create', importRe
 /** Curators and owners merge two sources that share a DOI: the values move to the kept one. */
 export const mergeSourcesAction = workspaceAction('sources:retract', mergeSourcesSchema, async ({ keepId, mergeId, reason }, ctx) => {
   const { moved } = await mergeSources(ctx.workspace.id, { userId: ctx.user.id }, keepId, mergeId, reason ?? null);
-  scheduleRecomputeForWorkspace(ctx.workspace.id, { trigger: 'data-change', userId: ctx.user.id });
   refresh(ctx.workspace.slug, keepId);
   return { ok: true, message: `Merged: ${moved} value${moved === 1 ? '' : 's'} now cite the kept source.`, data: { keepId, moved } };
 });

@@ -7,8 +7,8 @@ import { hasOverride, readWatchThresholds } from '@/lib/alerts/thresholds';
 import { listMyWatches } from '@/db/queries/watches';
 import { listAlertLog } from '@/db/queries/alerts';
 import { EmptyState, Panel } from '@/components/ui/panel';
-import { WatchSettingsForm } from '@/components/watch/watch-settings-form';
-import { UnwatchButton } from '@/components/watch/unwatch-button';
+import { WatchSettingsForm } from '@/app/(app)/w/[workspace]/watches/_components/watch-settings-form';
+import { UnwatchButton } from '@/app/(app)/w/[workspace]/watches/_components/unwatch-button';
 
 export const metadata: Metadata = { title: 'My watches' };
 

@@ -4,7 +4,7 @@ import { getBenchmark } from '@/db/queries/benchmarks';
 import { getRevision } from '@/db/queries/revisions';
 import { recomputeState } from '@/lib/services/benchmarks/recompute-queue';
 import { BenchmarkView } from '../_components/benchmark-view';
-import { BenchmarkWatch } from '@/components/watch/benchmark-watch';
+import { BenchmarkWatch } from '@/app/(app)/w/[workspace]/watches/_components/benchmark-watch';
 
 export default async function BenchmarkPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
   const { workspace, id } = await params;

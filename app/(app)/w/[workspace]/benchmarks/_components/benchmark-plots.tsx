@@ -7,8 +7,8 @@ import { blandAltmanText, histogramText, parityText, residualText } from '@/comp
 import { inputClass } from '@/components/ui/field';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 import { usePairs } from './use-benchmark-data';
-import { AddToDeck } from '@/components/decks/add-to-deck';
-import { PLOT_KINDS } from '@/components/decks/view-kinds';
+import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
+import { PLOT_KINDS } from '@/lib/decks/view-kinds';
 
 export interface PlotMethod {
   methodId: string;

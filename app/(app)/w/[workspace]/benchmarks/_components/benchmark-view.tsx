@@ -22,8 +22,8 @@ import { PairDecisionForm, RecomputeButton, RevertForm } from './decision-forms'
 import { RecomputeWatcher } from './recompute-watcher';
 import { QueryProvider } from './query-provider';
 import { fmt, signed, when } from './format';
-import { AddToDeck } from '@/components/decks/add-to-deck';
-import { DiscussButton } from '@/components/discussion/discuss-button';
+import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
+import { DiscussButton } from '@/app/(app)/w/[workspace]/_discussion/discuss-button';
 import { listBenchmarkThreads, threadsBySubject } from '@/db/queries/comments';
 import { ScrollRegion } from '@/components/ui/scroll-region';
 

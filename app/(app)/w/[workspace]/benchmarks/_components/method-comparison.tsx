@@ -6,7 +6,7 @@ import { pairedScatterSpec, rendererFor, type PairedPoint } from '@/components/c
 import { inputClass } from '@/components/ui/field';
 import type { ComparisonRecord } from '@/lib/benchmark/types';
 import { usePairs } from './use-benchmark-data';
-import { AddToDeck } from '@/components/decks/add-to-deck';
+import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
 
 function measurementKey(key: string): string {
   return key.slice(key.indexOf('|') + 1);

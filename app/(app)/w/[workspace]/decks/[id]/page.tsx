@@ -4,7 +4,7 @@ import { notFound } from 'next/navigation';
 import { requirePageMember } from '@/lib/session';
 import { roleCan } from '@/lib/permissions';
 import { describeProblem, getDeck } from '@/db/queries/decks';
-import { VIEW_KIND_LABELS } from '@/components/decks/view-kinds';
+import { VIEW_KIND_LABELS } from '@/lib/decks/view-kinds';
 import { buttonClass } from '@/components/ui/button';
 import { EmptyState, Panel } from '@/components/ui/panel';
 import { utcMinute } from '@/lib/format';

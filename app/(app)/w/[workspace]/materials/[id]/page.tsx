@@ -13,9 +13,9 @@ import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMaterialAction, retractMaterialAction } from '../actions';
 import { MaterialValuesSection } from '../_components/material-values';
 import { MaterialDiscussion, loadMaterialThreads } from '../_components/material-discussion';
-import { AddToDeck } from '@/components/decks/add-to-deck';
+import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
 import { QualityFlags } from '@/components/quality/quality-flags';
-import { loadMaterialQuality } from '@/components/quality/load-material-quality';
+import { loadMaterialQuality } from '@/app/(app)/w/[workspace]/materials/_components/load-material-quality';
 
 export const metadata: Metadata = { title: 'Material' };
 

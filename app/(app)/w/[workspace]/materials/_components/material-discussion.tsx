@@ -1,7 +1,7 @@
 import type { ThreadView } from '@/db/queries/comments';
 import { listSubjectThreads } from '@/db/queries/comments';
-import { DiscussButton } from '@/components/discussion/discuss-button';
-import type { DiscussionPermissions } from '@/components/discussion/thread-panel';
+import { DiscussButton } from '@/app/(app)/w/[workspace]/_discussion/discuss-button';
+import type { DiscussionPermissions } from '@/app/(app)/w/[workspace]/_discussion/thread-panel';
 import { Panel } from '@/components/ui/panel';
 
 /** Subject id of a material's calculations under one method (the format comments.ts and thread-url.ts read). */

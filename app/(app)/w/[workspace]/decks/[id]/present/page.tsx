@@ -2,9 +2,9 @@ import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { requirePageMember } from '@/lib/session';
 import { getDeck } from '@/db/queries/decks';
-import { DeckSlide } from '@/components/decks/deck-slide';
-import { deckSlides } from '@/components/decks/slide-parts';
-import { Presenter } from '@/components/decks/presenter';
+import { DeckSlide } from '@/app/(app)/w/[workspace]/decks/_components/deck-slide';
+import { deckSlides } from '@/app/(app)/w/[workspace]/decks/_components/slide-parts';
+import { Presenter } from '@/app/(app)/w/[workspace]/decks/_components/presenter';
 
 export const metadata: Metadata = { title: 'Present' };
 

@@ -4,10 +4,10 @@ import { notFound } from 'next/navigation';
 import { requirePageMember } from '@/lib/session';
 import { utcMinute } from '@/lib/format';
 import { getDeck } from '@/db/queries/decks';
-import { DeckSlide } from '@/components/decks/deck-slide';
-import { deckSlides } from '@/components/decks/slide-parts';
-import { PrintButton } from '@/components/decks/print-button';
-import { VIEW_KIND_LABELS } from '@/components/decks/view-kinds';
+import { DeckSlide } from '@/app/(app)/w/[workspace]/decks/_components/deck-slide';
+import { deckSlides } from '@/app/(app)/w/[workspace]/decks/_components/slide-parts';
+import { PrintButton } from '@/app/(app)/w/[workspace]/decks/_components/print-button';
+import { VIEW_KIND_LABELS } from '@/lib/decks/view-kinds';
 
 export const metadata: Metadata = { title: 'Print deck' };
 

@@ -5,10 +5,11 @@ import { workspaceAction } from '@/lib/action';
 import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { THREAD_SUBJECTS } from '@/db/schema';
-import { getThread, parsePairKey, postComment, setThreadResolved, COMMENT_MAX_CHARS } from '@/db/queries/comments';
-import { createDecision, createPin } from '@/db/queries/decisions';
+import { getThread, parsePairKey, setThreadResolved } from '@/db/queries/comments';
+import { COMMENT_MAX_CHARS } from '@/lib/discussion/mentions';
+import { postComment } from '@/lib/services/discussion/post-comment';
 import { getRevision } from '@/db/queries/revisions';
-import { scheduleRecompute } from '@/lib/services/benchmarks/recompute-queue';
+import { decide, pin } from '@/lib/services/benchmarks/decisions';
 import { threadPath } from '@/lib/discussion/thread-url';
 
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
@@ -91,8 +92,7 @@ export const decideFromThreadAction = workspaceAction('decisions:create', decide
   } else {
     throw new AppError('bad-request', 'Decisions are recorded on pairs and measurements.');
   }
-  const { id } = await createDecision(ctx.workspace.id, { userId: ctx.user.id }, { benchmarkId: thread.benchmarkId, kind: input.kind, measurementId, methodId, reason: input.reason, threadId: thread.id });
-  scheduleRecompute(ctx.workspace.id, [thread.benchmarkId], { trigger: 'decision', decisionId: id, userId: ctx.user.id }, 0);
+  const { id } = await decide(ctx.workspace.id, { userId: ctx.user.id }, { benchmarkId: thread.benchmarkId, kind: input.kind, measurementId, methodId, reason: input.reason, threadId: thread.id });
   refresh(ctx.workspace.slug, thread.benchmarkId);
   return { ok: true, message: 'Decision recorded; the next revision is being computed.', data: { id } };
 });
@@ -121,7 +121,7 @@ export const pinFromThreadAction = workspaceAction('decisions:create', pinSchema
   const pair = rev?.statistics.pairs.find((p) => p.key === thread.subjectId);
   const calculationId = pair?.calculationIds[0] ?? null;
   if (!calculationId) throw new AppError('conflict', 'This pair has no calculation in the latest revision; pin it from the benchmark page.', [{ path: 'kind' }]);
-  const { id } = await createPin(
+  const { id } = await pin(
     ctx.workspace.id,
     { userId: ctx.user.id },
     {
@@ -131,8 +131,6 @@ export const pinFromThreadAction = workspaceAction('decisions:create', pinSchema
       reason: `${input.reason} (from discussion ${thread.id})`,
     },
   );
-  // Pins belong to the workspace, so every benchmark that pairs this method may change.
-  scheduleRecompute(ctx.workspace.id, undefined, { trigger: 'pin', pinId: id, userId: ctx.user.id }, 0);
   refresh(ctx.workspace.slug, thread.benchmarkId);
   return { ok: true, message: input.kind === 'pin-pairing' ? 'Pairing pinned; the next revision is being computed.' : 'Marked as having no counterpart; the next revision is being computed.', data: { id } };
 });

@@ -6,7 +6,7 @@ import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
 import type { ActionState } from '@/lib/action';
 import { decideFromThreadAction, pinFromThreadAction, postCommentAction, resolveThreadAction } from './actions';
-import { CommentBody } from './comment-body';
+import { CommentBody } from '@/components/discussion/comment-body';
 import { useRefreshOnSuccess } from './use-refresh-on-success';
 
 export interface DiscussionSubject {

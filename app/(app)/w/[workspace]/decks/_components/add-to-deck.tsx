@@ -6,7 +6,7 @@ import { buttonClass } from '@/components/ui/button';
 import { inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
-import { VIEW_KIND_LABELS, type ViewFilters, type ViewKind } from './view-kinds';
+import { VIEW_KIND_LABELS, type ViewFilters, type ViewKind } from '@/lib/decks/view-kinds';
 
 type DeckOption = { id: string; title: string; views: number };
 

@@ -5,7 +5,7 @@ import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
 import { blandAltmanText, comparisonText, histogramText, parityText, residualText } from '@/components/charts/benchmark/figure-text';
 import { blandAltmanSpec, errorHistogramSpec, pairedScatterSpec, parityPlotSpec, rendererFor, residualSpec, type PairedPoint } from '@/components/charts/benchmark/specs';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
-import type { ViewFilters } from './view-kinds';
+import type { ViewFilters } from '@/lib/decks/view-kinds';
 
 export type SlidePlotKind = 'parity' | 'histogram' | 'residuals' | 'bland-altman' | 'comparison';
 

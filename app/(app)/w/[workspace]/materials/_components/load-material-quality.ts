@@ -1,7 +1,7 @@
 import 'server-only';
 import type { MaterialValues } from '@/db/queries/material-values';
 import { getMethodGrids, getQualityThresholds } from '@/db/queries/settings';
-import { materialQualityFlags, type MethodQuality } from './material-quality';
+import { materialQualityFlags, type MethodQuality } from '@/lib/benchmark/material-quality';
 
 /** The material page's quality flags: each method's modes with its grids and the workspace's thresholds. */
 export async function loadMaterialQuality(workspaceId: string, material: { id: string; atomsInCell: number | null }, values: MaterialValues): Promise<MethodQuality[]> {

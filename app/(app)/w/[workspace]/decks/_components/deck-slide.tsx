@@ -13,7 +13,7 @@ import { Leaderboard } from '@/app/(app)/w/[workspace]/benchmarks/_components/le
 import { MaterialValuesSection } from '@/app/(app)/w/[workspace]/materials/_components/material-values';
 import { fixed, plain, pValue, signed, trueMinus, utcMinute } from '@/lib/format';
 import { SlidePlot, type SlidePlotKind } from './slide-plot';
-import { PLOT_KINDS, VIEW_KIND_LABELS } from './view-kinds';
+import { PLOT_KINDS, VIEW_KIND_LABELS } from '@/lib/decks/view-kinds';
 import { flaggedPairs, ROWS_PER_SLIDE, type SlideMode } from './slide-parts';
 
 export type { SlideMode } from './slide-parts';
