@@ -3,17 +3,8 @@ import { z } from 'zod';
 import { isAppError } from '@/lib/errors';
 import { requireMember, requireUser, type MemberContext, type SessionUser } from '@/lib/session';
 import type { Permission } from '@/lib/permissions';
+import type { ActionState } from '@/lib/action-state';
 
-/** What every server action returns to its form. */
-export type ActionState = {
-  ok: boolean;
-  message?: string;
-  code?: string;
-  fieldErrors?: Record<string, string[]>;
-  data?: unknown;
-};
-
-export const initialActionState: ActionState = { ok: false };
 
 type ActionFn = (prev: ActionState | undefined, formData: FormData) => Promise<ActionState>;
 

@@ -1,4 +1,4 @@
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 import { Notice } from './notice';
 
 export function FormMessage({ state }: { state: ActionState | undefined }) {

@@ -1,7 +1,7 @@
 'use client';
 import { startTransition, useActionState, useEffect, type FormEvent } from 'react';
 import { useRouter } from 'next/navigation';
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 
 type RecordAction = (prev: ActionState, formData: FormData) => Promise<ActionState>;
 

@@ -15,7 +15,6 @@ const SORTABLE = {
   atomsInCell: material.atomsInCell,
   createdAt: material.createdAt,
 } as const;
-export const MATERIAL_SORT_COLUMNS = Object.keys(SORTABLE) as Array<keyof typeof SORTABLE>;
 
 function listFilter(workspaceId: string, params: ListParams): SQL | undefined {
   const conditions: Array<SQL | undefined> = [eq(material.workspaceId, workspaceId)];

@@ -15,7 +15,6 @@ const SORTABLE = {
   approach: method.approach,
   createdAt: method.createdAt,
 } as const;
-export const METHOD_SORT_COLUMNS = Object.keys(SORTABLE) as Array<keyof typeof SORTABLE>;
 
 function listFilter(workspaceId: string, params: ListParams): SQL | undefined {
   const conditions: Array<SQL | undefined> = [eq(method.workspaceId, workspaceId)];

@@ -17,7 +17,6 @@ const SORTABLE = {
   venue: source.venue,
   createdAt: source.createdAt,
 } as const;
-export const SOURCE_SORT_COLUMNS = Object.keys(SORTABLE) as Array<keyof typeof SORTABLE>;
 
 function listFilter(workspaceId: string, params: ListParams): SQL | undefined {
   const conditions: Array<SQL | undefined> = [eq(source.workspaceId, workspaceId)];

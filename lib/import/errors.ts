@@ -26,6 +26,3 @@ export class ImportRefusal extends Error {
 /** Upper bound on errors kept in one response; the count still covers them all. */
 export const MAX_REPORTED_ERRORS = 10_000;
 
-export function describeRowNumbers(source: 'csv' | 'json'): string {
-  return source === 'csv' ? 'Row numbers count the header as row 1.' : 'Row N is rows[N − 1] of the request body.';
-}

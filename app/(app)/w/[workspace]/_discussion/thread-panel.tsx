@@ -4,7 +4,7 @@ import type { ThreadView } from '@/db/queries/comments';
 import { inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 import { decideFromThreadAction, pinFromThreadAction, postCommentAction, resolveThreadAction } from './actions';
 import { CommentBody } from '@/components/discussion/comment-body';
 import { useRefreshOnSuccess } from './use-refresh-on-success';

@@ -1,7 +1,7 @@
 'use client';
 import { useEffect, useRef } from 'react';
 import { useRouter } from 'next/navigation';
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 
 /** Re-reads the server page after an action succeeded (each new result once), and runs onSuccess. */
 export function useRefreshOnSuccess(state: ActionState, onSuccess?: () => void) {

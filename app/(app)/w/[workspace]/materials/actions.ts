@@ -1,7 +1,7 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
-import { conflictAsFieldError } from '@/lib/catalog/action-state';
+import { conflictAsFieldError } from '@/lib/action-state';
 import { createMaterial } from '@/db/queries/materials';
 import { restoreMaterial, retractMaterial, updateMaterial } from '@/lib/services/catalog/changes';
 import { createMaterialSchema, restoreMaterialSchema, retractMaterialSchema, updateMaterialSchema } from './schemas';

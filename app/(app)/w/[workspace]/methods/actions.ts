@@ -1,7 +1,7 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
-import { conflictAsFieldError } from '@/lib/catalog/action-state';
+import { conflictAsFieldError } from '@/lib/action-state';
 import { createMethod } from '@/db/queries/methods';
 import { restoreMethod, retractMethod, updateMethod } from '@/lib/services/catalog/changes';
 import { createMethodSchema, restoreMethodSchema, retractMethodSchema, updateMethodSchema } from './schemas';

@@ -1,7 +1,7 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
-import { conflictAsFieldError } from '@/lib/catalog/action-state';
+import { conflictAsFieldError } from '@/lib/action-state';
 import { describeReferenceError, detectFormat, IMPORT_FORMAT_LABELS, parseReferences } from '@/lib/citations/import';
 import { createSource, importSources } from '@/db/queries/sources';
 import { mergeSources, restoreSource, retractSource, updateSource } from '@/lib/services/catalog/changes';

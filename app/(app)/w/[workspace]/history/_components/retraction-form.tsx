@@ -1,6 +1,6 @@
 'use client';
 import { startTransition, useActionState } from 'react';
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 import { TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';

@@ -1,7 +1,7 @@
 'use client';
 import Link from 'next/link';
 import { startTransition, useActionState, useEffect, useRef, useState, type FormEvent } from 'react';
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 import type { ImportableKind } from '@/lib/import/columns';
 import { ACTIVITY_VALUES, BRANCH_VALUES, SAMPLE_FORM_VALUES, TECHNIQUE_VALUES } from '@/lib/import/vocabulary';
 import { IMPORTER_UNDO_HOURS } from '@/lib/import/undo-rule';

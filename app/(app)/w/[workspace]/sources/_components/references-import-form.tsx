@@ -1,6 +1,6 @@
 'use client';
 import { startTransition, useActionState, useRef } from 'react';
-import type { ActionState } from '@/lib/action';
+import type { ActionState } from '@/lib/action-state';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';
 import { inputClass } from '@/components/ui/field';

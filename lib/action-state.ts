@@ -1,5 +1,13 @@
 import { isAppError } from '@/lib/errors';
-import type { ActionState } from '@/lib/action';
+
+/** What every server action returns to its form. */
+export type ActionState = {
+  ok: boolean;
+  message?: string;
+  code?: string;
+  fieldErrors?: Record<string, string[]>;
+  data?: unknown;
+};
 
 /**
  * Query functions report a taken name as AppError('conflict', …, { field }) so the
