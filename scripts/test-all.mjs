@@ -1,4 +1,4 @@
-// npm test: lint, typecheck, unit, integration, build, end-to-end — stops at the first failure.
+// npm test: lint, layers, typecheck, unit, integration, build, end-to-end — stops at the first failure.
 import { run } from './run.mjs';
 
 const buildEnv = {
@@ -12,6 +12,7 @@ const buildEnv = {
 
 const steps = [
   ['lint', 'node', ['node_modules/eslint/bin/eslint.js', '.', '--max-warnings=0']],
+  ['layers', 'node', ['scripts/check-layers.mjs']],
   ['typecheck', 'node', ['node_modules/typescript/bin/tsc', '--noEmit']],
   ['unit', 'node', ['node_modules/vitest/vitest.mjs', 'run', '--project', 'unit']],
   ['integration', 'node', ['node_modules/vitest/vitest.mjs', 'run', '--project', 'integration']],

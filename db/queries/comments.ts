@@ -1,14 +1,16 @@
 import 'server-only';
 import { and, asc, desc, eq, gte, inArray, isNotNull, isNull, lt } from 'drizzle-orm';
 import { db, type Executor } from '@/db/client';
-import { benchmark, comment, commentThread, decision, material, measurement, method, organization, revision, THREAD_SUBJECTS, user } from '@/db/schema';
+import { benchmark, comment, commentThread, decision, material, measurement, method, organization, revision, user } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { COMMENT_MAX_CHARS, normaliseCommentBody } from '@/lib/discussion/mentions';
 import type { NewMail } from '@/db/schema/mail';
+import type { CommentView, ThreadSubjectKind, ThreadView } from '@/lib/discussion/thread-view';
+
+export type { CommentView, ThreadSubjectKind, ThreadView };
 import { writeAudit, type Actor } from './audit';
 import { enqueueMail } from './mail';
 
-export type ThreadSubjectKind = (typeof THREAD_SUBJECTS)[number];
 
 export interface ThreadSubject {
   kind: ThreadSubjectKind;
@@ -99,25 +101,6 @@ export async function describeSubject(workspaceId: string, subject: ThreadSubjec
       return `revision ${rows[0].number} of ${rows[0].name}`;
     }
   }
-}
-
-export interface CommentView {
-  id: string;
-  body: string;
-  authorName: string | null;
-  createdAt: Date;
-}
-
-export interface ThreadView {
-  id: string;
-  subjectKind: ThreadSubjectKind;
-  subjectId: string;
-  benchmarkId: string | null;
-  createdAt: Date;
-  resolvedAt: Date | null;
-  resolvedByName: string | null;
-  comments: CommentView[];
-  decisions: Array<{ id: string; kind: string; reason: string; createdAt: Date; revertedAt: Date | null; byName: string | null }>;
 }
 
 async function hydrate(threads: Array<Omit<ThreadView, 'comments' | 'decisions'>>, workspaceId: string): Promise<ThreadView[]> {

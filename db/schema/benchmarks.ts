@@ -3,6 +3,9 @@ import { organization, user } from './auth';
 import { method } from './catalog';
 import { calculation, measurement } from './values';
 import { createdAt, id, retraction, timestamp } from './columns';
+import { FLAG_KINDS, DECISION_KINDS } from '@/lib/record-kinds';
+
+export { FLAG_KINDS, DECISION_KINDS };
 
 /** A saved comparison: scope and rules are JSON validated by the benchmark schemas. */
 export const benchmark = sqliteTable(
@@ -73,7 +76,6 @@ export const pairPin = sqliteTable(
   (t) => [index('pair_pin_idx').on(t.workspaceId, t.methodId, t.measurementId)],
 );
 
-export const FLAG_KINDS = ['outlier', 'quality'] as const;
 
 export const flag = sqliteTable(
   'flag',
@@ -95,7 +97,6 @@ export const flag = sqliteTable(
   (t) => [index('flag_revision_idx').on(t.revisionId), index('flag_workspace_idx').on(t.workspaceId, t.kind)],
 );
 
-export const DECISION_KINDS = ['exclude-pair', 'exclude-measurement', 'keep'] as const;
 
 /** A curator's keep/exclude, attributed, reversible, with a reason. */
 export const decision = sqliteTable(

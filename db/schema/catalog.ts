@@ -3,6 +3,9 @@ import { sql } from 'drizzle-orm';
 import { organization, user } from './auth';
 import type { PersonName } from '@/lib/citations/names';
 import { createdAt, id, retraction, timestamp } from './columns';
+import { SOURCE_KINDS, APPROACHES } from '@/lib/record-kinds';
+
+export { SOURCE_KINDS, APPROACHES };
 
 export const material = sqliteTable(
   'material',
@@ -47,7 +50,6 @@ export const materialTag = sqliteTable(
   (t) => [primaryKey({ columns: [t.materialId, t.tag] }), index('material_tag_idx').on(t.workspaceId, t.tag)],
 );
 
-export const SOURCE_KINDS = ['journal-article', 'data-set', 'thesis', 'in-house-notebook', 'computed-data-set'] as const;
 
 export const source = sqliteTable(
   'source',
@@ -96,7 +98,6 @@ export const source = sqliteTable(
   ],
 );
 
-export const APPROACHES = ['perturbation', 'finite-displacement'] as const;
 
 export const method = sqliteTable(
   'method',

@@ -1,8 +1,11 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { organization } from './auth';
+import type { OutgoingMail } from '@/lib/mail/outgoing';
+import { MAIL_STATUSES } from '@/lib/record-kinds';
 
-export const MAIL_STATUSES = ['pending', 'sending', 'sent', 'failed'] as const;
+export { MAIL_STATUSES };
+
 
 /**
  * Every e-mail is written here, in the same transaction as the change that
@@ -35,4 +38,7 @@ export const mailOutbox = sqliteTable(
 );
 
 export type MailOutboxRow = typeof mailOutbox.$inferSelect;
-export type NewMail = Pick<typeof mailOutbox.$inferInsert, 'kind' | 'toAddress' | 'subject' | 'textBody' | 'htmlBody' | 'headers' | 'dedupeKey'>;
+export type NewMail = OutgoingMail;
+// The composed mail must stay insertable as it is.
+const _insertable = (m: OutgoingMail): Pick<typeof mailOutbox.$inferInsert, keyof OutgoingMail> => m;
+void _insertable;

@@ -2,8 +2,10 @@ import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { organization, user } from './auth';
 import { benchmark, revision } from './benchmarks';
 import { createdAt, id, timestamp } from './columns';
+import { THREAD_SUBJECTS } from '@/lib/record-kinds';
 
-export const THREAD_SUBJECTS = ['pair', 'measurement', 'calculation-set', 'material', 'revision'] as const;
+export { THREAD_SUBJECTS };
+
 
 export const commentThread = sqliteTable(
   'comment_thread',

@@ -3,13 +3,10 @@ import { organization, user } from './auth';
 import { apiToken } from './workspace';
 import { material, method, source } from './catalog';
 import { createdAt, id, retraction, timestamp } from './columns';
+import { QUANTITIES, BRANCHES, ACTIVITIES, TECHNIQUES, SAMPLE_FORMS, IMPORT_KINDS } from '@/lib/record-kinds';
 
-export const QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static', 'born-charge'] as const;
-export const BRANCHES = ['TO', 'LO'] as const;
-export const ACTIVITIES = ['raman', 'ir', 'raman+ir', 'silent', 'acoustic'] as const;
-export const TECHNIQUES = ['raman', 'ir-reflectance', 'ir-absorption', 'ins', 'hyper-raman', 'calorimetry'] as const;
-export const SAMPLE_FORMS = ['single-crystal', 'powder', 'film'] as const;
-export const IMPORT_KINDS = ['measurements', 'calculations', 'dos'] as const;
+export { QUANTITIES, BRANCHES, ACTIVITIES, TECHNIQUES, SAMPLE_FORMS, IMPORT_KINDS };
+
 
 /** One upload batch; the file's SHA-256 is unique per workspace so a file cannot be imported twice. */
 export const importBatch = sqliteTable(

@@ -1,6 +1,9 @@
 import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { organization, user } from './auth';
 import { createdAt, id, timestamp } from './columns';
+import { TOKEN_ROLES } from '@/lib/record-kinds';
+
+export { TOKEN_ROLES };
 
 /** Per-workspace thresholds for quality checks (defaults are those of lib/science). */
 export const workspaceSettings = sqliteTable('workspace_settings', {
@@ -16,7 +19,6 @@ export const workspaceSettings = sqliteTable('workspace_settings', {
   updatedBy: text().references(() => user.id),
 });
 
-export const TOKEN_ROLES = ['curator', 'contributor', 'reviewer'] as const;
 
 /** API tokens for pipelines: only a SHA-256 of the secret is stored. */
 export const apiToken = sqliteTable(

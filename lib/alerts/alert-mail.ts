@@ -2,7 +2,7 @@
  * The alert and digest e-mails: HTML and plain text from the same rows, every
  * value escaped, with the RFC 8058 one-click unsubscribe headers.
  */
-import type { NewMail } from '@/db/schema/mail';
+import type { OutgoingMail } from '@/lib/mail/outgoing';
 import { escapeHtml } from '@/lib/mail/templates';
 import type { MethodShiftRow, ShiftSummary } from './shift-summary';
 
@@ -157,7 +157,7 @@ function unsubscribeHeaders(c: AlertContent): Record<string, string> {
 }
 
 /** One immediate alert: baseline revision → latest revision. */
-export function alertMail(c: AlertContent): NewMail {
+export function alertMail(c: AlertContent): OutgoingMail {
   const span = c.fromRevision === null ? `revision ${c.toRevision.number}` : `revision ${c.fromRevision} → ${c.toRevision.number}`;
   const intro = `“${c.benchmark.name}” (${c.workspace.name}) shifted: ${span}, computed ${utc(c.toRevision.createdAt)}.`;
   const { text, html } = render(c, `Benchmark shifted: ${c.benchmark.name}`, intro, { text: [], html: '' });
@@ -173,7 +173,7 @@ export function alertMail(c: AlertContent): NewMail {
 }
 
 /** The daily digest: every revision of the period and the overall change. */
-export function digestMail(c: DigestContent): NewMail {
+export function digestMail(c: DigestContent): OutgoingMail {
   const span = c.fromRevision === null ? `up to revision ${c.toRevision.number}` : `revision ${c.fromRevision} → ${c.toRevision.number}`;
   const intro = `Daily digest for “${c.benchmark.name}” (${c.workspace.name}), ${c.day}: ${c.revisions.length} new revision${c.revisions.length === 1 ? '' : 's'}, ${span}. The table compares the first and the last.`;
   const perRevision = c.revisions.map((r) => ({ head: `Revision ${r.number} · ${utc(r.createdAt)}`, lines: r.lines.length ? r.lines : ['no change beyond the thresholds'] }));

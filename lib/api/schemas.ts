@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { APPROACHES, SOURCE_KINDS } from '@/db/schema/catalog';
+import { APPROACHES, SOURCE_KINDS } from '@/lib/record-kinds';
 import { GAP_CODES } from '@/lib/citations/completeness';
 import { CALCULATION_COLUMNS, MEASUREMENT_COLUMNS, type ColumnDef } from '@/lib/import/columns';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';

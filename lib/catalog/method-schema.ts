@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { APPROACHES } from '@/db/schema/catalog';
+import { APPROACHES } from '@/lib/record-kinds';
 import { parseGrid } from './k-point-density';
 import { optionalBoolean, optionalPositiveNumber, optionalText, requiredText } from './fields';
 

@@ -4,7 +4,7 @@
  * a CSV cell, names as typed or structured), one normalised source out.
  */
 import { z } from 'zod';
-import { SOURCE_KINDS } from '@/db/schema/catalog';
+import { SOURCE_KINDS } from '@/lib/record-kinds';
 import { MAX_NAME_CHARS, MAX_NAMES, parseNameList, parsePersonName, type PersonName } from '@/lib/citations/names';
 import { normalizeDoi } from './doi';
 import { optionalInteger, optionalText, requiredText } from './fields';

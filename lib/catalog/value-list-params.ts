@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { QUANTITIES, TECHNIQUES } from '@/db/schema/values';
+import { QUANTITIES, TECHNIQUES } from '@/lib/record-kinds';
 import { listParamsSchema } from './list-params';
 
 /** Sort keys of the measurement and calculation tables ("method" applies to calculations only). */

@@ -1,4 +1,4 @@
-import type { SOURCE_KINDS } from '@/db/schema/catalog';
+import type { SOURCE_KINDS } from '@/lib/record-kinds';
 import type { PersonName } from './names';
 
 export type SourceKind = (typeof SOURCE_KINDS)[number];

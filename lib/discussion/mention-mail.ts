@@ -1,10 +1,10 @@
-import type { NewMail } from '@/db/schema/mail';
+import type { OutgoingMail } from '@/lib/mail/outgoing';
 import { escapeHtml, WRAP_ANYWHERE } from '@/lib/mail/templates';
 
 const EXCERPT = 600;
 
 /** The notice a mentioned member receives; the comment is quoted as text, never as HTML. */
-export function mentionMail(input: { to: string; recipientName: string; authorName: string; workspaceName: string; subject: string; body: string; url: string; commentId: string; userId: string }): NewMail {
+export function mentionMail(input: { to: string; recipientName: string; authorName: string; workspaceName: string; subject: string; body: string; url: string; commentId: string; userId: string }): OutgoingMail {
   const excerpt = input.body.length > EXCERPT ? `${input.body.slice(0, EXCERPT)}…` : input.body;
   const lead = `${input.authorName} mentioned you in a discussion on ${input.subject} in ${input.workspaceName}.`;
   const text = [`Hello ${input.recipientName},`, lead, excerpt.split('\n').map((l) => `> ${l}`).join('\n'), `Open the discussion: ${input.url}`, '— Lattice Ledger'].join('\n\n');

@@ -1,4 +1,4 @@
-import type { NewMail } from '@/db/schema/mail';
+import type { OutgoingMail } from '@/lib/mail/outgoing';
 
 /** Escapes text for HTML bodies; every value put into a template goes through it. */
 export function escapeHtml(value: string): string {
@@ -23,7 +23,7 @@ function text(paragraphs: string[], action?: { label: string; url: string }): st
   return [...paragraphs, ...(action ? [`${action.label}: ${action.url}`] : []), '', '— Lattice Ledger'].join('\n\n');
 }
 
-export function verifyEmailMail({ to, name, url }: { to: string; name: string; url: string }): NewMail {
+export function verifyEmailMail({ to, name, url }: { to: string; name: string; url: string }): OutgoingMail {
   const paragraphs = [`Hello ${name},`, 'Confirm your e-mail address to finish creating your Lattice Ledger account. The link is valid for 24 hours.'];
   const action = { label: 'Confirm e-mail address', url };
   return {
@@ -35,7 +35,7 @@ export function verifyEmailMail({ to, name, url }: { to: string; name: string; u
   };
 }
 
-export function resetPasswordMail({ to, name, url }: { to: string; name: string; url: string }): NewMail {
+export function resetPasswordMail({ to, name, url }: { to: string; name: string; url: string }): OutgoingMail {
   const paragraphs = [
     `Hello ${name},`,
     'Someone asked to reset the password of your Lattice Ledger account. The link is valid for one hour. Setting a new password signs you out everywhere.',
@@ -51,7 +51,7 @@ export function resetPasswordMail({ to, name, url }: { to: string; name: string;
   };
 }
 
-export function invitationMail(input: { to: string; workspaceName: string; inviterName: string; role: string; url: string }): NewMail {
+export function invitationMail(input: { to: string; workspaceName: string; inviterName: string; role: string; url: string }): OutgoingMail {
   const paragraphs = [
     `${input.inviterName} invited you to the workspace “${input.workspaceName}” on Lattice Ledger as ${input.role}.`,
     `Sign in (or create an account) with this e-mail address, ${input.to}, to accept. The invitation expires in 7 days.`,
@@ -66,7 +66,7 @@ export function invitationMail(input: { to: string; workspaceName: string; invit
   };
 }
 
-export function existingAccountMail(input: { to: string; name: string; signInUrl: string; resetUrl: string }): NewMail {
+export function existingAccountMail(input: { to: string; name: string; signInUrl: string; resetUrl: string }): OutgoingMail {
   const paragraphs = [
     `Hello ${input.name},`,
     'Someone tried to create a Lattice Ledger account with this e-mail address, which already has one. Nothing was changed.',

@@ -1,6 +1,6 @@
 'use client';
 import { useState } from 'react';
-import type { ThreadView } from '@/db/queries/comments';
+import type { ThreadView } from '@/lib/discussion/thread-view';
 import { buttonClass } from '@/components/ui/button';
 import { ThreadPanel, type DiscussionPermissions, type DiscussionSubject } from './thread-panel';
 

@@ -1,6 +1,6 @@
 'use client';
 import { useActionState, useRef } from 'react';
-import type { ThreadView } from '@/db/queries/comments';
+import type { ThreadView } from '@/lib/discussion/thread-view';
 import { inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';

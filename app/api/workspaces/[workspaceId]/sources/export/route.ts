@@ -1,4 +1,4 @@
-import { workspaceSourcesRoute } from '@/lib/citations/export-routes';
+import { workspaceSourcesRoute } from '@/app/api/workspaces/[workspaceId]/_lib/source-export-routes';
 
 /** GET …/sources/export?format=bibtex|ris|csl-json[&ids=a,b] */
 export const GET = workspaceSourcesRoute();

@@ -6,8 +6,8 @@ import { benchmarkRouteParams, revisionParam } from '@/lib/benchmark/route-param
 import { requireBenchmark } from '@/db/queries/benchmarks';
 import { requireRevision } from '@/db/queries/revisions';
 import { listSourcesForExport } from '@/db/queries/sources';
-import { exportFormatParam, referenceFileResponse } from './export-response';
-import type { ExportFormat } from './export';
+import { exportFormatParam, referenceFileResponse } from '@/lib/citations/export-response';
+import type { ExportFormat } from '@/lib/citations/export';
 
 const workspaceParams = z.object({ workspaceId: z.string().min(1) });
 const MAX_IDS = 1000;
