@@ -1,4 +1,9 @@
-export type AppErrorCode = 'bad-request' | 'unauthorized' | 'forbidden' | 'not-found' | 'conflict' | 'too-large' | 'unprocessable' | 'rate-limited';
+/**
+ * The one error path. Server code throws AppError with a kind; server actions
+ * turn it into their form state, and every route handler — the workspace
+ * routes, the REST API, the unsubscribe route — answers it with toProblem().
+ */
+export type AppErrorCode = 'bad-request' | 'unauthorized' | 'forbidden' | 'not-found' | 'conflict' | 'gone' | 'too-large' | 'unprocessable' | 'rate-limited';
 
 const STATUS: Record<AppErrorCode, number> = {
   'bad-request': 400,
@@ -6,20 +11,33 @@ const STATUS: Record<AppErrorCode, number> = {
   forbidden: 403,
   'not-found': 404,
   conflict: 409,
+  gone: 410,
   'too-large': 413,
   unprocessable: 422,
   'rate-limited': 429,
 };
 
-/** The one error type our server code throws on purpose; handlers map it to a status, actions to a message. */
+/** Row-level problems of a refused import (see lib/import/errors). */
+interface RowProblems {
+  errors: Array<{ row: number; column: string | null; reason: string; value?: string }>;
+  errorCount: number;
+}
+
 export class AppError extends Error {
   readonly code: AppErrorCode;
+  /** Field issues (an array, e.g. zod's) or named facts (an object) the problem document carries. */
   readonly details?: unknown;
-  constructor(code: AppErrorCode, message: string, details?: unknown) {
+  readonly errors?: RowProblems['errors'];
+  readonly errorCount?: number;
+  constructor(code: AppErrorCode, message: string, details?: unknown, rows?: RowProblems) {
     super(message);
     this.name = 'AppError';
     this.code = code;
     this.details = details;
+    if (rows) {
+      this.errors = rows.errors;
+      this.errorCount = rows.errorCount;
+    }
   }
   get status(): number {
     return STATUS[this.code];
@@ -30,10 +48,32 @@ export function isAppError(e: unknown): e is AppError {
   return e instanceof AppError;
 }
 
-/** RFC 9457 problem document. */
-export function problemResponse(error: AppError): Response {
-  return new Response(
-    JSON.stringify({ type: 'about:blank', title: error.code, status: error.status, detail: error.message, ...(error.details ? { errors: error.details } : {}) }),
-    { status: error.status, headers: { 'content-type': 'application/problem+json' } },
-  );
+const PROBLEM = 'application/problem+json';
+
+/** An RFC 9457 problem document with our `title` (the error kind) and any extra members. */
+export function problemDocument(status: number, title: string, detail: string, extra: Record<string, unknown> = {}, headers: HeadersInit = {}): Response {
+  return new Response(JSON.stringify({ type: 'about:blank', title, status, detail, ...extra }), {
+    status,
+    headers: { 'content-type': PROBLEM, ...headers },
+  });
+}
+
+/**
+ * Maps anything a route handler throws to a problem document. An AppError keeps
+ * its status and message; a refused import lists its row errors and their total;
+ * anything else is logged and answered as a bare 500, so no internals leak.
+ * `bearer` adds the WWW-Authenticate challenge of the token API to a 401.
+ */
+export function toProblem(e: unknown, options: { bearer?: boolean; headers?: Record<string, string> } = {}): Response {
+  if (!isAppError(e)) {
+    console.error(e);
+    return problemDocument(500, 'internal', 'The server could not process the request.');
+  }
+  const extra: Record<string, unknown> = {};
+  if (e.errors) Object.assign(extra, { errorCount: e.errorCount, errors: e.errors });
+  else if (Array.isArray(e.details)) extra.errors = e.details;
+  else if (e.details && typeof e.details === 'object') Object.assign(extra, e.details);
+  const headers: Record<string, string> = { ...options.headers };
+  if (e.code === 'unauthorized' && options.bearer) headers['www-authenticate'] = 'Bearer realm="lattice-ledger"';
+  return problemDocument(e.status, e.code, e.message, extra, headers);
 }

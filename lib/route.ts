@@ -1,6 +1,6 @@
 import 'server-only';
 import { z } from 'zod';
-import { AppError, isAppError, problemResponse } from '@/lib/errors';
+import { AppError, toProblem } from '@/lib/errors';
 import { requireMember, requireUser, type MemberContext } from '@/lib/session';
 import type { Permission } from '@/lib/permissions';
 
@@ -30,12 +30,7 @@ export function workspaceRoute<P extends { workspaceId: string }>(
       if (!parsed.success) throw new AppError('bad-request', 'Invalid path parameters.', parsed.error.issues);
       return await act(request, ctx, parsed.data);
     } catch (e) {
-      if (isAppError(e)) return problemResponse(e);
-      console.error(e);
-      return Response.json(
-        { type: 'about:blank', title: 'internal', status: 500, detail: 'The server could not process the request.' },
-        { status: 500, headers: { 'content-type': 'application/problem+json' } },
-      );
+      return toProblem(e);
     }
   };
 }

@@ -4,7 +4,7 @@ import { useMemo, useState } from 'react';
 import { decodeUtf8Strict } from '@/lib/import/decode';
 import { dosQuery, parseDosTemperatures } from '@/lib/import/dos-format';
 import { previewDos, type DosPreviewResult, type DosReferenceLists } from '@/lib/import/dos-preview';
-import { ImportRefusal } from '@/lib/import/errors';
+import { isImportRefusal, type RowError } from '@/lib/import/errors';
 import { Button } from '@/components/ui/button';
 import { inputClass } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
@@ -17,7 +17,7 @@ import { count, plain } from '@/lib/format';
 type Outcome = { importId: string; insertedCount: number; duplicateCount: number; computedCount: number; dosCount: number };
 type CommitState = UploadState<Outcome>;
 
-type Loaded = { file: File; text: string } | { file: File; refusal: { message: string; errors: ImportRefusal['errors'] } };
+type Loaded = { file: File; text: string } | { file: File; refusal: { message: string; errors: RowError[] } };
 
 /**
  * The wizard's phonon-DOS path: the file is checked and the entropies computed in the
@@ -30,14 +30,14 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
   const [commit, setCommit] = useState<CommitState>({ status: 'idle' });
   const temperatures = parseDosTemperatures(temperatureText);
 
-  const preview = useMemo((): { result: DosPreviewResult } | { refusal: { message: string; errors: ImportRefusal['errors'] } } | null => {
+  const preview = useMemo((): { result: DosPreviewResult } | { refusal: { message: string; errors: RowError[] } } | null => {
     const chosen = parseDosTemperatures(temperatureText);
     if (!loaded || !references || !chosen.ok) return null;
     if ('refusal' in loaded) return { refusal: loaded.refusal };
     try {
       return { result: previewDos(loaded.text, references, chosen.temperatures) };
     } catch (e) {
-      if (e instanceof ImportRefusal) return { refusal: { message: e.message, errors: e.errors } };
+      if (isImportRefusal(e)) return { refusal: { message: e.message, errors: e.errors } };
       return { refusal: { message: (e as Error).message, errors: [] } };
     }
   }, [loaded, references, temperatureText]);
@@ -47,7 +47,7 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
     try {
       setLoaded({ file, text: decodeUtf8Strict(new Uint8Array(await file.arrayBuffer())) });
     } catch (e) {
-      const errors = e instanceof ImportRefusal ? e.errors : [];
+      const errors = isImportRefusal(e) ? e.errors : [];
       setLoaded({ file, refusal: { message: (e as Error).message, errors } });
     }
   }

@@ -9,7 +9,7 @@ import { AppError } from '@/lib/errors';
 import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
 import { computeAllDosValues, resolveDosBlocks, type ComputedDosValue, type DosReferences } from '@/lib/import/dos-compute';
 import type { DosParseResult } from '@/lib/import/dos-parse';
-import { ImportRefusal, MAX_REPORTED_ERRORS } from '@/lib/import/errors';
+import { MAX_REPORTED_ERRORS, importRefusal } from '@/lib/import/errors';
 
 /** Materials (with atoms in the cell), sources and methods by the handles a DOS file uses. */
 export async function loadDosReferences(workspaceId: string): Promise<DosReferences> {
@@ -79,7 +79,7 @@ export async function commitDosImport(args: {
   const totalErrors = parsed.errorCount + errorCount;
   if (totalErrors > 0) {
     const all = [...parsed.errors, ...errors].sort((a, b) => a.row - b.row).slice(0, MAX_REPORTED_ERRORS);
-    throw new ImportRefusal(`Nothing was imported: ${totalErrors} ${totalErrors === 1 ? 'error' : 'errors'} in the file.`, all, totalErrors);
+    throw importRefusal(`Nothing was imported: ${totalErrors} ${totalErrors === 1 ? 'error' : 'errors'} in the file.`, all, totalErrors);
   }
   const values = computeAllDosValues(resolved, temperatures);
   const rowOfBlock = resolved.map((r) => r.block.firstRow);

@@ -8,7 +8,7 @@ import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
 import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
 import type { ImportableKind } from '@/lib/import/columns';
-import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from '@/lib/import/errors';
+import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/errors';
 import { ModeSetTally, type ImportWarning } from '@/lib/import/mode-set-warnings';
 import type { ImportTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
@@ -289,7 +289,7 @@ export async function commitImport(args: {
     }
     if (errorCount > 0) {
       const plural = errorCount === 1 ? 'error' : 'errors';
-      throw new ImportRefusal(`Nothing was imported: ${errorCount} ${plural} in ${table.format === 'csv' ? 'the file' : 'the rows'}.`, errors, errorCount);
+      throw importRefusal(`Nothing was imported: ${errorCount} ${plural} in ${table.format === 'csv' ? 'the file' : 'the rows'}.`, errors, errorCount);
     }
     await flush();
 

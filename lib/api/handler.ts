@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import { AppError } from '@/lib/errors';
 import type { Permission } from '@/lib/permissions';
 import { authenticateToken, type TokenContext } from './auth';
-import { problemFromError } from './problem';
+import { toProblem } from '@/lib/errors';
 
 type RouteContext = { params: Promise<unknown> };
 
@@ -20,7 +20,7 @@ export function apiRoute<P>(permission: Permission, params: z.ZodType<P>, act: (
       if (!parsed.success) throw new AppError('bad-request', 'Invalid path parameters.', parsed.error.issues);
       return await act(request, ctx, parsed.data);
     } catch (e) {
-      return problemFromError(e);
+      return toProblem(e, { bearer: true });
     }
   };
 }

@@ -1,4 +1,4 @@
-import { ImportRefusal } from './errors';
+import { importRefusal } from './errors';
 
 /**
  * Strict UTF-8 decoding that works chunk by chunk: a multibyte character split
@@ -16,7 +16,7 @@ export class StrictUtf8Decoder {
       this.bytesSeen += chunk.byteLength;
       return text;
     } catch {
-      throw new ImportRefusal('The file is not valid UTF-8.', [
+      throw importRefusal('The file is not valid UTF-8.', [
         {
           row: 0,
           column: null,

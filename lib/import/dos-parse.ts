@@ -2,7 +2,7 @@ import { convertFrequency, type FrequencyUnit } from '@/lib/science/units';
 import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
 import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
 import { resolveDosHeader, type DosColumnKey, type DosHeader } from './dos-format';
-import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from './errors';
+import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
 import { notANumberReason, parseDecimal } from './numbers';
 import { parseUnit } from './units';
 
@@ -52,7 +52,7 @@ const EMPTY: RowError = { row: 0, column: null, reason: 'The file is empty.' };
  * Reads a DOS file given as decoded text in any chunk sizes (the server streams it,
  * the browser passes it whole): detects the delimiter from the header line, checks
  * the header, and groups rows into blocks per (material, method). Row problems are
- * collected with row, column and reason; file-level problems throw ImportRefusal.
+ * collected with row, column and reason; file-level problems throw an import refusal.
  * Negative frequencies: phonon codes often write a short tail below 0 with zero
  * density; such rows are accepted and left out of the grid when their density is 0 or
  * at most NEGATIVE_TAIL_LIMIT (0.01 %) of the DOS's largest density, and they must come
@@ -85,10 +85,10 @@ export class DosFileReader {
 
   end(): DosParseResult {
     if (!this.reader) {
-      if (this.head.trim() === '') throw new ImportRefusal('The file is empty.', [EMPTY]);
+      if (this.head.trim() === '') throw importRefusal('The file is empty.', [EMPTY]);
       this.start(true);
     } else this.take(this.reader.end());
-    if (this.rowCount === 0) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
+    if (this.rowCount === 0) throw importRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
     for (const block of this.blocks.values()) {
       const peak = block.density.reduce((m, g) => Math.max(m, g), 0);
       for (const t of block.negativeRows ?? []) {
@@ -121,7 +121,7 @@ export class DosFileReader {
   }
 
   private start(final: boolean): void {
-    if (this.head.trim() === '') throw new ImportRefusal('The file is empty.', [EMPTY]);
+    if (this.head.trim() === '') throw importRefusal('The file is empty.', [EMPTY]);
     this.delimiter = detectDelimiter(this.head);
     this.reader = new CsvReader(this.delimiter);
     const records = this.reader.push(this.head);
@@ -137,7 +137,7 @@ export class DosFileReader {
       if (!this.header) {
         this.headers = record.fields;
         this.header = resolveDosHeader(record.fields);
-        if (this.header.errors.length) throw new ImportRefusal('The header row has problems.', this.header.errors);
+        if (this.header.errors.length) throw importRefusal('The header row has problems.', this.header.errors);
         continue;
       }
       this.rowCount++;

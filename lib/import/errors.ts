@@ -1,3 +1,5 @@
+import { AppError } from '@/lib/errors';
+
 /**
  * One problem in an import. `row` counts records the way a spreadsheet shows them:
  * in a CSV file the header is row 1 and the first data row is row 2; in a JSON body
@@ -11,16 +13,16 @@ export interface RowError {
   value?: string;
 }
 
+/** An import refused as a whole: an unprocessable AppError that carries the row errors and their total count. */
+export type ImportRefusalError = AppError & { errors: RowError[]; errorCount: number };
+
 /** A file refused as a whole (encoding, header, empty) or after validation found row errors. */
-export class ImportRefusal extends Error {
-  readonly errors: RowError[];
-  readonly errorCount: number;
-  constructor(message: string, errors: RowError[], errorCount = errors.length) {
-    super(message);
-    this.name = 'ImportRefusal';
-    this.errors = errors;
-    this.errorCount = errorCount;
-  }
+export function importRefusal(message: string, errors: RowError[], errorCount = errors.length): ImportRefusalError {
+  return new AppError('unprocessable', message, undefined, { errors, errorCount }) as ImportRefusalError;
+}
+
+export function isImportRefusal(e: unknown): e is ImportRefusalError {
+  return e instanceof AppError && e.code === 'unprocessable' && Array.isArray(e.errors);
 }
 
 /** Upper bound on errors kept in one response; the count still covers them all. */

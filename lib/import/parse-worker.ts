@@ -1,14 +1,14 @@
 // The wizard's web worker: strict UTF-8 decoding of the dropped file in slices, then
 // papaparse over the text in chunks, with progress messages, off the main thread.
 import { StrictUtf8Decoder } from './decode';
-import { ImportRefusal } from './errors';
+import { isImportRefusal, type RowError } from './errors';
 import { previewCsv, type PreviewRequest, type PreviewResult } from './preview';
 
 export type WorkerRequest = PreviewRequest & { file: File };
 export type WorkerMessage =
   | { type: 'progress'; phase: 'reading' | 'parsing'; fraction: number }
   | { type: 'done'; result: PreviewResult }
-  | { type: 'refused'; message: string; errors: ImportRefusal['errors'] }
+  | { type: 'refused'; message: string; errors: RowError[] }
   | { type: 'failed'; message: string };
 
 const SLICE_BYTES = 1 << 20;
@@ -40,7 +40,7 @@ scope.onmessage = async (event: MessageEvent<WorkerRequest>) => {
     });
     post({ type: 'done', result });
   } catch (e) {
-    if (e instanceof ImportRefusal) post({ type: 'refused', message: e.message, errors: e.errors });
+    if (isImportRefusal(e)) post({ type: 'refused', message: e.message, errors: e.errors });
     else post({ type: 'failed', message: (e as Error).message });
   }
 };

@@ -2,7 +2,7 @@ import Papa from 'papaparse';
 import { isImportableKind, type ImportableKind } from './columns';
 import { isBlankRecord } from './csv-reader';
 import { detectDelimiter, delimiterName, type Delimiter } from './delimiter';
-import { ImportRefusal, MAX_REPORTED_ERRORS, type RowError } from './errors';
+import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
 import { autoMapColumns, resolveHeader, type ColumnMapping } from './header';
 import type { DefaultUnits } from './units';
 import { ModeSetTally, type ImportWarning } from './mode-set-warnings';
@@ -74,7 +74,7 @@ const CHUNK_CHARS = 1 << 20;
  */
 export function previewCsv(text: string, request: PreviewRequest, onProgress: (fraction: number) => void = () => undefined): PreviewResult {
   if (!isImportableKind(request.kind)) throw new Error(`unknown kind ${String(request.kind)}`);
-  if (text.trim() === '') throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+  if (text.trim() === '') throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
   const delimiter = detectDelimiter(text);
   const references = referencesFrom(request.references);
   const errors: RowError[] = [];
@@ -142,10 +142,10 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
   (Papa.parse as (input: string, config: object) => void)(text, config);
   onProgress(1);
 
-  if (!headers || !header) throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+  if (!headers || !header) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
   const resolved = header as ReturnType<typeof resolveHeader>;
-  if (resolved.errors.length) throw new ImportRefusal('The header row has problems.', resolved.errors);
-  if (rowCount === 0) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
+  if (resolved.errors.length) throw importRefusal('The header row has problems.', resolved.errors);
+  if (rowCount === 0) throw importRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
   const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
   return { headers, delimiter, delimiterName: delimiterName(delimiter), mapping, ignored: resolved.ignored, rowCount, validCount, errorCount, errors, preview, warnings, warningCount };
 }

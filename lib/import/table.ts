@@ -2,7 +2,7 @@ import { columnsOf, type ImportableKind } from './columns';
 import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
 import { StrictUtf8Decoder } from './decode';
 import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
-import { ImportRefusal, type RowError } from './errors';
+import { type RowError, importRefusal } from './errors';
 import { resolveHeader, type ColumnMapping } from './header';
 import type { CellReader } from './validate-row';
 
@@ -24,7 +24,7 @@ const EMPTY_FILE: RowError = { row: 0, column: null, reason: 'The file is empty.
 /**
  * Opens a CSV file given as byte chunks: strict UTF-8 (BOM dropped), delimiter
  * detected from the header line, header checked and mapped. Refuses the file
- * (ImportRefusal) when any of that fails; row problems come out with the rows.
+ * (an unprocessable AppError) when any of that fails; row problems come out with the rows.
  */
 export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: ImportableKind, mapping?: ColumnMapping): Promise<ImportTable> {
   const decoder = new StrictUtf8Decoder();
@@ -39,7 +39,7 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
       done = true;
     } else head += decoder.decode(next.value);
   }
-  if (head.trim() === '') throw new ImportRefusal('The file is empty.', [EMPTY_FILE]);
+  if (head.trim() === '') throw importRefusal('The file is empty.', [EMPTY_FILE]);
   const delimiter = detectDelimiter(head);
   const reader = new CsvReader(delimiter);
   const pending: CsvRecord[] = [];
@@ -47,10 +47,10 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
   if (done) reader.end(pending);
   while (pending.length > 0 && isBlankRecord(pending[0].fields)) pending.shift();
   const headerRecord = pending.shift();
-  if (!headerRecord) throw new ImportRefusal('The file is empty.', [EMPTY_FILE]);
+  if (!headerRecord) throw importRefusal('The file is empty.', [EMPTY_FILE]);
   const headers = headerRecord.fields;
   const resolved = resolveHeader(kind, headers, mapping);
-  if (resolved.errors.length) throw new ImportRefusal('The header row has problems.', resolved.errors);
+  if (resolved.errors.length) throw importRefusal('The header row has problems.', resolved.errors);
 
   const { indexByKey, nameByKey } = resolved;
   const width = headers.length;
@@ -98,7 +98,7 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
         yield rows;
       }
     }
-    if (!sawData) throw new ImportRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
+    if (!sawData) throw importRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
   }
 
   return { format: 'csv', columnName, ignored: resolved.ignored, delimiter, batches };
@@ -113,7 +113,7 @@ function cellText(value: unknown): string | undefined {
 
 /** Rows given as JSON objects keyed by our column names (see the template README). */
 export function jsonTable(kind: ImportableKind, rows: ReadonlyArray<Record<string, unknown>>, batchSize = 1000): ImportTable {
-  if (rows.length === 0) throw new ImportRefusal('The request has no rows.', [{ row: 0, column: null, reason: 'The request has no rows.' }]);
+  if (rows.length === 0) throw importRefusal('The request has no rows.', [{ row: 0, column: null, reason: 'The request has no rows.' }]);
   const known = new Set(columnsOf(kind).map((c) => c.key));
   async function* batches(): AsyncGenerator<TableRow[]> {
     for (let start = 0; start < rows.length; start += batchSize) {

@@ -4,7 +4,7 @@ import { db } from '@/db/client';
 import { auditLog, calculation, importBatch, measurement } from '@/db/schema';
 import { undoImport } from '@/db/queries/imports';
 import { importCsvFile } from '@/lib/services/imports/csv-import';
-import { ImportRefusal } from '@/lib/import/errors';
+import { isImportRefusal, type ImportRefusalError } from '@/lib/import/errors';
 import { AppError } from '@/lib/errors';
 import { createWorkspaceWith } from '../support/users';
 import { bytesOf, chunksOf, seedCatalogue } from './import-fixtures';
@@ -25,13 +25,13 @@ function importText(text: string, kind: 'measurements' | 'calculations' = 'measu
   });
 }
 
-async function refusal(p: Promise<unknown>): Promise<ImportRefusal> {
+async function refusal(p: Promise<unknown>): Promise<ImportRefusalError> {
   const e = await p.then(
     () => null,
     (err: unknown) => err,
   );
-  expect(e).toBeInstanceOf(ImportRefusal);
-  return e as ImportRefusal;
+  expect(isImportRefusal(e)).toBe(true);
+  return e as ImportRefusalError;
 }
 
 async function counts() {

@@ -9,7 +9,7 @@ import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries
 import { dataChanged } from '@/lib/services/data-changed';
 import type { ImportableKind } from '@/lib/import/columns';
 import { decodeUtf8Strict } from '@/lib/import/decode';
-import { ImportRefusal, type RowError } from '@/lib/import/errors';
+import { type RowError, importRefusal } from '@/lib/import/errors';
 import type { ColumnMapping } from '@/lib/import/header';
 import { jsonTable, openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
@@ -70,7 +70,7 @@ export interface CsvImportInput {
 export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcome> {
   const spooled = await spool(input.body);
   try {
-    if (spooled.byteCount === 0) throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+    if (spooled.byteCount === 0) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
     const stream = createReadStream(/*turbopackIgnore: true*/ spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
     const table = await openCsvTable(stream, input.kind, input.mapping);
     const outcome = await commitImport({
@@ -96,7 +96,7 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
   try {
     json = JSON.parse(text);
   } catch (e) {
-    throw new ImportRefusal('The body is not valid JSON.', [{ row: 0, column: null, reason: `The body is not valid JSON: ${(e as Error).message}` }]);
+    throw importRefusal('The body is not valid JSON.', [{ row: 0, column: null, reason: `The body is not valid JSON: ${(e as Error).message}` }]);
   }
   const parsed = importRequestSchema.safeParse(json);
   if (!parsed.success) {
@@ -108,7 +108,7 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
       }
       return { row: 0, column: issue.path.join('.') || null, reason: issue.message };
     });
-    throw new ImportRefusal('The request body does not match the import schema.', errors, parsed.error.issues.length);
+    throw importRefusal('The request body does not match the import schema.', errors, parsed.error.issues.length);
   }
   const body = parsed.data;
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');

@@ -5,7 +5,7 @@ import type { ImportActor } from '@/db/queries/imports';
 import { dataChanged } from '@/lib/services/data-changed';
 import { StrictUtf8Decoder } from '@/lib/import/decode';
 import { DosFileReader } from '@/lib/import/dos-parse';
-import { ImportRefusal } from '@/lib/import/errors';
+import { importRefusal } from '@/lib/import/errors';
 
 export interface DosImportInput {
   workspaceId: string;
@@ -33,7 +33,7 @@ export async function importDosFile(input: DosImportInput): Promise<DosImportOut
     byteCount += chunk.byteLength;
     reader.push(decoder.decode(chunk));
   }
-  if (byteCount === 0) throw new ImportRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+  if (byteCount === 0) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
   reader.push(decoder.decode(new Uint8Array(0), true));
   const parsed = reader.end();
   const outcome = await commitDosImport({

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { decodeUtf8Strict, StrictUtf8Decoder } from '@/lib/import/decode';
-import { ImportRefusal } from '@/lib/import/errors';
+import { isImportRefusal, type ImportRefusalError } from '@/lib/import/errors';
+import { AppError } from '@/lib/errors';
 import { parseDecimal } from '@/lib/import/numbers';
 
 describe('strict UTF-8 decoding', () => {
@@ -26,9 +27,9 @@ describe('strict UTF-8 decoding', () => {
     } catch (e) {
       error = e;
     }
-    expect(error).toBeInstanceOf(ImportRefusal);
-    expect((error as ImportRefusal).errors[0].reason).toMatch(/not valid UTF-8 .*bytes 4–6/);
-    expect(() => decodeUtf8Strict(new Uint8Array([0xc3]))).toThrow(ImportRefusal);
+    expect(isImportRefusal(error)).toBe(true);
+    expect((error as ImportRefusalError).errors[0].reason).toMatch(/not valid UTF-8 .*bytes 4–6/);
+    expect(() => decodeUtf8Strict(new Uint8Array([0xc3]))).toThrow(AppError);
   });
 });
 

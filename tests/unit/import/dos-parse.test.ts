@@ -5,7 +5,8 @@ import { DOS_COLUMNS, dosQuery, parseDosQuery, parseDosTemperatures } from '@/li
 import { DosFileReader, parseDosText } from '@/lib/import/dos-parse';
 import { previewDos } from '@/lib/import/dos-preview';
 import { DOS_TEMPLATE_FILE_NAME, dosTemplateCsv } from '@/lib/import/dos-template';
-import { ImportRefusal } from '@/lib/import/errors';
+import { type ImportRefusalError } from '@/lib/import/errors';
+import { AppError } from '@/lib/errors';
 
 const HEADER = 'material,method,source,unit,frequency,density';
 const file = (...rows: string[]) => [HEADER, ...rows].join('\n');
@@ -69,13 +70,13 @@ describe('DOS file reader', () => {
       [2, 'frequency'],
       [3, 'density'],
     ]);
-    expect(() => parseDosText('')).toThrow(ImportRefusal);
+    expect(() => parseDosText('')).toThrow(AppError);
     expect(() => parseDosText(HEADER + '\n')).toThrow(/no data rows/);
     try {
       parseDosText('material,method,unit,frequency,density\nSi,PBE,cm-1,1,1');
       expect.unreachable();
     } catch (err) {
-      expect((err as ImportRefusal).errors).toEqual([expect.objectContaining({ row: 1, column: 'source' })]);
+      expect((err as ImportRefusalError).errors).toEqual([expect.objectContaining({ row: 1, column: 'source' })]);
     }
   });
 

@@ -1,5 +1,7 @@
+
+import { AppError } from '@/lib/errors';
 import { describe, expect, it } from 'vitest';
-import { ImportRefusal } from '@/lib/import/errors';
+
 import { previewCsv, type ReferenceLists } from '@/lib/import/preview';
 
 const references: ReferenceLists = {
@@ -47,7 +49,7 @@ describe('browser preview (papaparse in chunks)', () => {
   });
 
   it('refuses header problems and empty files like the server does', () => {
-    expect(() => previewCsv('   ', { kind: 'measurements', references })).toThrow(ImportRefusal);
+    expect(() => previewCsv('   ', { kind: 'measurements', references })).toThrow(AppError);
     expect(() => previewCsv('material,value,value\n', { kind: 'measurements', references })).toThrow(/header/);
     expect(() => previewCsv('material,quantity,value,unit,source\n', { kind: 'measurements', references })).toThrow(/no data rows/);
   });

@@ -3,7 +3,7 @@ import { revalidatePath } from 'next/cache';
 import { workspaceAction } from '@/lib/action';
 import { AppError } from '@/lib/errors';
 import { roleCan } from '@/lib/permissions';
-import { ImportRefusal } from '@/lib/import/errors';
+import { isImportRefusal } from '@/lib/import/errors';
 import { ENTRY_NOUN, entryFieldErrors, singleEntrySchema } from '@/lib/import/single-entry';
 import { commitSingleEntry } from '@/lib/services/imports/single-entry';
 
@@ -24,7 +24,7 @@ export const createSingleEntryAction = workspaceAction('imports:create', singleE
       data: { importId: outcome.importId, duplicate },
     };
   } catch (e) {
-    if (!(e instanceof ImportRefusal)) throw e;
+    if (!isImportRefusal(e)) throw e;
     const { fieldErrors, general } = entryFieldErrors(e.errors);
     return { ok: false, code: 'unprocessable', message: ['Nothing was saved: check the highlighted fields.', ...general].join(' '), fieldErrors };
   }

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { AppError } from '@/lib/errors';
 import { workspaceRoute } from '@/lib/route';
 import { importMaxBytes } from '@/lib/api/import-limit';
-import { problemFromError } from '@/lib/api/problem';
+import { toProblem } from '@/lib/errors';
 import { importCsvFile } from '@/lib/services/imports/csv-import';
 import { parseDosQuery } from '@/lib/import/dos-format';
 import { importDosFile } from '@/lib/services/imports/dos-import';
@@ -34,7 +34,7 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
     return Response.json(outcome, { status: 201 });
   } catch (e) {
     // Refused imports (422, 409, 413) answer with the same problem documents as the API.
-    return problemFromError(e);
+    return toProblem(e);
   }
 });
 
@@ -53,6 +53,6 @@ async function postDos(request: Request, params: URLSearchParams, workspaceId: s
     });
     return Response.json(outcome, { status: 201 });
   } catch (e) {
-    return problemFromError(e);
+    return toProblem(e);
   }
 }
