@@ -1,9 +1,10 @@
 import { defineConfig } from 'drizzle-kit';
+import { dbEnv } from './lib/db-env';
 
 export default defineConfig({
   dialect: 'sqlite',
   schema: './db/schema/index.ts',
   out: './drizzle',
   casing: 'snake_case',
-  dbCredentials: { url: process.env.DATABASE_URL || 'file:./.data/ledger.db' },
+  dbCredentials: { url: dbEnv().DATABASE_URL },
 });

@@ -1,6 +1,7 @@
 import 'server-only';
 import { drizzle } from 'drizzle-orm/libsql';
 import type { Client } from '@libsql/client';
+import { dbEnv } from '@/lib/db-env';
 import { connect } from './connection';
 import * as schema from './schema';
 
@@ -15,11 +16,9 @@ export function createDb(client: Client) {
 const globalForDb = globalThis as unknown as { ledgerClient?: Client; ledgerDb?: Db };
 
 function databaseUrl(): { url: string; authToken?: string } {
-  // Read directly (not through lib/env) so scripts that only touch the database need no auth settings.
-  return {
-    url: process.env.DATABASE_URL || 'file:./.data/ledger.db',
-    authToken: process.env.DATABASE_AUTH_TOKEN || undefined,
-  };
+  // The db-only schema, so scripts that only touch the database need no auth settings.
+  const { DATABASE_URL, DATABASE_AUTH_TOKEN } = dbEnv();
+  return { url: DATABASE_URL, authToken: DATABASE_AUTH_TOKEN };
 }
 
 /** The process-wide client (kept on globalThis so dev reloads do not open a second one). */

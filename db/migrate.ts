@@ -2,6 +2,7 @@ import { fileURLToPath } from 'node:url';
 import { migrate } from 'drizzle-orm/libsql/migrator';
 import { drizzle } from 'drizzle-orm/libsql';
 import type { Client } from '@libsql/client';
+import { dbEnv } from '../lib/db-env';
 import { connect } from './connection';
 import { backfillStructuredSources } from './source-backfill';
 
@@ -14,8 +15,8 @@ export async function migrateClient(client: Client): Promise<void> {
 }
 
 async function main() {
-  const url = process.env.DATABASE_URL || 'file:./.data/ledger.db';
-  const client = connect({ url, authToken: process.env.DATABASE_AUTH_TOKEN });
+  const { DATABASE_URL: url, DATABASE_AUTH_TOKEN: authToken } = dbEnv();
+  const client = connect({ url, authToken });
   await migrateClient(client);
   client.close();
   console.log(`Migrations applied to ${url.startsWith('file:') ? url : url.replace(/\/\/.*@/, '//…@')}`);

@@ -1,18 +1,21 @@
 import { z } from 'zod';
+import { dbEnvSchema, givenEnv } from './db-env';
 
 /**
- * Typed environment. Parsed once, lazily, so that scripts which only need the
- * database do not have to provide mail or auth settings.
+ * Typed environment: every variable the app reads is declared here (and in
+ * .env.example; a test compares the two). Validated at build (scripts/check-env.ts)
+ * and at start-up (instrumentation.ts). Parsed once, lazily, so that scripts
+ * which only need the database do not have to provide mail or auth settings;
+ * the few settings tests change while a process runs are read with envValue().
  */
-const schema = z.object({
+const schema = dbEnvSchema.extend({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
-  DATABASE_URL: z.string().min(1).default('file:./.data/ledger.db'),
-  DATABASE_AUTH_TOKEN: z.string().optional(),
   BETTER_AUTH_SECRET: z.string().min(32, 'BETTER_AUTH_SECRET must be at least 32 characters'),
   BETTER_AUTH_URL: z.url().default('http://localhost:3000'),
   MAIL_FROM: z.string().min(3).default('Lattice Ledger <ledger@localhost>'),
   RESEND_API_KEY: z.string().min(1).default('re_local_fake'),
   RESEND_BASE_URL: z.url().optional(),
+  FAKE_RESEND_PORT: z.coerce.number().int().min(1).max(65535).default(3025),
   MAIL_SEND_TIMEOUT_MS: z.coerce.number().int().positive().default(10_000),
   MAIL_MAX_ATTEMPTS: z.coerce.number().int().positive().default(8),
   MAIL_WORKER_INTERVAL_MS: z.coerce.number().int().min(0).default(2_000),
@@ -22,22 +25,40 @@ const schema = z.object({
     .transform((v) => (v === undefined ? undefined : v === 'true')),
   AUTH_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(10),
+  IMPORT_MAX_BYTES: z.coerce.number({ message: 'IMPORT_MAX_BYTES must be a number of bytes.' }).int().positive('IMPORT_MAX_BYTES must be a positive whole number of bytes.').default(200 * 1024 * 1024),
+  ALERT_DEBOUNCE_MS: z.coerce.number({ message: 'ALERT_DEBOUNCE_MS must be a number of milliseconds.' }).int().min(0, 'ALERT_DEBOUNCE_MS must not be negative.').default(180_000),
+  RECOMPUTE_DEBOUNCE_MS: z.coerce.number({ message: 'RECOMPUTE_DEBOUNCE_MS must be a number of milliseconds.' }).int().min(0, 'RECOMPUTE_DEBOUNCE_MS must not be negative.').default(1_500),
 });
 
+export const ENV_SCHEMA = schema;
 export type Env = z.infer<typeof schema>;
 
 let cached: Env | undefined;
 
+function describe(error: z.ZodError): string {
+  return `Invalid environment:\n${error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}\nSee .env.example.`;
+}
+
 export function env(): Env {
   if (!cached) {
-    const parsed = schema.safeParse(process.env);
-    if (!parsed.success) {
-      const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
-      throw new Error(`Invalid environment:\n${lines}\nSee .env.example.`);
-    }
+    const parsed = schema.safeParse(givenEnv());
+    if (!parsed.success) throw new Error(describe(parsed.error));
     cached = parsed.data;
   }
   return cached;
+}
+
+/**
+ * One setting read now, with the same validation: tests and the e2e server change
+ * the debounces and the import limit while a process runs, and scripts that need
+ * one setting need not provide the others.
+ */
+export function envValue<K extends keyof Env>(name: K): Env[K] {
+  const field = schema.shape[name];
+  const raw = givenEnv()[name];
+  const parsed = field.safeParse(raw);
+  if (!parsed.success) throw new Error(`${parsed.error.issues[0]?.message ?? `${name} is invalid.`} Got "${raw}". See .env.example.`);
+  return parsed.data as Env[K];
 }
 
 /** The development mailbox page is on in development and when explicitly enabled (demo, tests). */

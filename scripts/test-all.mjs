@@ -16,6 +16,7 @@ const steps = [
   ['typecheck', 'node', ['node_modules/typescript/bin/tsc', '--noEmit']],
   ['unit', 'node', ['node_modules/vitest/vitest.mjs', 'run', '--project', 'unit']],
   ['integration', 'node', ['node_modules/vitest/vitest.mjs', 'run', '--project', 'integration']],
+  ['env', 'node', ['node_modules/tsx/dist/cli.mjs', 'scripts/check-env.ts']],
   ['build', 'node', ['node_modules/next/dist/bin/next', 'build']],
   ['e2e', 'node', ['node_modules/vitest/vitest.mjs', 'run', '--project', 'e2e']],
 ];

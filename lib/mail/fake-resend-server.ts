@@ -8,6 +8,7 @@ import { createHash, randomUUID } from 'node:crypto';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { fileURLToPath } from 'node:url';
+import { envValue } from '@/lib/env';
 
 export type Fault = '500' | '429' | 'timeout' | 'store-then-drop';
 
@@ -168,7 +169,7 @@ export async function startFakeResend(port = 0, host = '127.0.0.1'): Promise<Fak
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
-  const port = Number(process.env.FAKE_RESEND_PORT || 3025);
+  const port = envValue('FAKE_RESEND_PORT');
   startFakeResend(port).then((fake) => {
     console.log(`Fake Resend listening on ${fake.url} (mailbox: ${fake.url}/__mailbox)`);
   });

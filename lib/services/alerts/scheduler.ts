@@ -7,23 +7,8 @@ import 'server-only';
  * watcher's baseline, so nothing is lost, and the outbox's dedupe key per
  * watcher × revision means nothing is sent twice.
  */
-import { z } from 'zod';
+import { envValue } from '@/lib/env';
 import { announceBenchmark, sendDueDigests } from './announce';
-
-const debounceSchema = z.coerce
-  .number({ message: 'ALERT_DEBOUNCE_MS must be a number of milliseconds.' })
-  .int('ALERT_DEBOUNCE_MS must be a whole number of milliseconds.')
-  .min(0, 'ALERT_DEBOUNCE_MS must not be negative.')
-  .default(180_000);
-
-/** The debounce window, read at call time (tests and the e2e server set it). */
-export function alertDebounceMs(): number {
-  const raw = process.env.ALERT_DEBOUNCE_MS;
-  const parsed = debounceSchema.safeParse(raw === '' ? undefined : raw);
-  if (parsed.success) return parsed.data;
-  console.error(`[alerts] ${parsed.error.issues[0]?.message} Using the default, 3 minutes.`);
-  return 180_000;
-}
 
 interface Pending {
   timer: ReturnType<typeof setTimeout> | null;
@@ -58,7 +43,7 @@ function run(key: string, job: Pending, workspaceId: string, benchmarkId: string
 
 function arm(key: string, job: Pending, workspaceId: string, benchmarkId: string): void {
   if (job.timer) clearTimeout(job.timer);
-  job.timer = setTimeout(() => run(key, job, workspaceId, benchmarkId), alertDebounceMs());
+  job.timer = setTimeout(() => run(key, job, workspaceId, benchmarkId), envValue('ALERT_DEBOUNCE_MS'));
   job.timer.unref?.();
 }
 

@@ -13,6 +13,7 @@ import 'server-only';
  * `recomputeState` tells the page that a newer revision is being computed.
  */
 import { listBenchmarkIds } from '@/db/queries/benchmarks';
+import { envValue } from '@/lib/env';
 import type { RecomputeCause } from '@/lib/benchmark/revision-record';
 import { recomputeBenchmark } from './recompute';
 
@@ -33,8 +34,7 @@ const jobs = (store.ledgerRecomputeJobs ??= new Map<string, Job>());
 const listings = (store.ledgerRecomputeListings ??= new Map<string, number>());
 
 function debounceMs(): number {
-  const value = Number(process.env.RECOMPUTE_DEBOUNCE_MS);
-  return Number.isFinite(value) && value >= 0 ? value : 1500;
+  return envValue('RECOMPUTE_DEBOUNCE_MS');
 }
 
 function key(workspaceId: string, benchmarkId: string): string {

@@ -6,6 +6,8 @@ import type { Db } from '@/db/client';
 
 export interface DeliveryConfig {
   apiKey: string;
+  /** The provider's API base (RESEND_BASE_URL, e.g. the local fake); absent: Resend's own. */
+  baseUrl?: string;
   from: string;
   timeoutMs: number;
   maxAttempts: number;
@@ -26,7 +28,7 @@ export function backoffMs(attempts: number): number {
 
 /** One request to the provider. The outbox row id is the idempotency key, so a resend after a crash is not a second mail. */
 export async function sendOne(row: MailOutboxRow, config: DeliveryConfig): Promise<SendOutcome> {
-  const resend = new Resend(config.apiKey);
+  const resend = new Resend(config.apiKey, config.baseUrl ? { baseUrl: config.baseUrl } : undefined);
   const signal = AbortSignal.timeout(config.timeoutMs);
   const options = { idempotencyKey: row.id, signal } as { idempotencyKey: string };
   try {

@@ -7,7 +7,7 @@ const state = globalThis as unknown as { ledgerMailWorker?: { timer?: NodeJS.Tim
 
 export function deliveryConfig(): DeliveryConfig {
   const e = env();
-  return { apiKey: e.RESEND_API_KEY, from: e.MAIL_FROM, timeoutMs: e.MAIL_SEND_TIMEOUT_MS, maxAttempts: e.MAIL_MAX_ATTEMPTS };
+  return { apiKey: e.RESEND_API_KEY, baseUrl: e.RESEND_BASE_URL, from: e.MAIL_FROM, timeoutMs: e.MAIL_SEND_TIMEOUT_MS, maxAttempts: e.MAIL_MAX_ATTEMPTS };
 }
 
 /** Runs delivery passes until nothing is due; concurrent calls fold into one. */

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { listImports } from '@/db/queries/imports';
 import { AppError } from '@/lib/errors';
 import { apiRoute } from '@/lib/api/handler';
-import { importMaxBytes } from '@/lib/api/import-limit';
+import { envValue } from '@/lib/env';
 import { listRoute } from '@/lib/api/resources';
 import { importJsonBody, importCsvFile } from '@/lib/services/imports/csv-import';
 import { parseDosQuery } from '@/lib/import/dos-format';
@@ -17,7 +17,7 @@ import { limitedBody, readLimitedBody } from '@/lib/stream-limit';
  * 422 with every row error, 409 for a file already imported, 413 over IMPORT_MAX_BYTES.
  */
 export const POST = apiRoute('imports:create', z.object({}), async (request, ctx) => {
-  const maxBytes = importMaxBytes();
+  const maxBytes = envValue('IMPORT_MAX_BYTES');
   const type = (request.headers.get('content-type') ?? '').split(';')[0].trim().toLowerCase();
   const actor = { userId: ctx.createdBy, tokenId: ctx.tokenId };
   let outcome;

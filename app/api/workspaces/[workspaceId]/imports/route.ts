@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { AppError } from '@/lib/errors';
 import { workspaceRoute } from '@/lib/route';
-import { importMaxBytes } from '@/lib/api/import-limit';
+import { envValue } from '@/lib/env';
 import { toProblem } from '@/lib/errors';
 import { importCsvFile } from '@/lib/services/imports/csv-import';
 import { parseDosQuery } from '@/lib/import/dos-format';
@@ -27,7 +27,7 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
       via: 'wizard',
       kind: options.data.kind,
       fileName: options.data.fileName ?? null,
-      body: limitedBody(request, importMaxBytes()),
+      body: limitedBody(request, envValue('IMPORT_MAX_BYTES')),
       mapping: options.data.mapping,
       units: options.data.units as DefaultUnits | undefined,
     });
@@ -49,7 +49,7 @@ async function postDos(request: Request, params: URLSearchParams, workspaceId: s
       via: 'wizard',
       fileName: options.data.fileName ?? null,
       temperatures: options.data.temperatures,
-      body: limitedBody(request, importMaxBytes()),
+      body: limitedBody(request, envValue('IMPORT_MAX_BYTES')),
     });
     return Response.json(outcome, { status: 201 });
   } catch (e) {
