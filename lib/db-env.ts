@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { issuesText } from './errors';
 
 /**
  * The database settings alone, for the scripts and modules that need nothing
@@ -20,6 +21,6 @@ export function givenEnv(source: NodeJS.ProcessEnv = process.env): Record<string
 
 export function dbEnv(): DbEnv {
   const parsed = dbEnvSchema.safeParse(givenEnv());
-  if (!parsed.success) throw new Error(`Invalid database settings: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}. See .env.example.`);
+  if (!parsed.success) throw new Error(`Invalid database settings: ${issuesText(parsed.error.issues, '; ')}. See .env.example.`);
   return parsed.data;
 }

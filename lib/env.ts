@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { dbEnvSchema, givenEnv } from './db-env';
+import { issuesText } from './errors';
 
 /**
  * Typed environment: every variable the app reads is declared here (and in
@@ -36,7 +37,7 @@ export type Env = z.infer<typeof schema>;
 let cached: Env | undefined;
 
 function describe(error: z.ZodError): string {
-  return `Invalid environment:\n${error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}\nSee .env.example.`;
+  return `Invalid environment:\n  ${issuesText(error.issues, '\n  ')}\nSee .env.example.`;
 }
 
 export function env(): Env {

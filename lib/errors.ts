@@ -77,3 +77,8 @@ export function toProblem(e: unknown, options: { bearer?: boolean; headers?: Rec
   if (e.code === 'unauthorized' && options.bearer) headers['www-authenticate'] = 'Bearer realm="lattice-ledger"';
   return problemDocument(e.status, e.code, e.message, extra, headers);
 }
+
+/** zod issues as one line each: "path: message" (the path left out when the issue is about the whole value). */
+export function issuesText(issues: ReadonlyArray<{ path: ReadonlyArray<PropertyKey>; message: string }>, separator = ' '): string {
+  return issues.map((i) => (i.path.length ? `${i.path.map(String).join('.')}: ${i.message}` : i.message)).join(separator);
+}

@@ -1,33 +1,12 @@
 import 'server-only';
-import { createHash } from 'node:crypto';
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { db } from '@/db/client';
-import { calculation, importBatch, material, method, source } from '@/db/schema';
+import { calculation, importBatch, material } from '@/db/schema';
 import { writeAudit } from '@/db/queries/audit';
-import { findImportBySha, INSERT_CHUNK_ROWS, type DuplicateRow, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
-import { AppError } from '@/lib/errors';
-import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
-import { computeAllDosValues, resolveDosBlocks, type ComputedDosValue, type DosReferences } from '@/lib/import/dos-compute';
+import { duplicateFile, findImportBySha, hashOf, insertImportBatch, INSERT_CHUNK_ROWS, loadImportReferences, type DuplicateRow, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import { computeAllDosValues, resolveDosBlocks, type ComputedDosValue } from '@/lib/import/dos-compute';
 import type { DosParseResult } from '@/lib/import/dos-parse';
 import { MAX_REPORTED_ERRORS, importRefusal } from '@/lib/import/errors';
-
-/** Materials (with atoms in the cell), sources and methods by the handles a DOS file uses. */
-export async function loadDosReferences(workspaceId: string): Promise<DosReferences> {
-  const [materials, sources, methods] = await Promise.all([
-    db
-      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsInCell: material.atomsInCell })
-      .from(material)
-      .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
-    db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
-    db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), isNull(method.retractedAt))),
-  ]);
-  return {
-    // Per formula unit = per the reduced formula's unit (GaN, not Ga2N2).
-    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: atomsPerReducedFormulaUnit(m.reducedFormula), atomsInCell: m.atomsInCell }])),
-    sources: new Map(sources.map((s) => [s.key, s.id])),
-    methods: new Map(methods.map((m) => [m.label, m.id])),
-  };
-}
 
 /** Atoms in the cell of every live material, for the wizard's DOS preview. */
 export async function listAtomsInCell(workspaceId: string): Promise<Map<string, number | null>> {
@@ -43,16 +22,6 @@ export interface DosImportOutcome extends ImportOutcome {
   dosCount: number;
   temperatures: number[];
   computedCount: number;
-}
-
-const hashOf = (identity: string) => createHash('sha256').update(identity).digest('base64url');
-
-function duplicateFile(first: { id: string; fileName: string | null; status: string }): AppError {
-  return new AppError(
-    'conflict',
-    `This file was already imported${first.fileName ? ` as "${first.fileName}"` : ''} (import ${first.id}${first.status === 'undone' ? ', since undone' : ''}).`,
-    { firstImportId: first.id },
-  );
 }
 
 /**
@@ -74,7 +43,7 @@ export async function commitDosImport(args: {
   const first = await findImportBySha(workspaceId, file.sha256);
   if (first) throw duplicateFile(first);
 
-  const references = await loadDosReferences(workspaceId);
+  const references = await loadImportReferences(workspaceId);
   const { resolved, errors, errorCount } = resolveDosBlocks(parsed.blocks, references, (key) => parsed.columnNames[key] ?? key);
   const totalErrors = parsed.errorCount + errorCount;
   if (totalErrors > 0) {
@@ -90,26 +59,7 @@ export async function commitDosImport(args: {
   let insertedCount = 0;
 
   await db.transaction(async (tx) => {
-    try {
-      await tx.insert(importBatch).values({
-        id: importId,
-        workspaceId,
-        kind: 'dos',
-        fileName: file.fileName,
-        sha256: file.sha256,
-        byteCount: file.byteCount,
-        rowCount: parsed.rowCount,
-        insertedCount: 0,
-        duplicateCount: 0,
-        via: file.via,
-        createdBy: actor.userId,
-        createdByToken: actor.tokenId,
-      });
-    } catch (e) {
-      const again = await findImportBySha(workspaceId, file.sha256);
-      if (again) throw duplicateFile(again);
-      throw e;
-    }
+    await insertImportBatch(tx, { id: importId, workspaceId, kind: 'dos', fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount: parsed.rowCount, via: file.via }, actor);
 
     const hashed = values.map((v) => ({ v, hash: hashOf(v.identity) }));
     const known = new Set<string>();

@@ -2,7 +2,7 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import type { Client, InValue, Transaction } from '@libsql/client';
 import { and, count, desc, eq, isNull } from 'drizzle-orm';
-import { createDb, db, getClient } from '@/db/client';
+import { createDb, db, getClient, type Executor } from '@/db/client';
 import { apiToken, calculation, importBatch, material, measurement, method, source, user, type ImportBatch } from '@/db/schema';
 import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
@@ -12,6 +12,7 @@ import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/
 import { ModeSetTally, type ImportWarning } from '@/lib/import/mode-set-warnings';
 import type { ImportTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
+import type { DosReferences } from '@/lib/import/dos-compute';
 import { modeSetFacts, validateRow, type ImportReferences, type ValidRow } from '@/lib/import/validate-row';
 
 /** Who commits an import: a member through the wizard, or a pipeline through an API token. */
@@ -48,8 +49,8 @@ export interface ImportOutcome {
 /** Rows per multi-row INSERT (26 columns × 500 stays far below SQLite's variable limit). */
 export const INSERT_CHUNK_ROWS = 500;
 
-/** The handles an import may use, for validation on the server and in the browser. */
-export async function loadImportReferences(workspaceId: string): Promise<ImportReferences> {
+/** The handles an import (CSV, JSON rows or DOS) may use, for validation on the server and in the browser. */
+export async function loadImportReferences(workspaceId: string): Promise<ImportReferences & DosReferences> {
   const [materials, sources, methods] = await Promise.all([
     db
       .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsInCell: material.atomsInCell })
@@ -75,12 +76,31 @@ export async function findImportBySha(workspaceId: string, sha256: string) {
   return rows[0] ?? null;
 }
 
-function duplicateFile(first: { id: string; fileName: string | null; status: string }): AppError {
+/** The refusal of a file whose bytes were imported before (the sha256 is unique per workspace). */
+export function duplicateFile(first: { id: string; fileName: string | null; status: string }): AppError {
   return new AppError(
     'conflict',
     `This file was already imported${first.fileName ? ` as "${first.fileName}"` : ''} (import ${first.id}${first.status === 'undone' ? ', since undone' : ''}).`,
     { firstImportId: first.id },
   );
+}
+
+/**
+ * Writes the import's own row first in its transaction. A concurrent import of
+ * the same bytes loses on the unique sha256 and is refused as a duplicate file.
+ */
+export async function insertImportBatch(
+  tx: Executor,
+  batch: { id: string; workspaceId: string; kind: ImportBatch['kind']; fileName: string | null; sha256: string; byteCount: number; rowCount: number; via: ImportBatch['via'] },
+  actor: ImportActor,
+): Promise<void> {
+  try {
+    await tx.insert(importBatch).values({ ...batch, insertedCount: 0, duplicateCount: 0, createdBy: actor.userId, createdByToken: actor.tokenId });
+  } catch (e) {
+    const again = await findImportBySha(batch.workspaceId, batch.sha256);
+    if (again) throw duplicateFile(again);
+    throw e;
+  }
 }
 
 const COMMON_COLUMNS = [
@@ -161,7 +181,8 @@ function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, co
   else out.push(v.methodId, v.modeIndex);
 }
 
-const hashOf = (identity: string) => createHash('sha256').update(identity).digest('base64url');
+/** A stored row's identity hash: the same for a typed-in row and a DOS-computed one with the same content. */
+export const hashOf = (identity: string) => createHash('sha256').update(identity).digest('base64url');
 
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
@@ -234,26 +255,7 @@ export async function commitImport(args: {
   };
 
   try {
-    try {
-      await tx.insert(importBatch).values({
-        id: importId,
-        workspaceId,
-        kind: file.kind,
-        fileName: file.fileName,
-        sha256: file.sha256,
-        byteCount: file.byteCount,
-        rowCount: 0,
-        insertedCount: 0,
-        duplicateCount: 0,
-        via: file.via,
-        createdBy: actor.userId,
-        createdByToken: actor.tokenId,
-      });
-    } catch (e) {
-      const again = await findImportBySha(workspaceId, file.sha256);
-      if (again) throw duplicateFile(again);
-      throw e;
-    }
+    await insertImportBatch(tx, { id: importId, workspaceId, kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount: 0, via: file.via }, actor);
 
     const seenInChunk = new Set<string>();
     for await (const rows of table.batches()) {

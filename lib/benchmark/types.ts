@@ -4,7 +4,7 @@
  * plain JSON.
  */
 import type { BenchmarkQuantity, BenchmarkRules } from './schemas';
-import type { QualityThresholds, WilcoxonResult } from '@/lib/science';
+import type { ErrorStatistics, QualityThresholds, WilcoxonResult } from '@/lib/science';
 
 export interface ScopeMeasurement {
   id: string;
@@ -101,39 +101,15 @@ export interface BenchmarkInput {
   dielectric?: ScopeDielectric[];
 }
 
-/** Statistics of a group of pairs, as stored (errorStatistics without the index). */
-export interface StoredStatistics {
-  meanSignedError: number;
-  meanAbsoluteError: number;
-  rootMeanSquareError: number;
-  standardDeviation: number;
-  medianAbsoluteError: number;
-  p95AbsoluteError: number;
-  maxAbsoluteError: number;
+/**
+ * Statistics of a group of pairs as a revision stores them: errorStatistics with
+ * the worst pair's key in place of its index. meanAbsoluteRelativeError is
+ * optional because revisions computed before it existed lack it.
+ */
+export type StoredStatistics = Omit<ErrorStatistics, 'n' | 'maxAbsoluteErrorIndex' | 'meanAbsoluteRelativeError'> & {
   maxAbsoluteErrorPair: string;
-  meanAbsolutePercentageError: number;
-  /** Absent on revisions computed before it existed. */
   meanAbsoluteRelativeError?: number;
-  scaleFactor: number;
-  rmseAfterScaling: number;
-  /** λ fitted without the pair's own material (leave one material out). */
-  rmseAfterScalingOutOfSample?: number;
-  reducedChiSquare?: number;
-  chiSquarePairs?: number;
-  clusterCount?: number;
-  pearsonR: number;
-  concordance: number;
-  blandAltman: { bias: number; lower: number; upper: number };
-  bootstrap?: {
-    confidence: number;
-    meanAbsoluteError: [number, number];
-    meanSignedError: [number, number];
-    resampled?: 'pairs' | 'clusters';
-    clusterCount?: number;
-  };
-  withinOneSigma?: number;
-  withinTwoSigma?: number;
-}
+};
 
 /** One pair (or, for an entropy benchmark, one measured/computed entropy couple). */
 export interface PairRecord {

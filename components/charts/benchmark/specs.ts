@@ -8,21 +8,10 @@
  * links a table of its points instead.
  */
 import type { TopLevelSpec } from 'vega-lite';
+import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 
-export interface ParityPoint {
-  key: string;
-  method: string;
-  material: string;
-  label: string;
-  measured: number;
-  calculated: number;
-  error: number;
-  mean: number;
-  uMeasured: number | null;
-  excluded: boolean;
-  outlier: boolean;
-  citation: string;
-}
+/** A pair as the plots draw it: the pairs endpoint's plot point; the method id is not drawn. */
+export type ParityPoint = Omit<PlotPoint, 'methodId'>;
 
 /** Above this many marks the browser draws on a canvas (SVG with tens of thousands of nodes stalls). */
 export const CANVAS_THRESHOLD = 5000;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { listImports } from '@/db/queries/imports';
-import { AppError } from '@/lib/errors';
+import { AppError, issuesText } from '@/lib/errors';
 import { apiRoute } from '@/lib/api/handler';
 import { envValue } from '@/lib/env';
 import { listRoute } from '@/lib/api/resources';
@@ -27,7 +27,7 @@ export const POST = apiRoute('imports:create', z.object({}), async (request, ctx
     const url = new URL(request.url);
     if (url.searchParams.get('kind') === 'dos') {
       const dos = parseDosQuery(url.searchParams);
-      if (!dos.success) throw new AppError('bad-request', dos.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
+      if (!dos.success) throw new AppError('bad-request', issuesText(dos.error.issues));
       outcome = await importDosFile({
         workspaceId: ctx.workspaceId,
         actor,
@@ -39,7 +39,7 @@ export const POST = apiRoute('imports:create', z.object({}), async (request, ctx
       return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
     }
     const query = importKindQuerySchema.safeParse({ kind: url.searchParams.get('kind') ?? undefined, fileName: url.searchParams.get('fileName') ?? undefined });
-    if (!query.success) throw new AppError('bad-request', query.error.issues.map((i) => i.message).join(' '));
+    if (!query.success) throw new AppError('bad-request', issuesText(query.error.issues));
     outcome = await importCsvFile({
       workspaceId: ctx.workspaceId,
       actor,

@@ -1,8 +1,7 @@
 import { z } from 'zod';
-import { AppError } from '@/lib/errors';
 import { workspaceRoute } from '@/lib/route';
 import { envValue } from '@/lib/env';
-import { toProblem } from '@/lib/errors';
+import { AppError, issuesText, toProblem } from '@/lib/errors';
 import { importCsvFile } from '@/lib/services/imports/csv-import';
 import { parseDosQuery } from '@/lib/import/dos-format';
 import { importDosFile } from '@/lib/services/imports/dos-import';
@@ -19,7 +18,7 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
   const params = new URL(request.url).searchParams;
   if (params.get('kind') === 'dos') return postDos(request, params, ctx.workspace.id, ctx.user.id);
   const options = parseWizardQuery(params);
-  if (!options.success) throw new AppError('bad-request', options.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
+  if (!options.success) throw new AppError('bad-request', issuesText(options.error.issues));
   try {
     const outcome = await importCsvFile({
       workspaceId: ctx.workspace.id,
@@ -41,7 +40,7 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
 /** A phonon DOS file (?kind=dos&temperatures=…): entropies and heat capacities computed and stored as calculations. */
 async function postDos(request: Request, params: URLSearchParams, workspaceId: string, userId: string): Promise<Response> {
   const options = parseDosQuery(params);
-  if (!options.success) throw new AppError('bad-request', options.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join(' '));
+  if (!options.success) throw new AppError('bad-request', issuesText(options.error.issues));
   try {
     const outcome = await importDosFile({
       workspaceId,
