@@ -6,7 +6,6 @@ import { roleCan } from '@/lib/permissions';
 import { getMaterial } from '@/db/queries/materials';
 import { getMaterialValues } from '@/db/queries/material-values';
 import { buttonClass } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
 import { FieldList } from '@/components/ui/field-list';
 import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
@@ -16,10 +15,9 @@ import { MaterialDiscussion, loadMaterialThreads } from '../_components/material
 import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
 import { QualityFlags } from '@/components/quality/quality-flags';
 import { loadMaterialQuality } from '@/app/(app)/w/[workspace]/materials/_components/load-material-quality';
+import { RecordDates, RetractedNotice } from '../../_components/record-pages';
 
 export const metadata: Metadata = { title: 'Material' };
-
-const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 export default async function MaterialPage({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ method?: string }> }) {
   const { workspace, id } = await params;
@@ -54,7 +52,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
           <h1>
             {m.name} {m.displayName && <span className="font-normal text-ink-muted">· {m.displayName}</span>}
           </h1>
-          <p className="text-xs text-ink-faint">Added {dateFormat.format(m.createdAt)}{m.updatedAt ? ` · edited ${dateFormat.format(m.updatedAt)}` : ''}</p>
+          <RecordDates createdAt={m.createdAt} updatedAt={m.updatedAt} />
         </div>
         <div className="flex gap-2">
           {!m.retractedAt && roleCan(ctx.role, 'materials:update') && (
@@ -73,11 +71,7 @@ export default async function MaterialPage({ params, searchParams }: { params: P
           {!m.retractedAt && <AddToDeck workspaceId={ctx.workspace.id} kinds={['material']} filters={{ materialId: m.id, methodId: selectedMethodId }} defaultTitle={m.name} />}
         </div>
       </header>
-      {m.retractedAt && (
-        <Notice tone="warn">
-          Retracted {dateFormat.format(m.retractedAt)}: {m.retractionReason}
-        </Notice>
-      )}
+      <RetractedNotice at={m.retractedAt} reason={m.retractionReason} />
       <Panel title="Material">
         <FieldList fields={fields} />
       </Panel>

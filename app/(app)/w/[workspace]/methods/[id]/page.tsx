@@ -7,15 +7,14 @@ import { formatGrid, kPointDensity } from '@/lib/catalog/k-point-density';
 import { APPROACH_LABELS } from '@/lib/catalog/method-schema';
 import { getMethod, listMaterialsOfMethod } from '@/db/queries/methods';
 import { buttonClass } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
 import { FieldList } from '@/components/ui/field-list';
 import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMethodAction, retractMethodAction } from '../actions';
+import { RecordDates, RetractedNotice } from '../../_components/record-pages';
 
 export const metadata: Metadata = { title: 'Method' };
 
-const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 const int = new Intl.NumberFormat('en-GB');
 
 export default async function MethodPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
@@ -45,7 +44,7 @@ export default async function MethodPage({ params }: { params: Promise<{ workspa
       <header className="flex flex-wrap items-start justify-between gap-3">
         <div>
           <h1>{m.label}</h1>
-          <p className="text-xs text-ink-faint">Added {dateFormat.format(m.createdAt)}{m.updatedAt ? ` · edited ${dateFormat.format(m.updatedAt)}` : ''}</p>
+          <RecordDates createdAt={m.createdAt} updatedAt={m.updatedAt} />
         </div>
         <div className="flex gap-2">
           {!m.retractedAt && roleCan(ctx.role, 'methods:update') && (
@@ -58,11 +57,7 @@ export default async function MethodPage({ params }: { params: Promise<{ workspa
           </Link>
         </div>
       </header>
-      {m.retractedAt && (
-        <Notice tone="warn">
-          Retracted {dateFormat.format(m.retractedAt)}: {m.retractionReason}
-        </Notice>
-      )}
+      <RetractedNotice at={m.retractedAt} reason={m.retractionReason} />
       <Panel title="Recipe">
         <FieldList fields={fields} columns="sm:grid-cols-2 lg:grid-cols-3" />
         {m.notes && <p className="mt-3 whitespace-pre-line border-t border-rule pt-3 text-sm text-ink-muted">{m.notes}</p>}

@@ -18,10 +18,9 @@ import { Panel } from '@/components/ui/panel';
 import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreSourceAction, retractSourceAction } from '../actions';
+import { RetractedNotice } from '../../_components/record-pages';
 
 export const metadata: Metadata = { title: 'Source' };
-
-const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 export default async function SourcePage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
   const { workspace, id } = await params;
@@ -95,11 +94,7 @@ export default async function SourcePage({ params }: { params: Promise<{ workspa
           </Link>
         </div>
       </header>
-      {s.retractedAt && (
-        <Notice tone="warn">
-          Retracted {dateFormat.format(s.retractedAt)}: {s.retractionReason}
-        </Notice>
-      )}
+      <RetractedNotice at={s.retractedAt} reason={s.retractionReason} />
       {gaps && (
         <Notice tone="warn">
           {gaps} Values citing it are marked in tables and benchmarks until it is completed.
