@@ -31,7 +31,8 @@ const { connect } = await import('../db/connection');
 const { migrateClient } = await import('../db/migrate');
 const schema = await import('../db/schema');
 const { importCsvFile } = await import('../lib/services/imports/csv-import');
-const { INSERT_CHUNK_ROWS, multiRowInsertSql, valueTableOf } = await import('../db/queries/imports');
+const { multiRowInsertSql, valueTableOf } = await import('../db/queries/imports');
+const { INSERT_CHUNK_ROWS } = await import('../lib/import/row-validator');
 
 function mb(bytes: number): string {
   return `${(bytes / 1024 / 1024).toFixed(0)} MB`;

@@ -3,10 +3,10 @@ import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { calculation, importBatch, material } from '@/db/schema';
 import { writeAudit } from '@/db/queries/audit';
-import { duplicateFile, findImportBySha, hashOf, insertImportBatch, INSERT_CHUNK_ROWS, loadImportReferences, type DuplicateRow, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
-import { computeAllDosValues, resolveDosBlocks, type ComputedDosValue } from '@/lib/import/dos-compute';
-import type { DosParseResult } from '@/lib/import/dos-parse';
-import { MAX_REPORTED_ERRORS, importRefusal } from '@/lib/import/errors';
+import { insertImportBatch, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import { INSERT_CHUNK_ROWS, rowHash, type DuplicateRow } from '@/lib/import/row-validator';
+import type { ComputedDosValue } from '@/lib/import/dos-compute';
+import { MAX_REPORTED_ERRORS } from '@/lib/import/errors';
 
 /** Atoms in the cell of every live material, for the wizard's DOS preview. */
 export async function listAtomsInCell(workspaceId: string): Promise<Map<string, number | null>> {
@@ -25,43 +25,33 @@ export interface DosImportOutcome extends ImportOutcome {
 }
 
 /**
- * Stores the entropies and heat capacities computed from a parsed DOS file, with
- * its import record (kind 'dos') and one audit row, in ONE transaction. Any row
- * error, unknown handle, material without atoms in the cell or a duplicate file
- * refuses the whole file before anything is written. Values identical to live
- * calculation rows are skipped and reported (same row hash as typed-in rows).
- * `rowCount` counts the file's data rows; `insertedCount` the calculation rows stored.
+ * Stores the entropies and heat capacities computed from a DOS file, with its
+ * import record (kind 'dos') and one audit row, in ONE transaction. Values
+ * identical to live calculation rows are skipped and reported (same row hash as
+ * typed-in rows). A concurrent import of the same bytes is refused as a duplicate file.
  */
-export async function commitDosImport(args: {
+export async function storeDosValues(args: {
   workspaceId: string;
   actor: ImportActor;
   file: { fileName: string | null; sha256: string; byteCount: number; via: 'wizard' | 'api' };
-  parsed: DosParseResult;
-  temperatures: number[];
-}): Promise<DosImportOutcome> {
-  const { workspaceId, actor, file, parsed, temperatures } = args;
-  const first = await findImportBySha(workspaceId, file.sha256);
-  if (first) throw duplicateFile(first);
-
-  const references = await loadImportReferences(workspaceId);
-  const { resolved, errors, errorCount } = resolveDosBlocks(parsed.blocks, references, (key) => parsed.columnNames[key] ?? key);
-  const totalErrors = parsed.errorCount + errorCount;
-  if (totalErrors > 0) {
-    const all = [...parsed.errors, ...errors].sort((a, b) => a.row - b.row).slice(0, MAX_REPORTED_ERRORS);
-    throw importRefusal(`Nothing was imported: ${totalErrors} ${totalErrors === 1 ? 'error' : 'errors'} in the file.`, all, totalErrors);
-  }
-  const values = computeAllDosValues(resolved, temperatures);
-  const rowOfBlock = resolved.map((r) => r.block.firstRow);
-
+  /** The file's data rows. */
+  rowCount: number;
+  values: readonly ComputedDosValue[];
+  /** The file row each value's DOS block starts at, by block index (for the duplicate report). */
+  rowOfBlock: readonly number[];
+  /** What the audit row records about the file beyond the counts (temperatures, the DOS blocks). */
+  auditDetails: Record<string, unknown>;
+}): Promise<Pick<ImportOutcome, 'importId' | 'insertedCount' | 'duplicateCount' | 'duplicates'>> {
+  const { workspaceId, actor, file, values, rowOfBlock } = args;
   const importId = crypto.randomUUID();
   const duplicates: DuplicateRow[] = [];
   let duplicateCount = 0;
   let insertedCount = 0;
 
   await db.transaction(async (tx) => {
-    await insertImportBatch(tx, { id: importId, workspaceId, kind: 'dos', fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount: parsed.rowCount, via: file.via }, actor);
+    await insertImportBatch(tx, { id: importId, workspaceId, kind: 'dos', fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount: args.rowCount, via: file.via }, actor);
 
-    const hashed = values.map((v) => ({ v, hash: hashOf(v.identity) }));
+    const hashed = values.map((v) => ({ v, hash: rowHash(v.identity) }));
     const known = new Set<string>();
     for (let i = 0; i < hashed.length; i += INSERT_CHUNK_ROWS) {
       const chunk = hashed.slice(i, i + INSERT_CHUNK_ROWS).map((h) => h.hash);
@@ -121,15 +111,14 @@ export async function commitDosImport(args: {
         fileName: file.fileName,
         sha256: file.sha256,
         byteCount: file.byteCount,
-        rowCount: parsed.rowCount,
+        rowCount: args.rowCount,
         insertedCount,
         duplicateCount,
         via: file.via,
-        temperatures,
-        dos: resolved.map((r) => ({ material: r.block.material, method: r.block.method, points: r.block.frequency.length, formulaUnitsPerCell: r.formulaUnitsPerCell })),
+        ...args.auditDetails,
       },
     });
   });
 
-  return { importId, rowCount: parsed.rowCount, insertedCount, duplicateCount, duplicates, dosCount: resolved.length, temperatures, computedCount: values.length };
+  return { importId, insertedCount, duplicateCount, duplicates };
 }

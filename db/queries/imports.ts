@@ -1,5 +1,4 @@
 import 'server-only';
-import { createHash } from 'node:crypto';
 import type { Client, InValue, Transaction } from '@libsql/client';
 import { and, count, desc, eq, isNull } from 'drizzle-orm';
 import { createDb, db, getClient, type Executor } from '@/db/client';
@@ -8,12 +7,10 @@ import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
 import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
 import type { ImportableKind } from '@/lib/import/columns';
-import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/errors';
-import { ModeSetTally, type ImportWarning } from '@/lib/import/mode-set-warnings';
-import type { ImportTable } from '@/lib/import/table';
-import type { DefaultUnits } from '@/lib/import/units';
+import type { ImportWarning } from '@/lib/import/mode-set-warnings';
+import type { DuplicateRow, PendingRow } from '@/lib/import/row-validator';
 import type { DosReferences } from '@/lib/import/dos-compute';
-import { modeSetFacts, validateRow, type ImportReferences, type ValidRow } from '@/lib/import/validate-row';
+import type { ImportReferences } from '@/lib/import/validate-row';
 
 /** Who commits an import: a member through the wizard, or a pipeline through an API token. */
 export interface ImportActor {
@@ -29,11 +26,6 @@ export interface ImportFileFacts {
   via: 'wizard' | 'api' | 'form';
 }
 
-export interface DuplicateRow {
-  row: number;
-  reason: string;
-}
-
 export interface ImportOutcome {
   importId: string;
   rowCount: number;
@@ -45,9 +37,6 @@ export interface ImportOutcome {
   warnings?: ImportWarning[];
   warningCount?: number;
 }
-
-/** Rows per multi-row INSERT (26 columns × 500 stays far below SQLite's variable limit). */
-export const INSERT_CHUNK_ROWS = 500;
 
 /** The handles an import (CSV, JSON rows or DOS) may use, for validation on the server and in the browser. */
 export async function loadImportReferences(workspaceId: string): Promise<ImportReferences & DosReferences> {
@@ -147,12 +136,6 @@ export function multiRowInsertSql(table: string, columns: readonly string[], n: 
   return sql;
 }
 
-interface PendingRow {
-  row: number;
-  hash: string;
-  valid: ValidRow;
-}
-
 function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, contributorId: string | null, p: PendingRow, out: InValue[]): void {
   const v = p.valid;
   out.push(
@@ -181,141 +164,90 @@ function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, co
   else out.push(v.methodId, v.modeIndex);
 }
 
-/** A stored row's identity hash: the same for a typed-in row and a DOS-computed one with the same content. */
-export const hashOf = (identity: string) => createHash('sha256').update(identity).digest('base64url');
-
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
-/**
- * Validates every row of the table and stores them with their import record and
- * one audit row in ONE transaction: any row error, a duplicate file or any
- * failure rolls everything back. Valid rows are inserted in multi-row chunks as
- * they are read (yielding to the event loop between chunks); once an error is
- * seen, inserting stops but validation goes on so that every error is reported.
- * Rows identical to live rows of the workspace (or to earlier rows of the same
- * file) are skipped and reported.
- */
-export async function commitImport(args: {
-  workspaceId: string;
-  actor: ImportActor;
-  file: ImportFileFacts;
-  table: ImportTable;
-  units?: DefaultUnits;
-}): Promise<ImportOutcome> {
-  const { workspaceId, actor, file, table } = args;
-  const first = await findImportBySha(workspaceId, file.sha256);
-  if (first) throw duplicateFile(first);
-  const references = await loadImportReferences(workspaceId);
-  const ctx = { kind: file.kind, references, units: args.units, columnName: (key: string) => table.columnName(key) };
-  const { table: tableName, columns } = valueTableOf(file.kind);
-  const contributorId = actor.userId;
+/** A value import in progress: one write transaction from its import row to its audit row. */
+export interface ValueImportWriter {
+  importId: string;
+  /** Stores the rows not identical to a live row of the workspace (earlier chunks of this file included); returns the skipped ones. */
+  insertValueRows(rows: readonly PendingRow[]): Promise<{ inserted: number; identical: Array<{ row: number; sameFile: boolean }> }>;
+  /** Records the counts and the audit row, and commits. */
+  commit(counts: { rowCount: number; insertedCount: number; duplicateCount: number }): Promise<void>;
+  /** Rolls everything back (nothing of the import stays). */
+  abort(): Promise<void>;
+}
 
+/**
+ * Opens the write transaction of a measurements or calculations import and
+ * writes its import row (a concurrent import of the same bytes is refused as a
+ * duplicate file). The import service validates the rows and hands them over in
+ * chunks; any failure before commit() rolls everything back.
+ */
+export async function openValueImport(workspaceId: string, actor: ImportActor, file: ImportFileFacts): Promise<ValueImportWriter> {
+  const { table: tableName, columns } = valueTableOf(file.kind);
   const raw: Transaction = await getClient().transaction('write');
   const tx = createDb(raw as unknown as Client);
   const importId = crypto.randomUUID();
-  const errors: RowError[] = [];
-  let errorCount = 0;
-  const duplicates: DuplicateRow[] = [];
-  let duplicateCount = 0;
-  let rowCount = 0;
-  let insertedCount = 0;
-  let pending: PendingRow[] = [];
-  const tally = new ModeSetTally();
-
-  const flush = async () => {
-    if (pending.length === 0) return;
-    const batch = pending;
-    pending = [];
-    // Identical rows already stored (including earlier chunks of this file, visible inside the transaction).
-    const existing = await raw.execute({
-      sql: `SELECT row_hash, import_id FROM ${tableName} WHERE workspace_id = ? AND retracted_at IS NULL AND row_hash IN (${batch.map(() => '?').join(',')})`,
-      args: [workspaceId, ...batch.map((p) => p.hash)],
-    });
-    const known = new Map<string, string | null>();
-    for (const r of existing.rows) known.set(r[0] as string, (r[1] as string | null) ?? null);
-    const fresh: PendingRow[] = [];
-    for (const p of batch) {
-      if (known.has(p.hash)) {
-        duplicateCount++;
-        if (duplicates.length < MAX_REPORTED_ERRORS) {
-          duplicates.push({
-            row: p.row,
-            reason: known.get(p.hash) === importId ? 'Identical to an earlier row of this file; skipped.' : 'Identical to a row already in the workspace; skipped.',
-          });
-        }
-      } else fresh.push(p);
-    }
-    if (fresh.length) {
-      const values: InValue[] = [];
-      for (const p of fresh) rowArgs(file.kind, workspaceId, importId, contributorId, p, values);
-      await raw.execute({ sql: multiRowInsertSql(tableName, columns, fresh.length), args: values });
-      insertedCount += fresh.length;
-    }
-    await yieldToEventLoop();
+  let closed = false;
+  const close = () => {
+    if (!closed) raw.close();
+    closed = true;
   };
-
   try {
     await insertImportBatch(tx, { id: importId, workspaceId, kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount: 0, via: file.via }, actor);
-
-    const seenInChunk = new Set<string>();
-    for await (const rows of table.batches()) {
-      for (const r of rows) {
-        rowCount++;
-        if (r.error) {
-          errorCount++;
-          if (errors.length < MAX_REPORTED_ERRORS) errors.push(r.error);
-          continue;
-        }
-        const before = errors.length;
-        const valid = validateRow(r.row, r.read, ctx, errors);
-        if (!valid) {
-          errorCount += Math.max(1, errors.length - before);
-          if (errors.length > MAX_REPORTED_ERRORS) errors.length = MAX_REPORTED_ERRORS;
-          continue;
-        }
-        if (errorCount > 0) continue;
-        tally.add(r.row, valid);
-        const hash = hashOf(valid.identity);
-        if (seenInChunk.has(hash)) {
-          duplicateCount++;
-          if (duplicates.length < MAX_REPORTED_ERRORS) duplicates.push({ row: r.row, reason: 'Identical to an earlier row of this file; skipped.' });
-          continue;
-        }
-        seenInChunk.add(hash);
-        pending.push({ row: r.row, hash, valid });
-        if (pending.length >= INSERT_CHUNK_ROWS) {
-          await flush();
-          seenInChunk.clear();
-        }
-      }
-    }
-    if (errorCount > 0) {
-      const plural = errorCount === 1 ? 'error' : 'errors';
-      throw importRefusal(`Nothing was imported: ${errorCount} ${plural} in ${table.format === 'csv' ? 'the file' : 'the rows'}.`, errors, errorCount);
-    }
-    await flush();
-
-    await tx
-      .update(importBatch)
-      .set({ rowCount, insertedCount, duplicateCount })
-      .where(eq(importBatch.id, importId));
-    await writeAudit(tx, {
-      workspaceId,
-      actor,
-      action: 'import',
-      entityType: 'import',
-      entityId: importId,
-      after: { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount, insertedCount, duplicateCount, via: file.via },
-    });
-    await raw.commit();
   } catch (e) {
     await raw.rollback().catch(() => undefined);
+    close();
     throw e;
-  } finally {
-    raw.close();
   }
-  const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
-  return { importId, rowCount, insertedCount, duplicateCount, duplicates, warnings, warningCount };
+  return {
+    importId,
+    async insertValueRows(rows) {
+      if (rows.length === 0) return { inserted: 0, identical: [] };
+      const existing = await raw.execute({
+        sql: `SELECT row_hash, import_id FROM ${tableName} WHERE workspace_id = ? AND retracted_at IS NULL AND row_hash IN (${rows.map(() => '?').join(',')})`,
+        args: [workspaceId, ...rows.map((p) => p.hash)],
+      });
+      const known = new Map<string, string | null>();
+      for (const r of existing.rows) known.set(r[0] as string, (r[1] as string | null) ?? null);
+      const identical: Array<{ row: number; sameFile: boolean }> = [];
+      const fresh: PendingRow[] = [];
+      for (const p of rows) {
+        if (known.has(p.hash)) identical.push({ row: p.row, sameFile: known.get(p.hash) === importId });
+        else fresh.push(p);
+      }
+      if (fresh.length) {
+        const values: InValue[] = [];
+        for (const p of fresh) rowArgs(file.kind, workspaceId, importId, actor.userId, p, values);
+        await raw.execute({ sql: multiRowInsertSql(tableName, columns, fresh.length), args: values });
+      }
+      await yieldToEventLoop();
+      return { inserted: fresh.length, identical };
+    },
+    async commit(counts) {
+      try {
+        await tx.update(importBatch).set(counts).where(eq(importBatch.id, importId));
+        await writeAudit(tx, {
+          workspaceId,
+          actor,
+          action: 'import',
+          entityType: 'import',
+          entityId: importId,
+          after: { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, ...counts, via: file.via },
+        });
+        await raw.commit();
+      } catch (e) {
+        await raw.rollback().catch(() => undefined);
+        throw e;
+      } finally {
+        close();
+      }
+    },
+    async abort() {
+      await raw.rollback().catch(() => undefined);
+      close();
+    },
+  };
 }
 
 /**

@@ -1,6 +1,7 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
-import { commitImport, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import type { ImportActor, ImportOutcome } from '@/db/queries/imports';
+import { commitImport } from './commit-values';
 import { dataChanged } from '@/lib/services/data-changed';
 import { entryName, entryRow, type SingleEntryInput } from '@/lib/import/single-entry';
 import { jsonTable } from '@/lib/import/table';

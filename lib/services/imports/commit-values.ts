@@ -1,0 +1,41 @@
+import 'server-only';
+/**
+ * Committing a measurements or calculations import: the rows are validated as
+ * they stream in (lib/import/row-validator) and stored in chunks inside ONE
+ * write transaction with the import row and its audit row (db/queries/imports).
+ * Any row error, a duplicate file or any failure rolls everything back; once an
+ * error is seen nothing more is stored, but validation goes on so that every
+ * error is counted. Rows identical to live rows of the workspace (or to earlier
+ * rows of the same file) are skipped and reported.
+ */
+import { duplicateFile, findImportBySha, loadImportReferences, openValueImport, type ImportActor, type ImportFileFacts, type ImportOutcome } from '@/db/queries/imports';
+import { RowValidator } from '@/lib/import/row-validator';
+import type { ImportTable } from '@/lib/import/table';
+import type { DefaultUnits } from '@/lib/import/units';
+
+export async function commitImport(args: { workspaceId: string; actor: ImportActor; file: ImportFileFacts; table: ImportTable; units?: DefaultUnits }): Promise<ImportOutcome> {
+  const { workspaceId, actor, file, table } = args;
+  const first = await findImportBySha(workspaceId, file.sha256);
+  if (first) throw duplicateFile(first);
+  const references = await loadImportReferences(workspaceId);
+  const validator = new RowValidator({ kind: file.kind, references, units: args.units, columnName: (key: string) => table.columnName(key) }, references);
+  const writer = await openValueImport(workspaceId, actor, file);
+  let insertedCount = 0;
+  const store = async (rows: Parameters<typeof writer.insertValueRows>[0]) => {
+    const { inserted, identical } = await writer.insertValueRows(rows);
+    insertedCount += inserted;
+    for (const d of identical) validator.skipDuplicate(d.row, d.sameFile ? 'Identical to an earlier row of this file; skipped.' : 'Identical to a row already in the workspace; skipped.');
+  };
+  try {
+    for await (const rows of table.batches()) {
+      for (const chunk of validator.accept(rows)) await store(chunk);
+    }
+    await store(validator.finish(table.format));
+    await writer.commit({ rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount });
+  } catch (e) {
+    await writer.abort();
+    throw e;
+  }
+  const { warnings, warningCount } = validator.warnings();
+  return { importId: writer.importId, rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount, duplicates: validator.duplicates, warnings, warningCount };
+}
