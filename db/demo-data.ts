@@ -149,7 +149,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
       .values({ workspaceId, ...fields, createdBy: userId })
       .returning({ id: source.id });
     sourceIds.set(s.citeKey, row.id);
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: fields, reason: 'demo seed' });
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: fields, reason: 'demo seed' }, tx);
   }
 
   const materialIds = new Map<string, { id: string; atomsPerFormulaUnit: number }>();
@@ -174,7 +174,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     materialIds.set(m.name, { id: row.id, atomsPerFormulaUnit: parsed.atomsPerFormulaUnit });
     const tags = m.tags.split(';').map((t) => t.trim()).filter(Boolean);
     if (tags.length) await tx.insert(materialTag).values(tags.map((tag) => ({ materialId: row.id, workspaceId, tag })));
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after: m, reason: 'demo seed' });
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after: m, reason: 'demo seed' }, tx);
   }
 
   const need = <K, V>(map: Map<K, V>, key: K, what: string): V => {
@@ -251,7 +251,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
         createdBy: userId,
       })
       .returning({ id: method.id });
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'method', entityId: row.id, after: spec, reason: 'demo seed' });
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'method', entityId: row.id, after: spec, reason: 'demo seed' }, tx);
 
     const values: Array<typeof calculation.$inferInsert> = [];
     for (const m of materials) {

@@ -28,10 +28,10 @@ function createAuth() {
       // A sign-up with a used address answers like a new one (no account enumeration);
       // the owner of the address is told by e-mail instead.
       onExistingUserSignUp: async ({ user }) => {
-        await enqueueMail(db, existingAccountMail({ to: user.email, name: user.name, signInUrl: `${e.BETTER_AUTH_URL}/sign-in`, resetUrl: `${e.BETTER_AUTH_URL}/forgot-password` }));
+        await enqueueMail(existingAccountMail({ to: user.email, name: user.name, signInUrl: `${e.BETTER_AUTH_URL}/sign-in`, resetUrl: `${e.BETTER_AUTH_URL}/forgot-password` }));
       },
       sendResetPassword: async ({ user, url }) => {
-        await enqueueMail(db, resetPasswordMail({ to: user.email, name: user.name, url }));
+        await enqueueMail(resetPasswordMail({ to: user.email, name: user.name, url }));
       },
     },
     emailVerification: {
@@ -39,7 +39,7 @@ function createAuth() {
       autoSignInAfterVerification: true,
       expiresIn: 60 * 60 * 24,
       sendVerificationEmail: async ({ user, url }) => {
-        await enqueueMail(db, verifyEmailMail({ to: user.email, name: user.name, url }));
+        await enqueueMail(verifyEmailMail({ to: user.email, name: user.name, url }));
       },
     },
     rateLimit: {
@@ -65,7 +65,6 @@ function createAuth() {
         requireEmailVerificationOnInvitation: true,
         sendInvitationEmail: async ({ id, email, role, organization: workspace, inviter }) => {
           await enqueueMail(
-            db,
             invitationMail({
               to: email,
               workspaceName: workspace.name,

@@ -113,7 +113,7 @@ export async function recordAlert(
       )
       .returning({ id: watch.id });
     if (moved.length === 0) return false;
-    await enqueueMail(tx, mail, input.workspaceId);
+    await enqueueMail(mail, input.workspaceId, tx);
     return true;
   });
 }

@@ -21,7 +21,7 @@ export interface AuditInput {
 }
 
 /** Writes one audit row; call it inside the transaction that makes the change. */
-export async function writeAudit(executor: Executor, input: AuditInput): Promise<void> {
+export async function writeAudit(input: AuditInput, executor: Executor = db): Promise<void> {
   await executor.insert(auditLog).values({
     workspaceId: input.workspaceId,
     actorUserId: input.actor.userId,
@@ -36,7 +36,7 @@ export async function writeAudit(executor: Executor, input: AuditInput): Promise
 }
 
 /** The history of one record, newest first, with the actor's name. */
-export async function listAudit(executor: Executor, workspaceId: string, entityType: string, entityId: string) {
+export async function listAudit(workspaceId: string, entityType: string, entityId: string, executor: Executor = db) {
   return executor
     .select({
       id: auditLog.id,
@@ -56,5 +56,5 @@ export async function listAudit(executor: Executor, workspaceId: string, entityT
 
 /** The history of one record of a workspace, newest first (for the history page). */
 export async function listRecordHistory(workspaceId: string, entityType: string, entityId: string) {
-  return listAudit(db, workspaceId, entityType, entityId);
+  return listAudit(workspaceId, entityType, entityId, db);
 }

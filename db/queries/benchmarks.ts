@@ -109,7 +109,7 @@ export async function createBenchmark(workspaceId: string, actor: Actor, input: 
         createdBy: actor.userId,
       })
       .returning({ id: benchmark.id });
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'benchmark', entityId: row.id, after: def });
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'benchmark', entityId: row.id, after: def }, tx);
     return row;
   });
 }
@@ -131,7 +131,7 @@ export async function updateBenchmark(workspaceId: string, actor: Actor, benchma
         updatedAt: new Date(),
       })
       .where(and(eq(benchmark.workspaceId, workspaceId), eq(benchmark.id, benchmarkId)));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId,
       actor,
       action: 'update',
@@ -139,7 +139,7 @@ export async function updateBenchmark(workspaceId: string, actor: Actor, benchma
       entityId: benchmarkId,
       before: { name: before.name, purpose: before.purpose, scope: before.scope, rules: before.rules, alertThresholds: before.storedAlertThresholds },
       after: def,
-    });
+    }, tx);
   });
 }
 

@@ -250,7 +250,7 @@ export async function insertComment(
     }
     const subjectText = await describeSubject(workspaceId, { ...subject, benchmarkId: null }, tx).catch(() => subject.kind as string);
     const [row] = await tx.insert(comment).values({ workspaceId, threadId, authorId: author.userId, body }).returning({ id: comment.id });
-    for (const mail of outbox({ commentId: row.id, body, subjectText })) await enqueueMail(tx, mail, workspaceId);
+    for (const mail of outbox({ commentId: row.id, body, subjectText })) await enqueueMail(mail, workspaceId, tx);
     return { threadId, commentId: row.id };
   });
 }
@@ -269,7 +269,7 @@ export async function setThreadResolved(workspaceId: string, actor: Actor, threa
     if (resolved === (before.resolvedAt !== null)) throw new AppError('conflict', resolved ? 'This thread is already resolved.' : 'This thread is open.');
     const patch = resolved ? { resolvedAt: new Date(), resolvedBy: actor.userId } : { resolvedAt: null, resolvedBy: null };
     await tx.update(commentThread).set(patch).where(and(eq(commentThread.workspaceId, workspaceId), eq(commentThread.id, threadId)));
-    await writeAudit(tx, { workspaceId, actor, action: resolved ? 'resolve' : 'reopen', entityType: 'comment-thread', entityId: threadId, before, after: { ...before, ...patch } });
+    await writeAudit({ workspaceId, actor, action: resolved ? 'resolve' : 'reopen', entityType: 'comment-thread', entityId: threadId, before, after: { ...before, ...patch } }, tx);
     return { benchmarkId: before.benchmarkId, subjectKind: before.subjectKind, subjectId: before.subjectId };
   });
 }

@@ -69,7 +69,7 @@ export async function createDecision(workspaceId: string, actor: Actor, input: D
         createdBy: actor.userId,
       })
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'decide', entityType: 'decision', entityId: row.id, after: row, reason });
+    await writeAudit({ workspaceId, actor, action: 'decide', entityType: 'decision', entityId: row.id, after: row, reason }, tx);
     return { id: row.id };
   });
 }
@@ -88,7 +88,7 @@ export async function revertDecision(workspaceId: string, actor: Actor, decision
       .update(decision)
       .set({ revertedAt, revertedBy: actor.userId, revertReason: why })
       .where(and(eq(decision.workspaceId, workspaceId), eq(decision.id, decisionId)));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId,
       actor,
       action: 'revert',
@@ -97,7 +97,7 @@ export async function revertDecision(workspaceId: string, actor: Actor, decision
       before,
       after: { ...before, revertedAt, revertedBy: actor.userId, revertReason: why },
       reason: why,
-    });
+    }, tx);
     return { benchmarkId: before.benchmarkId };
   });
 }
@@ -137,13 +137,13 @@ export async function createPin(workspaceId: string, actor: Actor, input: PinInp
     const now = new Date();
     for (const old of previous) {
       await tx.update(pairPin).set({ revokedAt: now, revokedBy: actor.userId }).where(eq(pairPin.id, old.id));
-      await writeAudit(tx, { workspaceId, actor, action: 'revert', entityType: 'pair-pin', entityId: old.id, before: old, reason: `replaced: ${reason}` });
+      await writeAudit({ workspaceId, actor, action: 'revert', entityType: 'pair-pin', entityId: old.id, before: old, reason: `replaced: ${reason}` }, tx);
     }
     const [row] = await tx
       .insert(pairPin)
       .values({ workspaceId, methodId: input.methodId, measurementId: input.measurementId, calculationId: input.calculationId, reason, createdBy: actor.userId })
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'decide', entityType: 'pair-pin', entityId: row.id, after: row, reason });
+    await writeAudit({ workspaceId, actor, action: 'decide', entityType: 'pair-pin', entityId: row.id, after: row, reason }, tx);
     return { id: row.id };
   });
 }
@@ -158,7 +158,7 @@ export async function revokePin(workspaceId: string, actor: Actor, pinId: string
     if (before.revokedAt) throw new AppError('conflict', 'This pin was already removed.');
     const revokedAt = new Date();
     await tx.update(pairPin).set({ revokedAt, revokedBy: actor.userId }).where(eq(pairPin.id, pinId));
-    await writeAudit(tx, { workspaceId, actor, action: 'revert', entityType: 'pair-pin', entityId: pinId, before, after: { ...before, revokedAt }, reason: why });
+    await writeAudit({ workspaceId, actor, action: 'revert', entityType: 'pair-pin', entityId: pinId, before, after: { ...before, revokedAt }, reason: why }, tx);
   });
 }
 

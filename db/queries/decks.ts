@@ -41,7 +41,7 @@ async function touch(tx: Executor, deckId: string) {
 
 export async function createDeck(workspaceId: string, actor: Actor, title: string, tx: Executor = db): Promise<{ id: string }> {
   const [row] = await tx.insert(deck).values({ workspaceId, title: title.trim(), createdBy: actor.userId }).returning();
-  await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'deck', entityId: row.id, after: row });
+  await writeAudit({ workspaceId, actor, action: 'create', entityType: 'deck', entityId: row.id, after: row }, tx);
   return { id: row.id };
 }
 
@@ -49,7 +49,7 @@ export async function retitleDeck(workspaceId: string, actor: Actor, deckId: str
   await db.transaction(async (tx) => {
     const before = await requireDeck(tx, workspaceId, deckId);
     await tx.update(deck).set({ title: title.trim(), updatedAt: new Date() }).where(eq(deck.id, deckId));
-    await writeAudit(tx, { workspaceId, actor, action: 'update', entityType: 'deck', entityId: deckId, before, after: { ...before, title: title.trim() } });
+    await writeAudit({ workspaceId, actor, action: 'update', entityType: 'deck', entityId: deckId, before, after: { ...before, title: title.trim() } }, tx);
   });
 }
 
@@ -157,7 +157,7 @@ export async function removeView(workspaceId: string, actor: Actor, viewId: stri
     const view = await requireView(tx, workspaceId, viewId);
     await tx.delete(deckView).where(eq(deckView.id, viewId));
     await touch(tx, view.deckId);
-    await writeAudit(tx, { workspaceId, actor, action: 'remove-view', entityType: 'deck', entityId: view.deckId, before: view, reason: 'view removed from the deck' });
+    await writeAudit({ workspaceId, actor, action: 'remove-view', entityType: 'deck', entityId: view.deckId, before: view, reason: 'view removed from the deck' }, tx);
     return { deckId: view.deckId };
   });
 }

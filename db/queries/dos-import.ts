@@ -100,7 +100,7 @@ export async function storeDosValues(args: {
     }
 
     await tx.update(importBatch).set({ insertedCount, duplicateCount }).where(eq(importBatch.id, importId));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId,
       actor,
       action: 'import',
@@ -117,7 +117,7 @@ export async function storeDosValues(args: {
         via: file.via,
         ...args.auditDetails,
       },
-    });
+    }, tx);
   });
 
   return { importId, insertedCount, duplicateCount, duplicates };

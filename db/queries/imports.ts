@@ -227,14 +227,14 @@ export async function openValueImport(workspaceId: string, actor: ImportActor, f
     async commit(counts) {
       try {
         await tx.update(importBatch).set(counts).where(eq(importBatch.id, importId));
-        await writeAudit(tx, {
+        await writeAudit({
           workspaceId,
           actor,
           action: 'import',
           entityType: 'import',
           entityId: importId,
           after: { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, ...counts, via: file.via },
-        });
+        }, tx);
         await raw.commit();
       } catch (e) {
         await raw.rollback().catch(() => undefined);
@@ -283,7 +283,7 @@ export async function undoImport(
       .update(importBatch)
       .set({ status: 'undone', undoneAt: new Date(now), undoneBy: actorUserId, undoReason: reason })
       .where(eq(importBatch.id, importId));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId,
       actor: { userId: actorUserId },
       action: 'undo-import',
@@ -292,7 +292,7 @@ export async function undoImport(
       before: { status: 'committed' },
       after: { status: 'undone', retracted },
       reason,
-    });
+    }, tx);
     return { retracted };
   });
 }
@@ -348,5 +348,5 @@ export async function getImport(workspaceId: string, importId: string) {
 
 /** The audit trail of one import (committed, undone), newest first. */
 export async function listImportHistory(workspaceId: string, importId: string) {
-  return listAudit(db, workspaceId, 'import', importId);
+  return listAudit(workspaceId, 'import', importId, db);
 }

@@ -1,11 +1,11 @@
 import 'server-only';
 import { and, asc, eq, inArray, lte, or, sql, desc } from 'drizzle-orm';
-import type { Executor } from '@/db/client';
+import { db, type Executor } from '@/db/client';
 import { mailOutbox, type MailOutboxRow, type NewMail } from '@/db/schema/mail';
 
 
 /** Writes one e-mail to the outbox; a repeated dedupeKey is ignored (the first one stands). */
-export async function enqueueMail(executor: Executor, mail: NewMail, workspaceId?: string | null): Promise<void> {
+export async function enqueueMail(mail: NewMail, workspaceId: string | null = null, executor: Executor = db): Promise<void> {
   await executor
     .insert(mailOutbox)
     .values({ ...mail, workspaceId: workspaceId ?? null })
@@ -16,7 +16,7 @@ export async function enqueueMail(executor: Executor, mail: NewMail, workspaceId
  * Claims up to `limit` due messages for one delivery pass: pending ones whose
  * time has come, and "sending" ones whose lease ran out (the worker died mid-send).
  */
-export async function claimDueMail(executor: Executor, now: Date, leaseMs: number, limit: number): Promise<MailOutboxRow[]> {
+export async function claimDueMail(now: Date, leaseMs: number, limit: number, executor: Executor = db): Promise<MailOutboxRow[]> {
   const due = await executor
     .select({ id: mailOutbox.id })
     .from(mailOutbox)
@@ -42,25 +42,25 @@ export async function claimDueMail(executor: Executor, now: Date, leaseMs: numbe
     .returning();
 }
 
-export async function markMailSent(executor: Executor, id: string, providerMessageId: string, now: Date): Promise<void> {
+export async function markMailSent(id: string, providerMessageId: string, now: Date, executor: Executor = db): Promise<void> {
   await executor
     .update(mailOutbox)
     .set({ status: 'sent', providerMessageId, sentAt: now, lockedUntil: null, lastError: null })
     .where(eq(mailOutbox.id, id));
 }
 
-export async function markMailRetry(executor: Executor, id: string, error: string, nextAttemptAt: Date): Promise<void> {
+export async function markMailRetry(id: string, error: string, nextAttemptAt: Date, executor: Executor = db): Promise<void> {
   await executor
     .update(mailOutbox)
     .set({ status: 'pending', lastError: error, nextAttemptAt, lockedUntil: null })
     .where(eq(mailOutbox.id, id));
 }
 
-export async function markMailFailed(executor: Executor, id: string, error: string): Promise<void> {
+export async function markMailFailed(id: string, error: string, executor: Executor = db): Promise<void> {
   await executor.update(mailOutbox).set({ status: 'failed', lastError: error, lockedUntil: null }).where(eq(mailOutbox.id, id));
 }
 
-export async function listOutbox(executor: Executor, workspaceId: string, limit = 50) {
+export async function listOutbox(workspaceId: string, limit = 50, executor: Executor = db) {
   return executor
     .select({
       id: mailOutbox.id,

@@ -185,7 +185,7 @@ export async function createMaterial(workspaceId: string, actor: Actor, input: M
       .returning({ id: material.id });
     await writeTags(tx, workspaceId, row.id, input.tags);
     const after = await requireMaterial(tx, workspaceId, row.id);
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after: snapshot(after) });
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after: snapshot(after) }, tx);
     return row.id;
   });
 }
@@ -201,7 +201,7 @@ export async function updateMaterial(workspaceId: string, actor: Actor, id: stri
       .where(and(eq(material.workspaceId, workspaceId), eq(material.id, id)));
     await writeTags(tx, workspaceId, id, input.tags);
     const after = await requireMaterial(tx, workspaceId, id);
-    await writeAudit(tx, { workspaceId, actor, action: 'update', entityType: 'material', entityId: id, before: snapshot(before), after: snapshot(after) });
+    await writeAudit({ workspaceId, actor, action: 'update', entityType: 'material', entityId: id, before: snapshot(before), after: snapshot(after) }, tx);
   });
 }
 
@@ -214,7 +214,7 @@ export async function retractMaterial(workspaceId: string, actor: Actor, id: str
       .set({ retractedAt: new Date(), retractedBy: actor.userId, retractionReason: reason })
       .where(and(eq(material.workspaceId, workspaceId), eq(material.id, id)));
     const after = await requireMaterial(tx, workspaceId, id);
-    await writeAudit(tx, { workspaceId, actor, action: 'retract', entityType: 'material', entityId: id, before: snapshot(before), after: snapshot(after), reason });
+    await writeAudit({ workspaceId, actor, action: 'retract', entityType: 'material', entityId: id, before: snapshot(before), after: snapshot(after), reason }, tx);
   });
 }
 
@@ -228,6 +228,6 @@ export async function restoreMaterial(workspaceId: string, actor: Actor, id: str
       .set({ retractedAt: null, retractedBy: null, retractionReason: null, updatedAt: new Date() })
       .where(and(eq(material.workspaceId, workspaceId), eq(material.id, id)));
     const after = await requireMaterial(tx, workspaceId, id);
-    await writeAudit(tx, { workspaceId, actor, action: 'restore', entityType: 'material', entityId: id, before: snapshot(before), after: snapshot(after), reason });
+    await writeAudit({ workspaceId, actor, action: 'restore', entityType: 'material', entityId: id, before: snapshot(before), after: snapshot(after), reason }, tx);
   });
 }

@@ -121,7 +121,7 @@ export async function createMethod(workspaceId: string, actor: Actor, input: Met
   return db.transaction(async (tx) => {
     await assertLabelFree(tx, workspaceId, input.label);
     const [row] = await tx.insert(method).values({ workspaceId, createdBy: actor.userId, ...columnsOf(input) }).returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'method', entityId: row.id, after: snapshot(row) });
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'method', entityId: row.id, after: snapshot(row) }, tx);
     return row.id;
   });
 }
@@ -136,7 +136,7 @@ export async function updateMethod(workspaceId: string, actor: Actor, id: string
       .set({ ...columnsOf(input), updatedAt: new Date() })
       .where(and(eq(method.workspaceId, workspaceId), eq(method.id, id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'update', entityType: 'method', entityId: id, before: snapshot(before), after: snapshot(after) });
+    await writeAudit({ workspaceId, actor, action: 'update', entityType: 'method', entityId: id, before: snapshot(before), after: snapshot(after) }, tx);
   });
 }
 
@@ -149,7 +149,7 @@ export async function retractMethod(workspaceId: string, actor: Actor, id: strin
       .set({ retractedAt: new Date(), retractedBy: actor.userId, retractionReason: reason })
       .where(and(eq(method.workspaceId, workspaceId), eq(method.id, id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'retract', entityType: 'method', entityId: id, before: snapshot(before), after: snapshot(after), reason });
+    await writeAudit({ workspaceId, actor, action: 'retract', entityType: 'method', entityId: id, before: snapshot(before), after: snapshot(after), reason }, tx);
   });
 }
 
@@ -162,7 +162,7 @@ export async function restoreMethod(workspaceId: string, actor: Actor, id: strin
       .set({ retractedAt: null, retractedBy: null, retractionReason: null, updatedAt: new Date() })
       .where(and(eq(method.workspaceId, workspaceId), eq(method.id, id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'restore', entityType: 'method', entityId: id, before: snapshot(before), after: snapshot(after), reason });
+    await writeAudit({ workspaceId, actor, action: 'restore', entityType: 'method', entityId: id, before: snapshot(before), after: snapshot(after), reason }, tx);
   });
 }
 

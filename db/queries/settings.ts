@@ -62,7 +62,7 @@ export async function updateQualityThresholds(workspaceId: string, actor: Actor,
       .insert(workspaceSettings)
       .values({ workspaceId, ...values })
       .onConflictDoUpdate({ target: workspaceSettings.workspaceId, set: values });
-    await writeAudit(tx, { workspaceId, actor, action: 'update', entityType: 'workspace-settings', entityId: workspaceId, before, after });
+    await writeAudit({ workspaceId, actor, action: 'update', entityType: 'workspace-settings', entityId: workspaceId, before, after }, tx);
     return { changed: true };
   });
 }

@@ -135,7 +135,7 @@ async function insertSource(tx: Executor, workspaceId: string, actor: Actor, inp
   await assertCiteKeyFree(tx, workspaceId, input.citeKey);
   await assertDoiFree(tx, workspaceId, input.doi);
   const [row] = await tx.insert(source).values({ workspaceId, createdBy: actor.userId, ...columnsOf(input) }).returning();
-  await writeAudit(tx, { workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: snapshot(row), reason });
+  await writeAudit({ workspaceId, actor, action: 'create', entityType: 'source', entityId: row.id, after: snapshot(row), reason }, tx);
   return row.id;
 }
 
@@ -229,7 +229,7 @@ export async function updateSource(workspaceId: string, actor: Actor, id: string
       .set({ ...columnsOf(input), updatedAt: new Date() })
       .where(and(eq(source.workspaceId, workspaceId), eq(source.id, id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'update', entityType: 'source', entityId: id, before: snapshot(before), after: snapshot(after) });
+    await writeAudit({ workspaceId, actor, action: 'update', entityType: 'source', entityId: id, before: snapshot(before), after: snapshot(after) }, tx);
   });
 }
 
@@ -242,7 +242,7 @@ export async function retractSource(workspaceId: string, actor: Actor, id: strin
       .set({ retractedAt: new Date(), retractedBy: actor.userId, retractionReason: reason })
       .where(and(eq(source.workspaceId, workspaceId), eq(source.id, id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'retract', entityType: 'source', entityId: id, before: snapshot(before), after: snapshot(after), reason });
+    await writeAudit({ workspaceId, actor, action: 'retract', entityType: 'source', entityId: id, before: snapshot(before), after: snapshot(after), reason }, tx);
   });
 }
 
@@ -255,7 +255,7 @@ export async function restoreSource(workspaceId: string, actor: Actor, id: strin
       .set({ retractedAt: null, retractedBy: null, retractionReason: null, updatedAt: new Date() })
       .where(and(eq(source.workspaceId, workspaceId), eq(source.id, id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'restore', entityType: 'source', entityId: id, before: snapshot(before), after: snapshot(after), reason });
+    await writeAudit({ workspaceId, actor, action: 'restore', entityType: 'source', entityId: id, before: snapshot(before), after: snapshot(after), reason }, tx);
   });
 }
 
@@ -327,8 +327,8 @@ export async function mergeSources(workspaceId: string, actor: Actor, keepId: st
       .set({ retractedAt: new Date(), retractedBy: actor.userId, retractionReason: why })
       .where(and(eq(source.workspaceId, workspaceId), eq(source.id, merged.id)))
       .returning();
-    await writeAudit(tx, { workspaceId, actor, action: 'merge', entityType: 'source', entityId: merged.id, before: snapshot(merged), after: { ...snapshot(after), mergedInto: keep.id, moved: movedIds }, reason: why });
-    await writeAudit(tx, { workspaceId, actor, action: 'merge', entityType: 'source', entityId: keep.id, after: { mergedFrom: merged.id, mergedCiteKey: merged.citeKey, moved: movedIds }, reason: why });
+    await writeAudit({ workspaceId, actor, action: 'merge', entityType: 'source', entityId: merged.id, before: snapshot(merged), after: { ...snapshot(after), mergedInto: keep.id, moved: movedIds }, reason: why }, tx);
+    await writeAudit({ workspaceId, actor, action: 'merge', entityType: 'source', entityId: keep.id, after: { mergedFrom: merged.id, mergedCiteKey: merged.citeKey, moved: movedIds }, reason: why }, tx);
     return { moved };
   });
 }

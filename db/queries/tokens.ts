@@ -20,14 +20,14 @@ export async function insertApiToken(input: {
 }): Promise<{ id: string }> {
   return db.transaction(async (tx) => {
     const [row] = await tx.insert(apiToken).values(input).returning({ id: apiToken.id });
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId: input.workspaceId,
       actor: { userId: input.createdBy },
       action: 'create',
       entityType: 'api-token',
       entityId: row.id,
       after: { name: input.name, role: input.role, prefix: input.prefix, expiresAt: input.expiresAt?.toISOString() ?? null },
-    });
+    }, tx);
     return row;
   });
 }
@@ -65,7 +65,7 @@ export async function revokeApiToken(workspaceId: string, tokenId: string, actor
     if (token.revokedAt) throw new AppError('conflict', 'This token is already revoked.');
     const now = new Date();
     await tx.update(apiToken).set({ revokedAt: now, revokedBy: actorUserId }).where(eq(apiToken.id, tokenId));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId,
       actor: { userId: actorUserId },
       action: 'retract',
@@ -74,7 +74,7 @@ export async function revokeApiToken(workspaceId: string, tokenId: string, actor
       before: { revokedAt: null },
       after: { revokedAt: now.toISOString() },
       reason: 'Token revoked',
-    });
+    }, tx);
   });
 }
 

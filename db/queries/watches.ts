@@ -57,7 +57,7 @@ export async function watchBenchmark(workspaceId: string, benchmarkId: string, u
     } else {
       [{ id }] = await tx.insert(watch).values({ workspaceId, benchmarkId, userId, mode, lastAnnouncedRevisionId: baseline }).returning({ id: watch.id });
     }
-    await writeAudit(tx, { workspaceId, actor: { userId }, action: 'watch', entityType: 'watch', entityId: id, after: { benchmarkId, mode } });
+    await writeAudit({ workspaceId, actor: { userId }, action: 'watch', entityType: 'watch', entityId: id, after: { benchmarkId, mode } }, tx);
     return { id };
   });
 }
@@ -79,7 +79,7 @@ export async function unwatch(workspaceId: string, watchId: string, userId: stri
     const w = await requireOwnWatch(tx, workspaceId, watchId, userId);
     if (w.unsubscribedAt) return;
     await tx.update(watch).set({ unsubscribedAt: new Date() }).where(eq(watch.id, watchId));
-    await writeAudit(tx, { workspaceId, actor: { userId }, action: 'unwatch', entityType: 'watch', entityId: watchId, before: { mode: w.mode } });
+    await writeAudit({ workspaceId, actor: { userId }, action: 'unwatch', entityType: 'watch', entityId: watchId, before: { mode: w.mode } }, tx);
   });
 }
 
@@ -89,7 +89,7 @@ export async function updateWatchSettings(workspaceId: string, watchId: string, 
     const w = await requireOwnWatch(tx, workspaceId, watchId, userId);
     const thresholds = Object.keys(settings.thresholds).length ? settings.thresholds : null;
     await tx.update(watch).set({ mode: settings.mode, thresholds: thresholds as Record<string, number> | null }).where(eq(watch.id, watchId));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId,
       actor: { userId },
       action: 'update',
@@ -97,7 +97,7 @@ export async function updateWatchSettings(workspaceId: string, watchId: string, 
       entityId: watchId,
       before: { mode: w.mode, thresholds: w.thresholds },
       after: { mode: settings.mode, thresholds },
-    });
+    }, tx);
   });
 }
 
@@ -200,7 +200,7 @@ export async function unsubscribeWatchById(watchId: string): Promise<{ found: bo
     if (!w) return { found: false, changed: false };
     if (w.unsubscribedAt) return { found: true, changed: false };
     await tx.update(watch).set({ unsubscribedAt: new Date() }).where(and(eq(watch.id, watchId), isNull(watch.unsubscribedAt)));
-    await writeAudit(tx, {
+    await writeAudit({
       workspaceId: w.workspaceId,
       actor: { userId: w.userId },
       action: 'unsubscribe',
@@ -208,7 +208,7 @@ export async function unsubscribeWatchById(watchId: string): Promise<{ found: bo
       entityId: watchId,
       before: { mode: w.mode },
       reason: 'one-click unsubscribe link from an alert e-mail',
-    });
+    }, tx);
     return { found: true, changed: true };
   });
 }

@@ -85,7 +85,7 @@ describe('alerts after new revisions', () => {
     const config: DeliveryConfig = { apiKey: 're_test', from: 'Ledger <ledger@example.org>', timeoutMs: 500, maxAttempts: 8, leaseMs: 1_000, now: () => new Date(clock) };
     fake.setFaults(['500', '429', 'store-then-drop']);
     for (let pass = 0; pass < 10; pass++) {
-      await deliverDueMail(db, config);
+      await deliverDueMail(config);
       const [row] = await db.select().from(mailOutbox);
       if (row.status === 'sent') break;
       clock += 11 * 60_000;

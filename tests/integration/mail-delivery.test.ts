@@ -19,14 +19,14 @@ const config = (): DeliveryConfig => ({
 
 async function enqueue(n: number, prefix: string) {
   for (let i = 0; i < n; i++) {
-    await enqueueMail(db, { kind: 'test', toAddress: `${prefix}${i}@example.org`, subject: `${prefix} ${i}`, textBody: 'hello', htmlBody: '<p>hello</p>' });
+    await enqueueMail({ kind: 'test', toAddress: `${prefix}${i}@example.org`, subject: `${prefix} ${i}`, textBody: 'hello', htmlBody: '<p>hello</p>' });
   }
 }
 
 /** Runs delivery passes, moving the clock past every back-off, until nothing is pending. */
 async function drain(maxPasses = 40) {
   for (let pass = 0; pass < maxPasses; pass++) {
-    await deliverDueMail(db, config());
+    await deliverDueMail(config());
     const open = await db.select().from(mailOutbox).where(eq(mailOutbox.status, 'pending'));
     const sending = await db.select().from(mailOutbox).where(eq(mailOutbox.status, 'sending'));
     if (open.length === 0 && sending.length === 0) return;
@@ -65,13 +65,13 @@ describe('mail outbox delivery', () => {
   it('recovers a message whose worker died mid-send, without a second copy', async () => {
     await enqueue(1, 'crash');
     // a worker claims the message and reaches the provider, then dies before recording the result
-    const [claimed] = await claimDueMail(db, new Date(clock), 1_000, 10);
+    const [claimed] = await claimDueMail(new Date(clock), 1_000, 10, db);
     expect((await sendOne(claimed, config())).kind).toBe('sent');
     expect((await db.select().from(mailOutbox))[0].status).toBe('sending');
     // while the lease holds, another pass leaves it alone
-    expect((await deliverDueMail(db, config())).sent).toBe(0);
+    expect((await deliverDueMail(config())).sent).toBe(0);
     clock += 2_000;
-    expect((await deliverDueMail(db, config())).sent).toBe(1);
+    expect((await deliverDueMail(config())).sent).toBe(1);
     expect(fake.messages).toHaveLength(1);
     const [row] = await db.select().from(mailOutbox);
     expect(row.status).toBe('sent');
@@ -92,7 +92,7 @@ describe('mail outbox delivery', () => {
   it('fails at once on a permanent error (422) instead of retrying', async () => {
     await db.insert(mailOutbox).values({ kind: 'test', toAddress: 'x@example.org', subject: '', textBody: 't', htmlBody: 'h' });
     const original = config();
-    await deliverDueMail(db, { ...original, from: '' });
+    await deliverDueMail({ ...original, from: '' });
     const [row] = await db.select().from(mailOutbox);
     expect(row.status).toBe('failed');
     expect(row.attempts).toBe(1);
@@ -100,15 +100,15 @@ describe('mail outbox delivery', () => {
 
   it('writes a mail with a dedupe key only once', async () => {
     const mail = { kind: 'alert', toAddress: 'w@example.org', subject: 's', textBody: 't', htmlBody: 'h', dedupeKey: 'watch-1:rev-2' };
-    await enqueueMail(db, mail);
-    await enqueueMail(db, mail);
+    await enqueueMail(mail);
+    await enqueueMail(mail);
     expect(await db.select().from(mailOutbox)).toHaveLength(1);
   });
 
   it('rolls the mail back with the change that caused it', async () => {
     await expect(
       db.transaction(async (tx) => {
-        await enqueueMail(tx, { kind: 'test', toAddress: 'r@example.org', subject: 's', textBody: 't', htmlBody: 'h' });
+        await enqueueMail({ kind: 'test', toAddress: 'r@example.org', subject: 's', textBody: 't', htmlBody: 'h' }, null, tx);
         throw new Error('the change failed');
       }),
     ).rejects.toThrow('the change failed');

@@ -2,7 +2,6 @@ import 'server-only';
 import { Resend } from 'resend';
 import type { MailOutboxRow } from '@/db/schema/mail';
 import { claimDueMail, markMailFailed, markMailRetry, markMailSent } from '@/db/queries/mail';
-import type { Db } from '@/db/client';
 
 export interface DeliveryConfig {
   apiKey: string;
@@ -60,21 +59,21 @@ export interface DeliveryReport {
 }
 
 /** One delivery pass over the due messages of the outbox. */
-export async function deliverDueMail(db: Db, config: DeliveryConfig): Promise<DeliveryReport> {
+export async function deliverDueMail(config: DeliveryConfig): Promise<DeliveryReport> {
   const now = config.now ?? (() => new Date());
   const leaseMs = config.leaseMs ?? config.timeoutMs * 2 + 5_000;
   const report: DeliveryReport = { sent: 0, retried: 0, failed: 0 };
-  const claimed = await claimDueMail(db, now(), leaseMs, config.batchSize ?? 20);
+  const claimed = await claimDueMail(now(), leaseMs, config.batchSize ?? 20);
   for (const row of claimed) {
     const outcome = await sendOne(row, config);
     if (outcome.kind === 'sent') {
-      await markMailSent(db, row.id, outcome.providerId, now());
+      await markMailSent(row.id, outcome.providerId, now());
       report.sent++;
     } else if (outcome.kind === 'permanent' || row.attempts >= config.maxAttempts) {
-      await markMailFailed(db, row.id, outcome.error);
+      await markMailFailed(row.id, outcome.error);
       report.failed++;
     } else {
-      await markMailRetry(db, row.id, outcome.error, new Date(now().getTime() + backoffMs(row.attempts)));
+      await markMailRetry(row.id, outcome.error, new Date(now().getTime() + backoffMs(row.attempts)));
       report.retried++;
     }
   }

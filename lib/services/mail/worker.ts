@@ -1,5 +1,4 @@
 import 'server-only';
-import { getDb } from '@/db/client';
 import { env } from '@/lib/env';
 import { deliverDueMail, type DeliveryConfig } from './deliver';
 
@@ -22,7 +21,7 @@ export async function runMailWorkerOnce(): Promise<void> {
   try {
     do {
       s.again = false;
-      const report = await deliverDueMail(getDb(), deliveryConfig());
+      const report = await deliverDueMail(deliveryConfig());
       // a full batch may have left more due messages behind
       if (report.sent > 0) s.again = true;
     } while (s.again);

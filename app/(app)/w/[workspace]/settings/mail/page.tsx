@@ -1,7 +1,6 @@
 import type { Metadata } from 'next';
 import { requirePageMember } from '@/lib/session';
 import { listOutbox } from '@/db/queries/mail';
-import { db } from '@/db/client';
 import { Panel } from '@/components/ui/panel';
 
 export const metadata: Metadata = { title: 'Mail delivery' };
@@ -17,7 +16,7 @@ const time = new Intl.DateTimeFormat('en-GB', { dateStyle: 'short', timeStyle: '
 
 export default async function MailPage({ params }: { params: Promise<{ workspace: string }> }) {
   const ctx = await requirePageMember((await params).workspace, 'settings:read');
-  const rows = await listOutbox(db, ctx.workspace.id);
+  const rows = await listOutbox(ctx.workspace.id);
   return (
     <Panel title="Outbox of this workspace (latest 50)">
       <p className="mb-3 text-sm text-ink-muted">
