@@ -1,5 +1,5 @@
 import type { BreakdownRow } from '@/lib/benchmark/types';
-import { fmt, signed } from './format';
+import { signed, stat } from '@/lib/format';
 import { ScrollRegion } from '@/components/ui/scroll-region';
 
 /** Groups (material classes, frequency bands, species, branches, techniques) × methods: N, mean signed error, MAE, RMSE. */
@@ -36,7 +36,7 @@ export function BreakdownTable({ rows, methods, groupTitle, caption }: { rows: B
                       <span className="text-ink-faint">—</span>
                     ) : r.statistics ? (
                       <>
-                        {r.n} · {signed(r.statistics.meanSignedError)} · <strong>{fmt(r.statistics.meanAbsoluteError)}</strong> · {fmt(r.statistics.rootMeanSquareError)}
+                        {r.n} · {signed(r.statistics.meanSignedError)} · <strong>{stat('error', r.statistics.meanAbsoluteError)}</strong> · {stat('error', r.statistics.rootMeanSquareError)}
                       </>
                     ) : (
                       <span className="text-ink-muted">N = {r.n} (too few)</span>

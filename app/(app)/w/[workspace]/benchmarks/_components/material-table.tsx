@@ -2,7 +2,7 @@
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import type { MaterialRow } from '@/lib/benchmark/types';
-import { fmt, signed } from './format';
+import { signed, stat } from '@/lib/format';
 
 type SortKey = 'name' | 'n' | 'meanAbsoluteError' | 'meanSignedError' | 'maxAbsoluteError' | 'flags';
 
@@ -83,10 +83,10 @@ export function MaterialTable({ rows, methods, unit, slug }: { rows: MaterialRow
                 </th>
                 <td className="num px-2 py-1.5">{r.n}</td>
                 <td className="num px-2 py-1.5" data-stat="mae">
-                  <strong>{fmt(r.meanAbsoluteError)}</strong>
+                  <strong>{stat('error', r.meanAbsoluteError)}</strong>
                 </td>
                 <td className="num px-2 py-1.5">{signed(r.meanSignedError)}</td>
-                <td className="num px-2 py-1.5">{fmt(r.maxAbsoluteError)}</td>
+                <td className="num px-2 py-1.5">{stat('error', r.maxAbsoluteError)}</td>
                 <td className="px-2 py-1.5 text-xs">
                   {flagsOf(r) === 0 ? (
                     <span className="text-ink-faint">—</span>
