@@ -118,6 +118,8 @@ export interface StoredStatistics {
   rmseAfterScaling: number;
   /** λ fitted without the pair's own material (leave one material out). */
   rmseAfterScalingOutOfSample?: number;
+  /** Standard error of λ, clustered by material; absent on revisions computed before it existed. */
+  scaleFactorStandardError?: number;
   reducedChiSquare?: number;
   chiSquarePairs?: number;
   clusterCount?: number;
@@ -240,6 +242,8 @@ export interface QualityRecord {
   code: string;
   severity: 'warning' | 'error';
   message: string;
+  /** The flag's number (the lowest imaginary mode, the acoustic |ω|, the k-point density); absent on older revisions. */
+  value?: number;
 }
 
 /** The snapshot a Revision stores (version 2 adds the fields marked optional; older ones lack them). */
