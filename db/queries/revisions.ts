@@ -54,6 +54,12 @@ async function latestReady(workspaceId: string, benchmarkId: string) {
   return rows[0] ?? null;
 }
 
+/** The number and time of the latest stored revision (no statistics): what a page polls to learn that a newer one exists. */
+export async function latestRevisionHead(workspaceId: string, benchmarkId: string): Promise<{ number: number; createdAt: Date } | null> {
+  const head = await latestReady(workspaceId, benchmarkId);
+  return head ? { number: head.number, createdAt: head.createdAt } : null;
+}
+
 const CHUNK = 400;
 
 /**

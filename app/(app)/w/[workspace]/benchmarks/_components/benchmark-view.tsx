@@ -421,6 +421,12 @@ export async function BenchmarkView({
             <a className={buttonClass('secondary')} href={`${api}/pairs?${q}&format=csv`} download>
               Pairs (CSV)
             </a>
+            <a className={buttonClass('secondary')} href={`${api}/leaderboard?${q}&format=csv`} download>
+              Leaderboard (CSV)
+            </a>
+            <a className={buttonClass('secondary')} href={`${api}/leaderboard?${q}&format=latex`} download>
+              Leaderboard (LaTeX)
+            </a>
             <span className="self-center text-xs text-ink-muted">Plots download as SVG or PNG from their own buttons.</span>
           </div>
           <RevisionSources pairs={snap.pairs} sources={lookups.sources} sourcesHref={`/w/${workspace.slug}/sources`} exportHref={(f) => `${api}/sources?${q}&format=${f}`} />
