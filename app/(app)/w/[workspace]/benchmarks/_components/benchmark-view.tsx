@@ -81,7 +81,7 @@ export async function BenchmarkView({
         </div>
       </div>
       {rev ? (
-        <p className="text-xs text-ink-muted">
+        <p className="text-xs text-ink-muted" data-testid="revision-line">
           Revision {rev.number} · {when(rev.createdAt)} · fingerprint sha256:{rev.fingerprint.slice(0, 16)}
           {readOnly ? (
             <>
