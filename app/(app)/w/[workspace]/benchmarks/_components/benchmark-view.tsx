@@ -260,12 +260,11 @@ export async function BenchmarkView({
                 <table className="min-w-full border-collapse text-[13px]" data-testid="outliers">
                   <thead className="border-b border-rule">
                     <tr className="text-left text-ink-muted">
-                      <th className="px-2 py-1.5 font-medium">Pair</th>
+                      <th className="px-2 py-1.5 font-medium">Pair (measurement source)</th>
                       <th className="px-2 py-1.5 font-medium">Method</th>
                       <th className="px-2 py-1.5 font-medium">{withUnitHeader('Measured → calculated', snap.unit)}</th>
                       <th className="px-2 py-1.5 font-medium">{withUnitHeader('Error', snap.unit)}</th>
                       <th className="px-2 py-1.5 font-medium">Why</th>
-                      <th className="px-2 py-1.5 font-medium">Measurement source</th>
                       <th className="px-2 py-1.5 font-medium">Discussion</th>
                       {canDecide ? <th className="px-2 py-1.5 font-medium">Decision</th> : null}
                     </tr>
@@ -278,33 +277,33 @@ export async function BenchmarkView({
                           <td className="px-2 py-1.5">
                             <Link href={`/w/${workspace.slug}/materials/${p.materialId}`}>{materialName(p.materialId)}</Link>
                             {p.label ? ` ${p.label}` : null} <span className="text-xs text-ink-faint">{techniqueName(p.technique)}</span>
+                            <span className="mt-0.5 block text-xs text-ink-muted" data-testid="pair-source">
+                              {src ? (
+                                <>
+                                  {src.citation}
+                                  {src.doi ? (
+                                    <>
+                                      {' '}
+                                      <a href={`https://doi.org/${src.doi}`} rel="noreferrer noopener" target="_blank">
+                                        doi
+                                      </a>
+                                    </>
+                                  ) : null}
+                                </>
+                              ) : (
+                                'source not found'
+                              )}
+                            </span>
                           </td>
                           <td className="px-2 py-1.5">{methodLabel.get(p.methodId)}</td>
-                          <td className="num px-2 py-1.5">
+                          <td className="num px-2 py-1.5 whitespace-nowrap">
                             {plain(p.measured)} → {plain(p.calculated)}
                           </td>
-                          <td className="num px-2 py-1.5">{signed(p.error)}</td>
-                          <td className="px-2 py-1.5">
+                          <td className="num px-2 py-1.5 whitespace-nowrap">{signed(p.error)}</td>
+                          <td className="min-w-44 px-2 py-1.5">
                             {p.excluded !== null ? <span className="text-bad">Excluded: {p.excluded}</span> : <span className="text-warn">{trueMinus(p.outlier ?? '')}</span>}
                           </td>
-                          <td className="px-2 py-1.5">
-                            {src ? (
-                              <>
-                                {src.citation}
-                                {src.doi ? (
-                                  <>
-                                    {' '}
-                                    <a href={`https://doi.org/${src.doi}`} rel="noreferrer noopener" target="_blank">
-                                      doi
-                                    </a>
-                                  </>
-                                ) : null}
-                              </>
-                            ) : (
-                              '—'
-                            )}
-                          </td>
-                          <td className="px-2 py-1.5">
+                          <td className="px-2 py-1.5 whitespace-nowrap">
                             <DiscussButton
                               workspaceId={workspace.id}
                               subject={{ kind: 'pair', id: p.key, benchmarkId: bm.id, pinnable: p.measurementIds.length === 1 && p.calculationIds.length > 0 }}
@@ -314,7 +313,7 @@ export async function BenchmarkView({
                             />
                           </td>
                           {canDecide ? (
-                            <td className="px-2 py-1.5">
+                            <td className="min-w-32 px-2 py-1.5">
                               {p.excluded === null && p.measurementIds.length === 1 ? (
                                 <PairDecisionForm
                                   pair={{
@@ -375,16 +374,13 @@ export async function BenchmarkView({
                   {qualityLineList.slice(0, 300).map((l) => (
                     <li key={l.key} data-code={l.code} className="leading-snug">
                       <span className={`mr-1 rounded px-1.5 text-xs font-medium ${l.severity === 'error' ? 'bg-bad-soft text-bad' : 'bg-warn-soft text-warn'}`}>{l.codeName}</span>
-                      <span className="font-medium">{l.methodLabel}</span> ·{' '}
+                      <span className="font-medium">{l.methodLabel}</span> · <span>{l.scope}</span>: <span className="text-ink-muted">{l.message}</span>
                       {l.materials.length > 1 ? (
-                        <details className="inline">
-                          <summary className="inline cursor-pointer">{l.scope}</summary>
-                          <span className="text-xs text-ink-muted"> ({l.materials.join(', ')})</span>
+                        <details className="ml-1 text-xs text-ink-muted">
+                          <summary className="cursor-pointer">Which materials</summary>
+                          {l.materials.join(', ')}
                         </details>
-                      ) : (
-                        <span>{l.scope}</span>
-                      )}
-                      : <span className="text-ink-muted">{l.message}</span>
+                      ) : null}
                     </li>
                   ))}
                 </ul>
