@@ -85,6 +85,20 @@ describe('benchmark page', () => {
     await result.waitFor();
     expect(await result.textContent()).toMatch(/Wilcoxon signed-rank p/);
     expect(Number(await result.locator('dd').first().textContent())).toBeGreaterThan(10);
+    // the pair is kept in the address: a reload shows the same comparison
+    const url = new URL(page.url());
+    expect(url.searchParams.get('methodA')).toBeTruthy();
+    expect(url.searchParams.get('methodB')).toBeTruthy();
+    await page.reload();
+    const again = page.locator('section', { hasText: 'Method comparison' }).first();
+    await page.getByTestId('comparison').waitFor();
+    expect(await again.getByLabel('Method A').locator('option:checked').textContent()).toBe('PBE · NC · k8');
+    expect(await again.getByLabel('Method B').locator('option:checked').textContent()).toBe('PBEsol · PAW · k12');
+    // a method is never compared with itself
+    await again.getByLabel('Method B').selectOption({ label: 'PBE · NC · k8' });
+    expect(await page.getByTestId('comparison-error').textContent()).toBe('A method cannot be compared with itself: choose two different methods.');
+    expect(await page.getByTestId('comparison').count()).toBe(0);
+    expect(new URL(page.url()).searchParams.get('methodB')).toBe(url.searchParams.get('methodB'));
   });
 
   it('excludes an outlier with a reason; the statistics and the revision history change', async () => {

@@ -140,12 +140,10 @@ export function comparisonFromSearch(
   const fallback = methodIds.length >= 2 ? { methodA: methodIds[0], methodB: methodIds[1] } : null;
   const asked = { methodA: first(search.methodA), methodB: first(search.methodB) };
   if (asked.methodA === undefined && asked.methodB === undefined) return { pair: fallback, error: null };
+  const unknown = [asked.methodA, asked.methodB].some((id) => id === undefined || !methodIds.includes(id));
+  if (unknown) return { pair: fallback, error: 'The address names a method that is not in this revision; showing the first two methods instead.' };
   const parsed = comparisonPairSchema.safeParse(asked);
-  if (!parsed.success) {
-    const same = asked.methodA !== undefined && asked.methodA === asked.methodB && methodIds.includes(asked.methodA);
-    return { pair: same ? { methodA: asked.methodA!, methodB: asked.methodA! } : fallback, error: parsed.error.issues[0].message };
-  }
-  const unknown = [parsed.data.methodA, parsed.data.methodB].filter((id) => !methodIds.includes(id));
-  if (unknown.length) return { pair: fallback, error: 'The address names a method that is not in this revision; showing the first two methods instead.' };
+  // a self-comparison stays on screen with the refusal, so the reader sees what was asked
+  if (!parsed.success) return { pair: { methodA: asked.methodA!, methodB: asked.methodB! }, error: parsed.error.issues[0].message };
   return { pair: parsed.data, error: null };
 }

@@ -274,7 +274,7 @@ export async function BenchmarkView({
                       const src = lookups.sources.get(p.sourceIds[0]);
                       return (
                         <tr key={p.key} id={`pair-${encodeURIComponent(p.key)}`} className="border-b border-rule/70 align-top">
-                          <td className="px-2 py-1.5">
+                          <td className="min-w-48 px-2 py-1.5">
                             <Link href={`/w/${workspace.slug}/materials/${p.materialId}`}>{materialName(p.materialId)}</Link>
                             {p.label ? ` ${p.label}` : null} <span className="text-xs text-ink-faint">{techniqueName(p.technique)}</span>
                             <span className="mt-0.5 block text-xs text-ink-muted" data-testid="pair-source">
@@ -313,7 +313,7 @@ export async function BenchmarkView({
                             />
                           </td>
                           {canDecide ? (
-                            <td className="min-w-32 px-2 py-1.5">
+                            <td className="min-w-28 px-2 py-1.5">
                               {p.excluded === null && p.measurementIds.length === 1 ? (
                                 <PairDecisionForm
                                   pair={{
