@@ -38,7 +38,7 @@ export function ScalingPanel({ methods, unit }: { methods: MethodResult[]; unit:
                 {s.clusterCount ? ` pairs, ${s.clusterCount} materials` : ' pairs'}
                 {s.scaleFactorStandardError !== undefined ? '; ± one standard error, by material' : '; no standard error in this revision'}
               </p>
-              <dl className="mt-2 space-y-1.5 text-xs">
+              <div className="mt-2 space-y-1.5 text-xs">
                 <Bar label={header('RMSE as computed', unit)} value={s.rootMeanSquareError} width={width(s.rootMeanSquareError)} tone="bg-ink-faint" stat="rmse" />
                 <Bar
                   label={header('RMSE scaled, cross-validated', unit)}
@@ -48,13 +48,13 @@ export function ScalingPanel({ methods, unit }: { methods: MethodResult[]; unit:
                   stat="rmse-cross-validated"
                   missing="needs two materials"
                 />
-                <div className="flex justify-between gap-2 text-ink-muted">
-                  <dt>{header('RMSE scaled, in sample', unit)}</dt>
-                  <dd className="num" data-stat="rmse-in-sample">
+                <p className="flex justify-between gap-2 text-ink-muted">
+                  <span>{header('RMSE scaled, in sample', unit)}</span>
+                  <span className="num" data-stat="rmse-in-sample">
                     {stat('error', s.rmseAfterScaling)}
-                  </dd>
-                </div>
-              </dl>
+                  </span>
+                </p>
+              </div>
             </li>
           );
         })}
@@ -69,12 +69,12 @@ export function ScalingPanel({ methods, unit }: { methods: MethodResult[]; unit:
 function Bar({ label, value, width, tone, stat: key, missing = '—' }: { label: string; value: number | undefined; width: number; tone: string; stat: string; missing?: string }) {
   return (
     <div>
-      <div className="flex justify-between gap-2">
-        <dt>{label}</dt>
-        <dd className="num font-medium" data-stat={key}>
+      <p className="flex justify-between gap-2">
+        <span>{label}</span>
+        <span className="num font-medium" data-stat={key}>
           {value === undefined ? <span className="font-normal text-ink-faint">{missing}</span> : stat('error', value)}
-        </dd>
-      </div>
+        </span>
+      </p>
       <div aria-hidden className="mt-0.5 h-1.5 rounded-full bg-rule/60">
         <div className={`h-1.5 rounded-full ${tone}`} style={{ width: `${width}%` }} />
       </div>
