@@ -1,7 +1,7 @@
 import Link from 'next/link';
 import { Panel } from '@/components/ui/panel';
 import type { MethodQuality } from './material-quality';
-import { counted } from '@/lib/format';
+import { counted, trueMinus } from '@/lib/format';
 
 const SEVERITY_CLASS = { error: 'bg-bad-soft text-bad', warning: 'bg-warn-soft text-warn' } as const;
 
@@ -32,7 +32,7 @@ export function QualityFlags({ slug, results, thresholdsHref }: { slug: string; 
                   <li key={f.code} className="flex flex-wrap items-baseline gap-2">
                     <span className={`rounded px-1.5 text-xs font-medium ${SEVERITY_CLASS[f.severity]}`}>{f.severity}</span>
                     <code className="font-mono text-xs text-ink-muted">{f.code}</code>
-                    <span>{f.message}</span>
+                    <span>{trueMinus(f.message)}</span>
                   </li>
                 ))}
               </ul>
