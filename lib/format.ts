@@ -209,3 +209,14 @@ export function trueMinus(text: string): string {
 export function utcMinute(date: Date | number): string {
   return new Date(date).toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
 }
+
+/** A count with its noun in the right number: "1 mode", "6 modes", "1,200 pairs" (irregular plurals given). */
+export function counted(value: number, singular: string, plural = `${singular}s`): string {
+  return `${count(value)} ${value === 1 ? singular : plural}`;
+}
+
+/** A fraction as a percentage with a no-break space: 0.92 → "92 %", with `decimals` decimals. */
+export function percentOf(fraction: Maybe, decimals = 0): string {
+  if (missing(fraction)) return NO_VALUE;
+  return `${fixed(100 * fraction, decimals)}${NBSP}%`;
+}

@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { Panel } from '@/components/ui/panel';
 import type { MethodQuality } from '@/lib/benchmark/material-quality';
+import { counted, trueMinus } from '@/lib/format';
 
 const SEVERITY_CLASS = { error: 'bg-bad-soft text-bad', warning: 'bg-warn-soft text-warn' } as const;
 
@@ -21,7 +22,7 @@ export function QualityFlags({ slug, results, thresholdsHref }: { slug: string; 
           <li key={r.methodId} className="py-2" data-testid={`quality-${r.methodId}`}>
             <p className="font-medium">
               <Link href={`/w/${slug}/methods/${r.methodId}`}>{r.methodLabel}</Link>{' '}
-              <span className="num text-xs font-normal text-ink-muted">({r.modeCount} modes)</span>
+              <span className="num text-xs font-normal text-ink-muted">({counted(r.modeCount, 'mode')})</span>
             </p>
             {r.flags.length === 0 ? (
               <p className="text-good">No flags.</p>
@@ -31,7 +32,7 @@ export function QualityFlags({ slug, results, thresholdsHref }: { slug: string; 
                   <li key={f.code} className="flex flex-wrap items-baseline gap-2">
                     <span className={`rounded px-1.5 text-xs font-medium ${SEVERITY_CLASS[f.severity]}`}>{f.severity}</span>
                     <code className="font-mono text-xs text-ink-muted">{f.code}</code>
-                    <span>{f.message}</span>
+                    <span>{trueMinus(f.message)}</span>
                   </li>
                 ))}
               </ul>

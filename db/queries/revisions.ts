@@ -26,7 +26,7 @@ async function latestReady(workspaceId: string, benchmarkId: string) {
 
 const CHUNK = 400;
 
-/** The latest stored revision of a benchmark, or null before the first. */
+/** The latest stored revision of a benchmark (its head, no statistics), or null before the first: what the recomputation compares with and a page polls. */
 export async function latestRevisionHead(workspaceId: string, benchmarkId: string): Promise<RevisionHead | null> {
   return latestReady(workspaceId, benchmarkId);
 }

@@ -5,6 +5,7 @@
 import type { OutgoingMail } from '@/lib/mail/outgoing';
 import { escapeHtml } from '@/lib/mail/templates';
 import type { MethodShiftRow, ShiftSummary } from './shift-summary';
+import { fixed, signed, stat, trueMinus, utcMinute } from '@/lib/format';
 
 export interface AlertImport {
   fileName: string | null;
@@ -38,10 +39,9 @@ export interface DigestContent extends AlertContent {
   revisions: Array<{ number: number; createdAt: Date; lines: string[] }>;
 }
 
-const f2 = (v: number | null) => (v === null ? '—' : v.toFixed(2));
-const signed = (v: number | null, digits = 2) => (v === null ? '—' : `${v > 0 ? '+' : v < 0 ? '−' : '±'}${Math.abs(v).toFixed(digits)}`);
+const f2 = (v: number | null) => stat('error', v);
 const orDash = (v: number | null) => (v === null ? '—' : String(v));
-const utc = (d: Date) => d.toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
+const utc = (d: Date) => utcMinute(d);
 
 export function alertLinks(c: Pick<AlertContent, 'baseUrl' | 'workspace' | 'benchmark' | 'toRevision' | 'unsubscribeToken'>) {
   const base = c.baseUrl.replace(/\/+$/, '');
@@ -97,7 +97,7 @@ function htmlTable(summary: ShiftSummary): string {
 
 function outlierLines(c: AlertContent, revisionUrl: string): Array<{ text: string; url: string }> {
   return c.summary.newOutliers.map((o) => ({
-    text: `${o.methodLabel}, ${c.materialNames[o.materialId] ?? 'a material'}${o.label ? ` ${o.label}` : ''}: measured ${o.measured.toFixed(2)}, calculated ${o.calculated.toFixed(2)}, error ${signed(o.error)} ${c.summary.unit} (${o.reason})`,
+    text: `${o.methodLabel}, ${c.materialNames[o.materialId] ?? 'a material'}${o.label ? ` ${o.label}` : ''}: measured ${fixed(o.measured, 2)}, calculated ${fixed(o.calculated, 2)}, error ${signed(o.error)} ${c.summary.unit} (${trueMinus(o.reason)})`,
     url: `${revisionUrl}#pair-${encodeURIComponent(o.pairKey)}`,
   }));
 }

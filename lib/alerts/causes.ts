@@ -19,6 +19,7 @@
  * summarises the rest by kind with a link to the revision history.
  */
 import type { MethodResult } from '@/lib/benchmark/types';
+import { count } from '@/lib/format';
 
 export const MAX_LISTED_CAUSES = 6;
 
@@ -179,7 +180,7 @@ export function summariseCauses(causes: readonly AlertCause[], max = MAX_LISTED_
     e.rows += c.rows ?? 0;
     counts.set(c.kind, e);
   }
-  const n = (v: number) => v.toLocaleString('en-GB');
+  const n = (v: number) => count(v);
   const parts = [...counts].map(([kind, e]) => `${n(e.n)} ${KIND_NAMES[kind][e.n === 1 ? 0 : 1]}${kind === 'import' ? ` (${n(e.rows)} rows)` : ''}`);
   return { listed, rest: `…and ${n(causes.length - max)} more: ${parts.join(', ')}.` };
 }

@@ -7,6 +7,7 @@
  */
 import { detectShift, type MethodSummary, type ShiftReason, type ShiftThresholds } from '@/lib/science';
 import type { BenchmarkSnapshot } from '@/lib/benchmark/types';
+import { stat } from '@/lib/format';
 
 /** The parts of a revision snapshot the comparison reads. */
 export type SnapshotForShift = Pick<BenchmarkSnapshot, 'methods' | 'pairs' | 'unit'>;
@@ -118,7 +119,7 @@ export function summarizeShift(before: SnapshotForShift | null, after: SnapshotF
 
 /** One line per reason, in words (used by digests for each revision of the day). */
 export function describeReason(reason: ShiftReason, label: string, unit: string): string {
-  const f = (v: number | undefined) => (v === undefined ? '—' : v.toFixed(2));
+  const f = (v: number | undefined) => stat('error', v);
   switch (reason.kind) {
     case 'mae':
       return `${label}: MAE ${f(reason.before)} → ${f(reason.after)} ${unit}`;

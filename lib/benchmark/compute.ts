@@ -48,6 +48,7 @@ import { groupBy, qualityModes, mergeRepeatedMeasurements, pairEntropies, pairFr
 import { rankOnCommonGround } from './ranking';
 import { outlierScaleOf, type BenchmarkRules } from './schemas';
 import { MIN_PAIRS_FOR_STATISTICS } from './statistics-minimum';
+import { fixed, stat } from '@/lib/format';
 import type {
   BenchmarkInput,
   BenchmarkSnapshot,
@@ -93,10 +94,6 @@ export function groupStatistics(pairs: PairRecord[], bootstrapSamples: number): 
   return stored(errorStatistics(pairs.map(pairValue), { bootstrapSamples, seed: 1, clusters: pairs.map((p) => p.materialId) }), pairs);
 }
 
-function format(value: number, digits = 2): string {
-  return Number(value.toFixed(digits)).toString();
-}
-
 /** Marks the included pairs of one method that the rule flags, with the reason in words. */
 export function markOutliers(pairs: PairRecord[], rule: BenchmarkRules['outlierRule'], unit: string, scale: 'absolute' | 'relative' = rule.scale ?? 'absolute'): void {
   if (pairs.length === 0) return;
@@ -107,22 +104,22 @@ export function markOutliers(pairs: PairRecord[], rule: BenchmarkRules['outlierR
   const scores = rule.kind === 'modified-z' ? modifiedZScores(scaled) : null;
   const fences = rule.kind === 'tukey' ? tukeyFences(scaled, rule.threshold) : null;
   const relative = scale === 'relative';
-  const shown = (v: number) => (relative ? `${format(100 * v, 1)} %` : `${format(v)} ${unit}`);
+  const shown = (v: number) => (relative ? `${stat('percent', 100 * v)} %` : `${stat('error', v)} ${unit}`);
   pairs.forEach((p, i) => {
     if (!flags[i]) return;
     switch (rule.kind) {
       case 'modified-z':
-        p.outlier = `modified z-score${relative ? ' of the relative error' : ''} ${format(scores![i])} beyond ±${rule.threshold}`;
+        p.outlier = `modified z-score${relative ? ' of the relative error' : ''} ${stat('score', scores![i])} beyond ±${rule.threshold}`;
         break;
       case 'tukey':
         p.outlier = `${relative ? 'relative error' : 'error'} ${shown(scaled[i])} outside the Tukey fences [${shown(fences!.lower)}, ${shown(fences!.upper)}] (k = ${rule.threshold})`;
         break;
       case 'relative':
-        p.outlier = `relative error ${format(100 * Math.abs(p.relativeError), 1)} % above ${format(100 * rule.threshold, 1)} %`;
+        p.outlier = `relative error ${stat('percent', 100 * Math.abs(p.relativeError))} % above ${stat('percent', 100 * rule.threshold)} %`;
         break;
       case 'sigma': {
         const sigma = Math.hypot(p.measuredUncertainty ?? 0, p.calculatedUncertainty ?? 0);
-        p.outlier = `|error| = ${format(Math.abs(p.error) / sigma, 1)} σ above ${rule.threshold} σ`;
+        p.outlier = `|error| = ${fixed(Math.abs(p.error) / sigma, 1)} σ above ${rule.threshold} σ`;
         break;
       }
     }
@@ -222,7 +219,7 @@ function quality(input: BenchmarkInput, calcsByMaterialMethod: Map<string, Scope
         bornCharges: stored && stored.bornCharges.length ? stored.bornCharges.map((z) => [[z, 0, 0], [0, z, 0], [0, 0, z]]) : undefined,
         thresholds: input.qualityThresholds,
       });
-      for (const f of report.flags) out.push({ methodId, materialId, code: f.code, severity: f.severity, message: f.message });
+      for (const f of report.flags) out.push({ methodId, materialId, code: f.code, severity: f.severity, message: f.message, ...(f.value !== undefined ? { value: f.value } : {}) });
       for (const n of report.notApplied) notApplied.push({ methodId, materialId, code: n.code, reason: n.reason });
     } catch (error) {
       if (!(error instanceof ScienceInputError)) throw error;

@@ -42,11 +42,12 @@ export function pairingTechnique(technique: string | null): Technique {
 
 /**
  * Modes for qualityChecks, named for its messages: the label and the rank by frequency
- * ("T1u(TO) no. 4") instead of a row id, and still unique as ids must be.
+ * ("T1u(TO) no. 4", or "no. 2" without a label, so that messages never read "mode mode")
+ * instead of a row id, and still unique as ids must be.
  */
 export function qualityModes(calcs: readonly ScopeCalculation[]): ComputedMode[] {
   const rank = new Map([...calcs].sort((a, b) => a.value - b.value).map((c, i) => [c.id, i + 1]));
-  return calcs.map((c) => ({ ...computedMode(c), id: `${c.irrep ?? 'mode'} no. ${rank.get(c.id)}` }));
+  return calcs.map((c) => ({ ...computedMode(c), id: c.irrep ? `${c.irrep} no. ${rank.get(c.id)}` : `no. ${rank.get(c.id)}` }));
 }
 
 export function computedMode(c: ScopeCalculation): ComputedMode {

@@ -216,6 +216,8 @@ export interface QualityRecord {
   code: string;
   severity: 'warning' | 'error';
   message: string;
+  /** The flag's number (the lowest imaginary mode, the acoustic |ω|, the k-point density); absent on older revisions. */
+  value?: number;
 }
 
 /** The snapshot a Revision stores (version 2 adds the fields marked optional; older ones lack them). */

@@ -35,7 +35,7 @@ export {
   scaleFactor,
 } from './descriptive';
 export { compensatedSum } from './summation';
-export { errorStatistics, combinedUncertainty, DEFAULT_BOOTSTRAP_SAMPLES, DEFAULT_BOOTSTRAP_SEED, BLAND_ALTMAN_Z } from './statistics';
+export { errorStatistics, scaleFactorStandardError, combinedUncertainty, DEFAULT_BOOTSTRAP_SAMPLES, DEFAULT_BOOTSTRAP_SEED, BLAND_ALTMAN_Z } from './statistics';
 export type { PairValue, ErrorStatistics, ErrorStatisticsOptions } from './statistics';
 export type { BootstrapIntervals } from './bootstrap';
 export { createRandom } from './random';

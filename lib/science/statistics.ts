@@ -57,6 +57,8 @@ export interface ErrorStatistics {
   rmseAfterScaling: number;
   /** RMSE after scaling with λ fitted without the pair's own cluster (module header); absent below two clusters. */
   rmseAfterScalingOutOfSample?: number;
+  /** Standard error of λ, robust to errors shared within a cluster (scaleFactorStandardError); absent below two clusters. */
+  scaleFactorStandardError?: number;
   /** Σ (e/σ)² / ν over the pairs with a combined uncertainty; absent when none has one. */
   reducedChiSquare?: number;
   /** ν: pairs with a combined uncertainty. */
@@ -126,6 +128,46 @@ function readClusters(clusters: ErrorStatisticsOptions['clusters'], n: number): 
     }
   });
   return clusters;
+}
+
+/**
+ * Standard error of the least-squares scale factor λ = Σ ωᵢνᵢ / Σ ωᵢ² (ω calculated, ν
+ * measured), robust to correlated residuals inside a cluster (the modes of one material):
+ *   u(λ)² = G/(G − 1) · Σ_g (Σ_{i∈g} ωᵢ rᵢ)² / (Σ ωᵢ²)²,   rᵢ = νᵢ − λ ωᵢ,
+ * the cluster-robust ("sandwich") variance of a one-parameter least-squares fit with the
+ * usual G/(G − 1) small-sample factor (Cameron & Miller, J. Human Resources 50, 317 (2015),
+ * §II.C). With one pair per cluster it is the heteroscedasticity-robust form, which makes
+ * no assumption that the residuals are random noise of one size: they are not, they are the
+ * method's systematic error (Irikura, Johnson & Kacker, J. Phys. Chem. A 109, 8430 (2005),
+ * argue the same for scale factors). Undefined below two clusters, where
+ * Σ_g ωr is zero by the normal equation.
+ */
+export function scaleFactorStandardError(calculated: ArrayLike<number>, measured: ArrayLike<number>, clusterOf: readonly (string | number)[]): number | undefined {
+  const n = calculated.length;
+  if (measured.length !== n || clusterOf.length !== n) throw new ScienceInputError('clusterOf', `needs one cluster per pair (${n}), got ${clusterOf.length}`);
+  const products = new Float64Array(n);
+  const squares = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    requireFinite(`calculated[${i}]`, calculated[i]);
+    requireFinite(`measured[${i}]`, measured[i]);
+    products[i] = calculated[i] * measured[i];
+    squares[i] = calculated[i] * calculated[i];
+  }
+  const denominator = compensatedSum(squares);
+  if (denominator === 0) throw new ScienceInputError('calculated', 'all values are 0; the scale factor is undefined');
+  const lambda = compensatedSum(products) / denominator;
+  const scores = new Map<string, number[]>();
+  for (let i = 0; i < n; i++) {
+    const key = String(clusterOf[i]);
+    const term = calculated[i] * (measured[i] - lambda * calculated[i]);
+    (scores.get(key) ?? scores.set(key, []).get(key)!).push(term);
+  }
+  const g = scores.size;
+  if (g < 2) return undefined;
+  const squaredScores = new Float64Array(g);
+  let j = 0;
+  for (const terms of scores.values()) squaredScores[j++] = compensatedSum(Float64Array.from(terms)) ** 2;
+  return Math.sqrt((g / (g - 1)) * compensatedSum(squaredScores)) / denominator;
 }
 
 /** Out-of-sample RMSE after scaling (module header), or undefined below two clusters. */
@@ -260,6 +302,8 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
   };
   const outOfSample = outOfSampleRmseAfterScaling(measured, calculated, clusterOf);
   if (outOfSample !== undefined) statistics.rmseAfterScalingOutOfSample = outOfSample;
+  const lambdaError = scaleFactorStandardError(calculated, measured, clusterOf);
+  if (lambdaError !== undefined) statistics.scaleFactorStandardError = lambdaError;
   if (clusters) {
     const sums = clusterSums(errors, clusterOf);
     statistics.clusterCount = sums.length;

@@ -85,6 +85,20 @@ describe('benchmark page', () => {
     await result.waitFor();
     expect(await result.textContent()).toMatch(/Wilcoxon signed-rank p/);
     expect(Number(await result.locator('dd').first().textContent())).toBeGreaterThan(10);
+    // the pair is kept in the address: a reload shows the same comparison
+    const url = new URL(page.url());
+    expect(url.searchParams.get('methodA')).toBeTruthy();
+    expect(url.searchParams.get('methodB')).toBeTruthy();
+    await page.reload();
+    const again = page.locator('section', { hasText: 'Method comparison' }).first();
+    await page.getByTestId('comparison').waitFor();
+    expect(await again.getByLabel('Method A').locator('option:checked').textContent()).toBe('PBE · NC · k8');
+    expect(await again.getByLabel('Method B').locator('option:checked').textContent()).toBe('PBEsol · PAW · k12');
+    // a method is never compared with itself
+    await again.getByLabel('Method B').selectOption({ label: 'PBE · NC · k8' });
+    expect(await page.getByTestId('comparison-error').textContent()).toBe('A method cannot be compared with itself: choose two different methods.');
+    expect(await page.getByTestId('comparison').count()).toBe(0);
+    expect(new URL(page.url()).searchParams.get('methodB')).toBe(url.searchParams.get('methodB'));
   });
 
   it('excludes an outlier with a reason; the statistics and the revision history change', async () => {
@@ -117,7 +131,7 @@ describe('benchmark page', () => {
     expect(await basis.textContent()).toMatch(/Ranked on the \d+ pairs that all 3 ranked methods share/);
     const rows = page.getByTestId('leaderboard').locator('tbody tr[data-method]');
     for (let i = 0; i < (await rows.count()); i++) {
-      expect(await rows.nth(i).locator('[data-stat="coverage"]').textContent()).toMatch(/\d+ %/);
+      expect(await rows.nth(i).locator('[data-stat="coverage"]').textContent()).toMatch(/\d+\s%/);
       expect(await rows.nth(i).locator('[data-stat="common-mae"] strong').textContent()).toMatch(/^\d+\.\d\d$/);
     }
     expect(await page.getByText(/resamples whole materials/).count()).toBeGreaterThan(0);
@@ -182,5 +196,33 @@ describe('benchmark page', () => {
     const order = await page.getByTestId('leaderboard').locator('tbody tr[data-method]').evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-method')));
     expect(order.indexOf(label)).toBe(order.length - 1);
     await screenshot(page, 'benchmark-optical-only');
+  });
+
+  it('after an import shows "Recomputing…" and then the new revision, without a reload', async () => {
+    const label = `Recompute check (e2e ${Date.now() % 100000})`;
+    await page.goto(`${base}/w/${DEMO_SLUG}/methods/new`);
+    await page.getByLabel('Label (unique)').fill(label);
+    await page.getByLabel('Functional').fill('PBEsol');
+    await page.getByRole('button', { name: 'Create method' }).click();
+    await page.waitForURL((url) => !url.pathname.endsWith('/methods/new'));
+
+    await page.goto(benchmarkUrl);
+    await page.getByTestId('leaderboard').waitFor();
+    const revisionLine = page.getByTestId('revision-line');
+    const before = Number((await revisionLine.textContent())!.match(/^Revision (\d+)/)![1]);
+    // a mark in this document: a reload or a navigation would drop it
+    await page.evaluate(() => ((window as unknown as { ledgerMark: number }).ledgerMark = 42));
+    const pairsHref = (await page.getByRole('link', { name: 'Pairs (CSV)' }).getAttribute('href'))!;
+    const workspaceApi = pairsHref.split('/benchmarks/')[0];
+    // Si's measured T2g line is 520.45 cm⁻¹ (demo data, published); this computed line is invented.
+    const csv = ['material,method,quantity,value,unit,source,irrep,activity,degeneracy', `Si,${label},frequency,517.3,cm-1,demo-synthetic-2026,T2g,raman,3`].join('\n');
+    const res = await page.request.post(`${base}${workspaceApi}/imports?kind=calculations&fileName=recompute-check.csv`, { headers: { origin: base, 'content-type': 'text/csv' }, data: `${csv}\n` });
+    expect(res.status(), await res.text()).toBe(201);
+
+    await page.getByTestId('recomputing').getByText('Recomputing…').waitFor({ timeout: 15_000 });
+    await expect.poll(async () => (await revisionLine.textContent()) ?? '', { timeout: 45_000, interval: 500 }).toMatch(new RegExp(`^Revision ${before + 1} `));
+    expect(await page.evaluate(() => (window as unknown as { ledgerMark?: number }).ledgerMark)).toBe(42);
+    await page.getByTestId('leaderboard').locator(`tbody tr[data-method="${label}"]`).waitFor();
+    await expect.poll(() => page.getByTestId('recomputing').count(), { timeout: 10_000 }).toBe(0);
   });
 });

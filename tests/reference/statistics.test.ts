@@ -11,6 +11,7 @@ import {
   quantile,
   sampleStandardDeviation,
   scaleFactor,
+  scaleFactorStandardError,
   tukeyFences,
   flagOutliers,
 } from '@/lib/science';
@@ -148,6 +149,29 @@ describe('least-squares scale factor', () => {
     );
     expect(stats.scaleFactor).toBeCloseTo(lambda, 13);
     expect(stats.rmseAfterScaling).toBeCloseTo(Math.sqrt(residual(lambda) / 4), 12);
+  });
+});
+
+describe('standard error of the scale factor', () => {
+  // Worked by hand: ω = 1, 2, 3 and ν = 1, 2, 4 give λ = 17/14 and residuals ν − λω = −3/14, −6/14, 5/14,
+  // so the scores ω r are −3/14, −12/14, 15/14 (they sum to 0: the normal equation).
+  const calculated = [1, 2, 3];
+  const measured = [1, 2, 4];
+
+  it('one pair per cluster: u(λ)² = G/(G − 1) Σ (ω r)² / (Σ ω²)² (Cameron & Miller 2015, robust form)', () => {
+    // 3/2 · (9 + 144 + 225)/196 / 14² → u = √567 / 196
+    expect(scaleFactorStandardError(calculated, measured, ['a', 'b', 'c'])).toBeCloseTo(Math.sqrt(567) / 196, 14);
+  });
+
+  it('modes of one material share a cluster: their scores add before squaring', () => {
+    // clusters {1, 2} and {3}: sums −15/14 and 15/14 → 2/1 · 450/196 / 196 → u = 30/196
+    expect(scaleFactorStandardError(calculated, measured, ['x', 'x', 'y'])).toBeCloseTo(30 / 196, 14);
+  });
+
+  it('is undefined with one cluster, and errorStatistics carries it when clusters are given', () => {
+    expect(scaleFactorStandardError(calculated, measured, ['x', 'x', 'x'])).toBeUndefined();
+    const stats = errorStatistics(calculated.map((c, i) => ({ calculated: c, measured: measured[i] })), { bootstrapSamples: 0, clusters: ['x', 'x', 'y'] });
+    expect(stats.scaleFactorStandardError).toBeCloseTo(30 / 196, 14);
   });
 });
 

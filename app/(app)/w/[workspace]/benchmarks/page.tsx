@@ -4,6 +4,7 @@ import { roleCan } from '@/lib/permissions';
 import { listBenchmarks } from '@/db/queries/benchmarks';
 import { EmptyState } from '@/components/ui/panel';
 import { buttonClass } from '@/components/ui/button';
+import { CANONICAL_UNIT_SYMBOL, count, header, stat, withUnit } from '@/lib/format';
 
 export const metadata = { title: 'Benchmarks' };
 
@@ -12,6 +13,9 @@ export default async function BenchmarksPage({ params }: { params: Promise<{ wor
   const ctx = await requirePageMember(slug, 'benchmarks:read');
   const rows = await listBenchmarks(ctx.workspace.id);
   const canCreate = roleCan(ctx.role, 'benchmarks:create');
+  // MAE is in the unit of each benchmark's quantity: one unit in the header when every row shares it
+  const units = [...new Set(rows.map((b) => CANONICAL_UNIT_SYMBOL[b.quantity]))];
+  const oneUnit = units.length === 1 ? units[0] : null;
   return (
     <div className="space-y-4">
       <div className="flex items-center justify-between gap-3">
@@ -35,7 +39,7 @@ export default async function BenchmarksPage({ params }: { params: Promise<{ wor
               <th className="px-3 py-2 font-medium">Quantity</th>
               <th className="px-3 py-2 font-medium">Latest revision</th>
               <th className="px-3 py-2 font-medium">Methods · pairs</th>
-              <th className="px-3 py-2 font-medium">Best MAE</th>
+              <th className="px-3 py-2 font-medium">{oneUnit ? header('Best MAE', oneUnit) : 'Best MAE (unit of the quantity)'}</th>
             </tr>
           </thead>
           <tbody>
@@ -50,9 +54,20 @@ export default async function BenchmarksPage({ params }: { params: Promise<{ wor
                 <td className="px-3 py-2">{b.quantity === 'frequency' ? 'Γ-point frequency' : 'Vibrational entropy'}</td>
                 <td className="num px-3 py-2">{b.revisionNumber ?? '—'}</td>
                 <td className="num px-3 py-2">
-                  {b.methodCount} · {b.pairCount.toLocaleString('en')}
+                  {b.methodCount} · {count(b.pairCount)}
                 </td>
-                <td className="num px-3 py-2">{b.best ? `${b.best.mae.toFixed(2)} (${b.best.label}, ${b.best.common ? "common " : ""}N = ${b.best.n})` : "—"}</td>
+                <td className="num px-3 py-2" data-stat="best-mae">
+                  {b.best ? (
+                    <>
+                      {oneUnit ? stat('error', b.best.mae) : withUnit(stat('error', b.best.mae), CANONICAL_UNIT_SYMBOL[b.quantity])}{' '}
+                      <span className="text-ink-muted">
+                        ({b.best.label}, {b.best.common ? 'common ' : ''}N = {b.best.n})
+                      </span>
+                    </>
+                  ) : (
+                    '—'
+                  )}
+                </td>
               </tr>
             ))}
           </tbody>

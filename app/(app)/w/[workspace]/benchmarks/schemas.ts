@@ -115,3 +115,35 @@ export const revokePinFormSchema = z.object({
   pinId: z.string().min(1),
   reason: z.string().trim().min(3, 'Give a reason (at least 3 characters).').max(1000),
 });
+
+/** The method comparison's pair, as kept in the page address (?methodA=…&methodB=…). */
+export const comparisonPairSchema = z
+  .object({
+    methodA: z.string().trim().min(1, 'Choose method A.'),
+    methodB: z.string().trim().min(1, 'Choose method B.'),
+  })
+  .refine((p) => p.methodA !== p.methodB, {
+    message: 'A method cannot be compared with itself: choose two different methods.',
+    path: ['methodB'],
+  });
+export type ComparisonPair = z.infer<typeof comparisonPairSchema>;
+
+/**
+ * The pair asked for in the address, checked against the methods of the revision:
+ * `pair` when both are known and different, else the first two methods and the reason.
+ */
+export function comparisonFromSearch(
+  search: { methodA?: string | string[]; methodB?: string | string[] },
+  methodIds: readonly string[],
+): { pair: ComparisonPair | null; error: string | null } {
+  const first = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
+  const fallback = methodIds.length >= 2 ? { methodA: methodIds[0], methodB: methodIds[1] } : null;
+  const asked = { methodA: first(search.methodA), methodB: first(search.methodB) };
+  if (asked.methodA === undefined && asked.methodB === undefined) return { pair: fallback, error: null };
+  const unknown = [asked.methodA, asked.methodB].some((id) => id === undefined || !methodIds.includes(id));
+  if (unknown) return { pair: fallback, error: 'The address names a method that is not in this revision; showing the first two methods instead.' };
+  const parsed = comparisonPairSchema.safeParse(asked);
+  // a self-comparison stays on screen with the refusal, so the reader sees what was asked
+  if (!parsed.success) return { pair: { methodA: asked.methodA!, methodB: asked.methodB! }, error: parsed.error.issues[0].message };
+  return { pair: parsed.data, error: null };
+}

@@ -162,7 +162,7 @@ export function BenchmarkPlots({
         </div>
       ) : null}
 
-      <div className="grid gap-6 xl:grid-cols-2">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-6 xl:grid-cols-2">
         <VegaFigure spec={parity} text={texts.parity} renderer={renderer} fileName={`${fileStem}-parity`} title="Parity plot (y = x, dashed; shaded ± band)" onPick={pick} />
         <VegaFigure spec={residual} text={texts.residual} renderer={renderer} fileName={`${fileStem}-residuals`} title="Residual vs measured" onPick={pick} />
         <div className="space-y-2">

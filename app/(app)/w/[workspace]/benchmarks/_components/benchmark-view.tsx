@@ -12,6 +12,7 @@ import { EmptyState, Panel } from '@/components/ui/panel';
 import { Notice } from '@/components/ui/notice';
 import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
+import { ScalingPanel } from './scaling-panel';
 import { MaterialTable } from './material-table';
 import { ENTROPY_CAUTION } from '@/lib/benchmark/compute';
 import { BreakdownTable } from './breakdown-table';
@@ -21,7 +22,9 @@ import { RevisionHistory } from './revision-history';
 import { PairDecisionForm, RecomputeButton, RevertForm } from './decision-forms';
 import { RecomputeWatcher } from './recompute-watcher';
 import { QueryProvider } from './query-provider';
-import { fmt, signed, when } from './format';
+import { counted, header as withUnitHeader, plain, signed, trueMinus, utcMinute as when } from '@/lib/format';
+import { qualityLines } from '@/lib/benchmark/quality-lines';
+import { comparisonFromSearch } from '../schemas';
 import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
 import { DiscussButton } from '@/app/(app)/w/[workspace]/_discussion/discuss-button';
 import { listBenchmarkThreads, threadsBySubject } from '@/db/queries/comments';
@@ -38,12 +41,15 @@ export async function BenchmarkView({
   workspace,
   role,
   computing,
+  search = {},
 }: {
   bm: BenchmarkRecord;
   rev: RevisionView | null;
   workspace: { id: string; slug: string; name: string };
   role: WorkspaceRole;
   computing: boolean;
+  /** The page's search parameters (the method comparison's pair). */
+  search?: Record<string, string | string[] | undefined>;
 }) {
   const base = `/w/${workspace.slug}/benchmarks/${bm.id}`;
   const api = `/api/workspaces/${workspace.id}/benchmarks/${bm.id}`;
@@ -75,7 +81,7 @@ export async function BenchmarkView({
         </div>
       </div>
       {rev ? (
-        <p className="text-xs text-ink-muted">
+        <p className="text-xs text-ink-muted" data-testid="revision-line">
           Revision {rev.number} · {when(rev.createdAt)} · fingerprint sha256:{rev.fingerprint.slice(0, 16)}
           {readOnly ? (
             <>
@@ -136,6 +142,8 @@ export async function BenchmarkView({
   const cite = howToCite({ workspaceName: workspace.name, benchmarkName: bm.name, revisionNumber: rev.number, fingerprint: rev.fingerprint, createdAt: rev.createdAt, url });
   const fileStem = `${bm.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'benchmark'}-r${rev.number}`;
   const q = `revision=${rev.number}`;
+  const comparison = comparisonFromSearch(search, methodList.map((m) => m.methodId));
+  const qualityLineList = qualityLines(snap.quality, (id) => methodLabel.get(id) ?? id, materialName);
 
   return (
     <div className="space-y-6">
@@ -173,6 +181,12 @@ export async function BenchmarkView({
             </p>
           </Panel>
 
+          {snap.quantity === 'frequency' ? (
+            <Panel title="Scaling">
+              <ScalingPanel methods={snap.methods} unit={snap.unit} />
+            </Panel>
+          ) : null}
+
           <Panel title="Plots">
             <BenchmarkPlots
                 workspaceId={workspace.id}
@@ -192,26 +206,26 @@ export async function BenchmarkView({
 
           <div className="grid gap-4 xl:grid-cols-2">
             <Panel title="Per material class">
-              <BreakdownTable rows={snap.classes} methods={methodList} groupTitle="Class (tag)" caption="Statistics per material class" />
+              <BreakdownTable rows={snap.classes} methods={methodList} groupTitle="Class (tag)" caption="Statistics per material class" unit={snap.unit} />
             </Panel>
             {snap.quantity === 'frequency' ? (
               <Panel title={`Per frequency band (${snap.unit})`}>
-                <BreakdownTable rows={snap.bands} methods={methodList} groupTitle="Measured band" caption="Statistics per frequency band" />
+                <BreakdownTable rows={snap.bands} methods={methodList} groupTitle="Measured band" caption="Statistics per frequency band" unit={snap.unit} />
               </Panel>
             ) : null}
             {snap.species?.length ? (
               <Panel title="Per symmetry species">
-                <BreakdownTable rows={snap.species} methods={methodList} groupTitle="Species" caption="Statistics per irreducible-representation species" />
+                <BreakdownTable rows={snap.species} methods={methodList} groupTitle="Species" caption="Statistics per irreducible-representation species" unit={snap.unit} />
               </Panel>
             ) : null}
             {snap.branches?.length ? (
               <Panel title="Per branch (TO / LO)">
-                <BreakdownTable rows={snap.branches} methods={methodList} groupTitle="Branch" caption="Statistics per TO / LO branch" />
+                <BreakdownTable rows={snap.branches} methods={methodList} groupTitle="Branch" caption="Statistics per TO / LO branch" unit={snap.unit} />
               </Panel>
             ) : null}
             {snap.techniques?.length ? (
               <Panel title="Per technique">
-                <BreakdownTable rows={snap.techniques.map((r) => ({ ...r, group: techniqueName(r.group === 'not stated' ? null : r.group) }))} methods={methodList} groupTitle="Technique" caption="Statistics per measurement technique" />
+                <BreakdownTable rows={snap.techniques.map((r) => ({ ...r, group: techniqueName(r.group === 'not stated' ? null : r.group) }))} methods={methodList} groupTitle="Technique" caption="Statistics per measurement technique" unit={snap.unit} />
               </Panel>
             ) : null}
           </div>
@@ -225,6 +239,8 @@ export async function BenchmarkView({
                 comparisons={snap.comparisons}
                 unit={snap.unit}
                 fileStem={fileStem}
+                initial={comparison.pair}
+                initialError={comparison.error}
               />
           </Panel>
 
@@ -244,12 +260,11 @@ export async function BenchmarkView({
                 <table className="min-w-full border-collapse text-[13px]" data-testid="outliers">
                   <thead className="border-b border-rule">
                     <tr className="text-left text-ink-muted">
-                      <th className="px-2 py-1.5 font-medium">Pair</th>
+                      <th className="px-2 py-1.5 font-medium">Pair (measurement source)</th>
                       <th className="px-2 py-1.5 font-medium">Method</th>
-                      <th className="px-2 py-1.5 font-medium">Measured → calculated</th>
-                      <th className="px-2 py-1.5 font-medium">Error</th>
+                      <th className="px-2 py-1.5 font-medium">{withUnitHeader('Measured → calculated', snap.unit)}</th>
+                      <th className="px-2 py-1.5 font-medium">{withUnitHeader('Error', snap.unit)}</th>
                       <th className="px-2 py-1.5 font-medium">Why</th>
-                      <th className="px-2 py-1.5 font-medium">Measurement source</th>
                       <th className="px-2 py-1.5 font-medium">Discussion</th>
                       {canDecide ? <th className="px-2 py-1.5 font-medium">Decision</th> : null}
                     </tr>
@@ -259,46 +274,46 @@ export async function BenchmarkView({
                       const src = lookups.sources.get(p.sourceIds[0]);
                       return (
                         <tr key={p.key} id={`pair-${encodeURIComponent(p.key)}`} className="border-b border-rule/70 align-top">
-                          <td className="px-2 py-1.5">
-                            <Link href={`/w/${workspace.slug}/materials/${p.materialId}`}>{materialName(p.materialId)}</Link> {p.label ?? ''}{' '}
-                            <span className="text-xs text-ink-faint">{techniqueName(p.technique)}</span>
+                          <td className="min-w-48 px-2 py-1.5">
+                            <Link href={`/w/${workspace.slug}/materials/${p.materialId}`}>{materialName(p.materialId)}</Link>
+                            {p.label ? ` ${p.label}` : null} <span className="text-xs text-ink-faint">{techniqueName(p.technique)}</span>
+                            <span className="mt-0.5 block text-xs text-ink-muted" data-testid="pair-source">
+                              {src ? (
+                                <>
+                                  {src.citation}
+                                  {src.doi ? (
+                                    <>
+                                      {' '}
+                                      <a href={`https://doi.org/${src.doi}`} rel="noreferrer noopener" target="_blank">
+                                        doi
+                                      </a>
+                                    </>
+                                  ) : null}
+                                </>
+                              ) : (
+                                'source not found'
+                              )}
+                            </span>
                           </td>
                           <td className="px-2 py-1.5">{methodLabel.get(p.methodId)}</td>
-                          <td className="num px-2 py-1.5">
-                            {fmt(p.measured)} → {fmt(p.calculated)}
+                          <td className="num px-2 py-1.5 whitespace-nowrap">
+                            {plain(p.measured)} → {plain(p.calculated)}
                           </td>
-                          <td className="num px-2 py-1.5">{signed(p.error)}</td>
-                          <td className="px-2 py-1.5">
-                            {p.excluded !== null ? <span className="text-bad">Excluded: {p.excluded}</span> : <span className="text-warn">{p.outlier}</span>}
+                          <td className="num px-2 py-1.5 whitespace-nowrap">{signed(p.error)}</td>
+                          <td className="min-w-44 px-2 py-1.5">
+                            {p.excluded !== null ? <span className="text-bad">Excluded: {p.excluded}</span> : <span className="text-warn">{trueMinus(p.outlier ?? '')}</span>}
                           </td>
-                          <td className="px-2 py-1.5">
-                            {src ? (
-                              <>
-                                {src.citation}
-                                {src.doi ? (
-                                  <>
-                                    {' '}
-                                    <a href={`https://doi.org/${src.doi}`} rel="noreferrer noopener" target="_blank">
-                                      doi
-                                    </a>
-                                  </>
-                                ) : null}
-                              </>
-                            ) : (
-                              '—'
-                            )}
-                          </td>
-                          <td className="px-2 py-1.5">
+                          <td className="px-2 py-1.5 whitespace-nowrap">
                             <DiscussButton
                               workspaceId={workspace.id}
                               subject={{ kind: 'pair', id: p.key, benchmarkId: bm.id, pinnable: p.measurementIds.length === 1 && p.calculationIds.length > 0 }}
-                              title={`${materialName(p.materialId)} ${p.label ?? ''} · ${methodLabel.get(p.methodId) ?? ''}`}
+                              title={`${[materialName(p.materialId), p.label].filter(Boolean).join(' ')} · ${methodLabel.get(p.methodId) ?? ''}`}
                               threads={threads.get(`pair|${p.key}`) ?? []}
                               can={can}
                             />
                           </td>
                           {canDecide ? (
-                            <td className="px-2 py-1.5">
+                            <td className="min-w-28 px-2 py-1.5">
                               {p.excluded === null && p.measurementIds.length === 1 ? (
                                 <PairDecisionForm
                                   pair={{
@@ -348,9 +363,32 @@ export async function BenchmarkView({
             </ul>
           )}
         </Panel>
-        <Panel title={`Quality flags (${snap.quality.length})`}>
+        <Panel title={`Quality flags (${qualityLineList.length} ${qualityLineList.length === 1 ? 'line' : 'lines'}, ${counted(snap.quality.length, 'flag')})`}>
+          {snap.quality.length === 0 ? (
+            <p className="text-sm text-ink-muted">No calculation set in scope fails a quality check.</p>
+          ) : (
+            <>
+              <p className="mb-2 text-xs text-ink-muted">Most serious first. A note that follows from a method&apos;s grids alone is one line per method, with the number of materials it concerns.</p>
+              <ScrollRegion label="Quality flags list" className="max-h-80 overflow-y-auto">
+                <ul className="space-y-1.5 text-sm" data-testid="quality-lines">
+                  {qualityLineList.slice(0, 300).map((l) => (
+                    <li key={l.key} data-code={l.code} className="leading-snug">
+                      <span className={`mr-1 rounded px-1.5 text-xs font-medium ${l.severity === 'error' ? 'bg-bad-soft text-bad' : 'bg-warn-soft text-warn'}`}>{l.codeName}</span>
+                      <span className="font-medium">{l.methodLabel}</span> · <span>{l.scope}</span>: <span className="text-ink-muted">{l.message}</span>
+                      {l.materials.length > 1 ? (
+                        <details className="ml-1 text-xs text-ink-muted">
+                          <summary className="cursor-pointer">Which materials</summary>
+                          {l.materials.join(', ')}
+                        </details>
+                      ) : null}
+                    </li>
+                  ))}
+                </ul>
+              </ScrollRegion>
+            </>
+          )}
           {snap.qualityNotApplied?.length ? (
-            <ul className="mb-2 space-y-1 text-xs text-ink-muted" data-testid="quality-not-applied">
+            <ul className="mt-2 space-y-1 text-xs text-ink-muted" data-testid="quality-not-applied">
               {snap.qualityNotApplied.slice(0, 50).map((n, i) => (
                 <li key={i}>
                   {n.code} · {methodLabel.get(n.methodId)} · {materialName(n.materialId)}: {n.reason}
@@ -358,19 +396,6 @@ export async function BenchmarkView({
               ))}
             </ul>
           ) : null}
-          {snap.quality.length === 0 ? (
-            <p className="text-sm text-ink-muted">No calculation set in scope fails a quality check.</p>
-          ) : (
-            <ScrollRegion label="Quality flags list" className="max-h-72 overflow-y-auto">
-            <ul className="space-y-1 text-sm">
-              {snap.quality.slice(0, 300).map((f, i) => (
-                <li key={i}>
-                  <span className={f.severity === 'error' ? 'text-bad' : 'text-warn'}>{f.code}</span> · {methodLabel.get(f.methodId)} · {materialName(f.materialId)}: {f.message}
-                </li>
-              ))}
-            </ul>
-            </ScrollRegion>
-          )}
         </Panel>
       </div>
 
@@ -391,6 +416,12 @@ export async function BenchmarkView({
           <div className="flex flex-wrap gap-2">
             <a className={buttonClass('secondary')} href={`${api}/pairs?${q}&format=csv`} download>
               Pairs (CSV)
+            </a>
+            <a className={buttonClass('secondary')} href={`${api}/leaderboard?${q}&format=csv`} download>
+              Leaderboard (CSV)
+            </a>
+            <a className={buttonClass('secondary')} href={`${api}/leaderboard?${q}&format=latex`} download>
+              Leaderboard (LaTeX)
             </a>
             <span className="self-center text-xs text-ink-muted">Plots download as SVG or PNG from their own buttons.</span>
           </div>

@@ -31,8 +31,8 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
   }, { ok: false });
   return (
     <div className="relative space-y-1">
-      <div className="flex gap-1.5">
-        <button type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open === 'decide'} onClick={() => setOpen(open === 'decide' ? null : 'decide')}>
+      <div className="flex flex-wrap gap-1.5">
+        <button type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs whitespace-nowrap')} aria-expanded={open === 'decide'} onClick={() => setOpen(open === 'decide' ? null : 'decide')}>
           Exclude / keep…
         </button>
         <button type="button" className={buttonClass('ghost', 'px-2 py-0.5 text-xs')} aria-expanded={open === 'pin'} onClick={() => setOpen(open === 'pin' ? null : 'pin')}>

@@ -2,16 +2,17 @@
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import type { MaterialRow } from '@/lib/benchmark/types';
-import { fmt, signed } from './format';
+import { header, signed, stat } from '@/lib/format';
+import { ScrollRegion } from '@/components/ui/scroll-region';
 
 type SortKey = 'name' | 'n' | 'meanAbsoluteError' | 'meanSignedError' | 'maxAbsoluteError' | 'flags';
 
-const COLUMNS: Array<{ key: SortKey; label: string; title?: string }> = [
+const columns = (unit: string): Array<{ key: SortKey; label: string; title?: string }> => [
   { key: 'name', label: 'Material' },
   { key: 'n', label: 'N' },
-  { key: 'meanAbsoluteError', label: 'MAE' },
-  { key: 'meanSignedError', label: 'Mean signed error', title: 'calculated − measured' },
-  { key: 'maxAbsoluteError', label: 'Max |error|' },
+  { key: 'meanAbsoluteError', label: header('MAE', unit) },
+  { key: 'meanSignedError', label: header('Mean signed error', unit), title: 'calculated − measured' },
+  { key: 'maxAbsoluteError', label: header('Max |error|', unit) },
   { key: 'flags', label: 'Flags', title: 'outliers · ambiguous pairs · excluded pairs · quality flags' },
 ];
 
@@ -37,6 +38,7 @@ export function MaterialTable({ rows, methods, unit, slug }: { rows: MaterialRow
       return (sort.descending ? -order : order) || a.name.localeCompare(b.name);
     });
   }, [rows, methodId, sort]);
+  const COLUMNS = columns(unit);
   if (withRows.length === 0) return <p className="text-sm text-ink-muted">No pairs.</p>;
   return (
     <div className="space-y-2">
@@ -50,7 +52,7 @@ export function MaterialTable({ rows, methods, unit, slug }: { rows: MaterialRow
           ))}
         </select>
       </label>
-      <div className="max-h-[28rem] overflow-auto rounded-md border border-rule" tabIndex={0} role="region" aria-label="Materials of the method (scrolls)">
+      <ScrollRegion className="max-h-[28rem] overflow-auto rounded-md border border-rule" label="Materials of the method">
         <table className="min-w-full border-collapse text-[13px]" data-testid="material-table">
           <caption className="sr-only">Per-material statistics of the chosen method, errors in {unit}; sorted by {COLUMNS.find((c) => c.key === sort.key)?.label}</caption>
           <thead className="sticky top-0 z-20 border-b border-rule bg-panel">
@@ -83,10 +85,10 @@ export function MaterialTable({ rows, methods, unit, slug }: { rows: MaterialRow
                 </th>
                 <td className="num px-2 py-1.5">{r.n}</td>
                 <td className="num px-2 py-1.5" data-stat="mae">
-                  <strong>{fmt(r.meanAbsoluteError)}</strong>
+                  <strong>{stat('error', r.meanAbsoluteError)}</strong>
                 </td>
                 <td className="num px-2 py-1.5">{signed(r.meanSignedError)}</td>
-                <td className="num px-2 py-1.5">{fmt(r.maxAbsoluteError)}</td>
+                <td className="num px-2 py-1.5">{stat('error', r.maxAbsoluteError)}</td>
                 <td className="px-2 py-1.5 text-xs">
                   {flagsOf(r) === 0 ? (
                     <span className="text-ink-faint">—</span>
@@ -100,7 +102,7 @@ export function MaterialTable({ rows, methods, unit, slug }: { rows: MaterialRow
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
     </div>
   );
 }

@@ -7,6 +7,16 @@ import { inputClass } from '@/components/ui/field';
 import type { ComparisonRecord } from '@/lib/benchmark/types';
 import { usePairs } from './use-benchmark-data';
 import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
+import { comparisonPairSchema, type ComparisonPair } from '../schemas';
+import { pValue, signed, withUnit } from '@/lib/format';
+
+/** Writes the chosen pair into the address without a navigation, so a reload or a shared link shows the same comparison. */
+function keepInAddress(pair: ComparisonPair) {
+  const url = new URL(window.location.href);
+  url.searchParams.set('methodA', pair.methodA);
+  url.searchParams.set('methodB', pair.methodB);
+  window.history.replaceState(window.history.state, '', url);
+}
 
 function measurementKey(key: string): string {
   return key.slice(key.indexOf('|') + 1);
@@ -21,6 +31,8 @@ export function MethodComparison({
   comparisons,
   unit,
   fileStem,
+  initial,
+  initialError,
 }: {
   workspaceId: string;
   benchmarkId: string;
@@ -29,9 +41,20 @@ export function MethodComparison({
   comparisons: ComparisonRecord[];
   unit: string;
   fileStem: string;
+  /** The pair from the address (comparisonFromSearch), or null for the first two methods. */
+  initial: ComparisonPair | null;
+  initialError: string | null;
 }) {
-  const [a, setA] = useState(methods[0]?.methodId ?? '');
-  const [b, setB] = useState(methods[1]?.methodId ?? '');
+  const [a, setA] = useState(initial?.methodA ?? methods[0]?.methodId ?? '');
+  const [b, setB] = useState(initial?.methodB ?? methods[1]?.methodId ?? '');
+  const [error, setError] = useState<string | null>(initialError);
+  const choose = (next: { methodA: string; methodB: string }) => {
+    setA(next.methodA);
+    setB(next.methodB);
+    const parsed = comparisonPairSchema.safeParse(next);
+    setError(parsed.success ? null : parsed.error.issues[0].message);
+    if (parsed.success) keepInAddress(parsed.data);
+  };
   const { data } = usePairs(workspaceId, benchmarkId, revision);
   const label = (id: string) => methods.find((m) => m.methodId === id)?.label ?? id;
 
@@ -59,7 +82,7 @@ export function MethodComparison({
         <div className="flex flex-wrap gap-3 text-sm">
           <label className="flex items-center gap-2">
             Method A
-            <select className={`${inputClass} w-auto`} value={a} onChange={(e) => setA(e.target.value)}>
+            <select className={`${inputClass} w-auto`} value={a} onChange={(e) => choose({ methodA: e.target.value, methodB: b })} aria-invalid={error !== null && a === b}>
               {methods.map((m) => (
                 <option key={m.methodId} value={m.methodId}>
                   {m.label}
@@ -69,7 +92,7 @@ export function MethodComparison({
           </label>
           <label className="flex items-center gap-2">
             Method B
-            <select className={`${inputClass} w-auto`} value={b} onChange={(e) => setB(e.target.value)}>
+            <select className={`${inputClass} w-auto`} value={b} onChange={(e) => choose({ methodA: a, methodB: e.target.value })} aria-invalid={error !== null && a === b} aria-describedby={error ? 'comparison-error' : undefined}>
               {methods.map((m) => (
                 <option key={m.methodId} value={m.methodId}>
                   {m.label}
@@ -78,9 +101,12 @@ export function MethodComparison({
             </select>
           </label>
         </div>
-        {a === b ? (
-          <p className="text-sm text-ink-muted">Choose two different methods.</p>
-        ) : !record ? (
+        {error ? (
+          <p id="comparison-error" role="alert" className="text-sm text-bad" data-testid="comparison-error">
+            {error}
+          </p>
+        ) : null}
+        {a === b ? null : !record ? (
           <p className="text-sm text-ink-muted">These two methods have no pair in common (no measurement paired under both).</p>
         ) : (
           <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm" data-testid="comparison">
@@ -88,11 +114,11 @@ export function MethodComparison({
             <dd className="num">{record.n}</dd>
             <dt className="text-ink-muted">Mean difference of |error| (A − B)</dt>
             <dd className="num">
-              {(flipped ? -record.meanDifference : record.meanDifference).toFixed(3)} {unit}
+              {withUnit(signed(flipped ? -record.meanDifference : record.meanDifference, 3), unit)}
             </dd>
             <dt className="text-ink-muted">Wilcoxon signed-rank p</dt>
             <dd className="num">
-              {record.wilcoxon.pValue < 0.0001 ? record.wilcoxon.pValue.toExponential(2) : record.wilcoxon.pValue.toFixed(4)} ({record.wilcoxon.method === 'exact' ? 'exact' : 'normal approximation'})
+              {pValue(record.wilcoxon.pValue)} ({record.wilcoxon.method === 'exact' ? 'exact' : 'normal approximation'})
             </dd>
             <dt className="text-ink-muted">A closer / B closer / ties</dt>
             <dd className="num">
@@ -101,7 +127,7 @@ export function MethodComparison({
           </dl>
         )}
         <p className="text-xs text-ink-faint">Points below the dashed line are pairs where {label(b)} is closer to experiment.</p>
-        <AddToDeck workspaceId={workspaceId} kinds={['comparison']} benchmarkId={benchmarkId} revisionNumber={revision} filters={{ methodA: a, methodB: b }} defaultTitle={`${label(a)} vs ${label(b)}`} />
+        {a === b ? null : <AddToDeck workspaceId={workspaceId} kinds={['comparison']} benchmarkId={benchmarkId} revisionNumber={revision} filters={{ methodA: a, methodB: b }} defaultTitle={`${label(a)} vs ${label(b)}`} />}
       </div>
       {a !== b && points.length > 0 ? (
         <VegaFigure spec={spec} text={text} renderer={rendererFor(points.length)} fileName={`${fileStem}-${label(a)}-vs-${label(b)}`} title={`|error| per common pair: ${label(a)} vs ${label(b)}`} />

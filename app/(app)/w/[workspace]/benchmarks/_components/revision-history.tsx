@@ -1,6 +1,6 @@
 import Link from 'next/link';
 import type { HistoryEntry } from '@/db/queries/revisions';
-import { fmt, signed, when } from './format';
+import { signed, stat, utcMinute as when } from '@/lib/format';
 
 /** Timeline of revisions, newest first: what changed and the per-method deltas against the revision before. */
 export function RevisionHistory({
@@ -79,8 +79,8 @@ export function RevisionHistory({
                           {m.n}
                         </td>
                         <td className="num pr-3">
-                          MAE {was ? `${fmt(was.mae)} → ` : ''}
-                          {fmt(m.mae)} {dMae !== null && Math.abs(dMae) > 0 ? `(${signed(dMae, 3)})` : ''}
+                          MAE {was ? `${stat('error', was.mae)} → ` : ''}
+                          {stat('error', m.mae)} {dMae !== null && Math.abs(dMae) > 0 ? `(${signed(dMae, 3)})` : ''}
                         </td>
                         <td className="num">
                           excluded {was ? `${was.excluded} → ` : ''}

@@ -1,7 +1,7 @@
 'use client';
 import { useQuery } from '@tanstack/react-query';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
-import type { StatisticsPayload } from '@/lib/benchmark/statistics-payload';
+import type { RecomputeStatus } from '@/lib/benchmark/recompute-status';
 
 async function getJson<T>(url: string): Promise<T> {
   const res = await fetch(url, { headers: { accept: 'application/json' } });
@@ -25,11 +25,16 @@ export function usePairs(workspaceId: string, benchmarkId: string, revision: num
   });
 }
 
-/** The latest revision head and whether a newer one is being computed; polls while it is (or, before the first answer, while the page said so). */
-export function useLatestStatistics(workspaceId: string, benchmarkId: string, poll: boolean) {
+/** While a recomputation is queued or running, poll quickly; otherwise often enough to catch the queue's debounce after an import elsewhere. */
+export const STATUS_POLL_BUSY_MS = 1000;
+export const STATUS_POLL_IDLE_MS = 1500;
+
+/** The benchmark's recomputation state and latest revision (a few bytes), polled while the page is visible. */
+export function useRecomputeStatus(workspaceId: string, benchmarkId: string, computing: boolean) {
   return useQuery({
-    queryKey: ['benchmark-statistics', workspaceId, benchmarkId],
-    queryFn: () => getJson<StatisticsPayload>(`${benchmarkApi(workspaceId, benchmarkId)}/statistics`),
-    refetchInterval: (query) => ((query.state.data ? query.state.data.computing : poll) ? 1500 : false),
+    queryKey: ['benchmark-status', workspaceId, benchmarkId],
+    queryFn: () => getJson<RecomputeStatus>(`${benchmarkApi(workspaceId, benchmarkId)}/status`),
+    staleTime: 0,
+    refetchInterval: (query) => ((query.state.data ? query.state.data.computing : computing) ? STATUS_POLL_BUSY_MS : STATUS_POLL_IDLE_MS),
   });
 }

@@ -154,7 +154,7 @@ export async function DeckSlide({ workspace, entry, mode, part = 0, parts = 1 }:
     shownPairs = [];
   } else if (entry.viewKind === 'leaderboard') {
     const methods = snap.methods.filter((x) => !hidden.has(x.methodId));
-    body = <Leaderboard methods={methods} unit={snap.unit} pairByKey={new Map(snap.pairs.map((p) => [p.key, p]))} materialName={materialName} />;
+    body = <Leaderboard methods={methods} unit={snap.unit} pairByKey={new Map(snap.pairs.map((p) => [p.key, p]))} materialName={materialName} details="none" />;
   } else if (entry.viewKind === 'outliers') {
     const all = flaggedPairs(snap.pairs, entry.filters.hiddenMethods);
     const perSlide = ROWS_PER_SLIDE[mode];

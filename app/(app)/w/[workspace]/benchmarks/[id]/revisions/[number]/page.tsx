@@ -6,8 +6,9 @@ import { recomputeState } from '@/lib/services/benchmarks/recompute-queue';
 import { BenchmarkView } from '../../../_components/benchmark-view';
 
 /** Any revision, read-only unless it is the latest. */
-export default async function RevisionPage({ params }: { params: Promise<{ workspace: string; id: string; number: string }> }) {
+export default async function RevisionPage({ params, searchParams }: { params: Promise<{ workspace: string; id: string; number: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { workspace, id, number } = await params;
+  const search = await searchParams;
   const ctx = await requirePageMember(workspace, 'benchmarks:read');
   const n = Number(number);
   if (!Number.isInteger(n) || n < 1) notFound();
@@ -16,5 +17,5 @@ export default async function RevisionPage({ params }: { params: Promise<{ works
   const rev = await getRevision(ctx.workspace.id, bm.id, n);
   if (!rev) notFound();
   const computing = recomputeState(ctx.workspace.id, bm.id) !== 'idle';
-  return <BenchmarkView bm={bm} rev={rev} workspace={ctx.workspace} role={ctx.role} computing={computing} />;
+  return <BenchmarkView bm={bm} rev={rev} workspace={ctx.workspace} role={ctx.role} computing={computing} search={search} />;
 }
