@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { connection } from 'next/server';
 import { greek, mono, sans } from './fonts';
 import './globals.css';
 
@@ -7,7 +8,9 @@ export const metadata: Metadata = {
   description: 'Computed phonon frequencies and vibrational entropies, held against experiment with their sources.',
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page is rendered per request: its scripts carry the nonce of that request's Content-Security-Policy (proxy.ts).
+  await connection();
   return (
     <html lang="en" className={`${sans.variable} ${greek.variable} ${mono.variable}`}>
       <body className="min-h-screen">

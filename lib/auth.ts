@@ -17,6 +17,9 @@ function createAuth() {
     appName: 'Lattice Ledger',
     secret: e.BETTER_AUTH_SECRET,
     baseURL: e.BETTER_AUTH_URL,
+    // Served over https (BETTER_AUTH_URL is the public origin): cookies are Secure and __Secure- prefixed.
+    // Over plain http (local runs) they cannot be, or the browser would never send them back.
+    advanced: { useSecureCookies: new URL(e.BETTER_AUTH_URL).protocol === 'https:' },
     database: drizzleAdapter(db, { provider: 'sqlite', schema }),
     emailAndPassword: {
       enabled: true,

@@ -28,6 +28,8 @@ const schema = dbEnvSchema.extend({
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(10),
   IMPORT_MAX_BYTES: z.coerce.number({ message: 'IMPORT_MAX_BYTES must be a number of bytes.' }).int().positive('IMPORT_MAX_BYTES must be a positive whole number of bytes.').default(200 * 1024 * 1024),
   ALERT_DEBOUNCE_MS: z.coerce.number({ message: 'ALERT_DEBOUNCE_MS must be a number of milliseconds.' }).int().min(0, 'ALERT_DEBOUNCE_MS must not be negative.').default(180_000),
+  /** Read by next.config.mjs when the app is built (headers are fixed at build); declared here so the build check validates it. */
+  HSTS_MAX_AGE: z.coerce.number({ message: 'HSTS_MAX_AGE must be a number of seconds.' }).int().min(0, 'HSTS_MAX_AGE must not be negative.').default(63_072_000),
   RECOMPUTE_DEBOUNCE_MS: z.coerce.number({ message: 'RECOMPUTE_DEBOUNCE_MS must be a number of milliseconds.' }).int().min(0, 'RECOMPUTE_DEBOUNCE_MS must not be negative.').default(1_500),
 });
 

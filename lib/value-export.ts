@@ -12,6 +12,8 @@ interface CommonRow {
   unit: string;
   uncertaintyText: string | null;
   temperatureK: number | null;
+  /** As entered; null on rows stored before it was kept (the number is written then). */
+  temperatureText?: string | null;
   irrep: string | null;
   branch: string | null;
   activity: string | null;
@@ -21,9 +23,9 @@ interface CommonRow {
 
 /** A measurement as a CSV line; numbers are written as the text that was entered ("1.50" stays "1.50"). */
 export function measurementCsvLine(r: CommonRow & { technique: string | null; sampleForm: string | null }): string {
-  return csvLine([r.materialName, r.quantity, r.valueText, r.unit, r.uncertaintyText, r.temperatureK, r.irrep, r.branch, r.activity, r.technique, r.sampleForm, r.citeKey, r.importId, r.id]);
+  return csvLine([r.materialName, r.quantity, r.valueText, r.unit, r.uncertaintyText, r.temperatureText ?? r.temperatureK, r.irrep, r.branch, r.activity, r.technique, r.sampleForm, r.citeKey, r.importId, r.id]);
 }
 
 export function calculationCsvLine(r: CommonRow & { methodLabel: string; modeIndex: number | null }): string {
-  return csvLine([r.materialName, r.methodLabel, r.quantity, r.valueText, r.unit, r.modeIndex, r.uncertaintyText, r.temperatureK, r.irrep, r.branch, r.activity, r.citeKey, r.importId, r.id]);
+  return csvLine([r.materialName, r.methodLabel, r.quantity, r.valueText, r.unit, r.modeIndex, r.uncertaintyText, r.temperatureText ?? r.temperatureK, r.irrep, r.branch, r.activity, r.citeKey, r.importId, r.id]);
 }

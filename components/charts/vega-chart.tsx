@@ -3,6 +3,7 @@ import { useId, useRef, useState } from 'react';
 import { useVegaEmbed } from 'react-vega';
 import type { EmbedOptions, VisualizationSpec } from 'vega-embed';
 import { hideMarks } from './benchmark/vega-figure';
+import { CSP_SAFE_VEGA } from './vega-options';
 
 export interface VegaChartProps {
   spec: VisualizationSpec;
@@ -21,7 +22,7 @@ export interface VegaChartProps {
 export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, summary, className = '' }: VegaChartProps) {
   const id = useId();
   const ref = useRef<HTMLDivElement>(null);
-  const [options] = useState<EmbedOptions>(() => ({ renderer, actions: false, tooltip: { theme: 'light' } }));
+  const [options] = useState<EmbedOptions>(() => ({ renderer, actions: false, tooltip: { theme: 'light' }, ...CSP_SAFE_VEGA }));
   const [failed, setFailed] = useState<string | null>(null);
   const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onEmbed: hideMarks, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
 

@@ -1,5 +1,7 @@
 'use client';
 import { useState } from 'react';
+import { count } from '@/lib/format';
+import { MAX_CELL_CHARS } from '@/lib/import/errors';
 
 /** A drop zone that is also a file input (keyboard and screen-reader friendly). */
 export function FileDrop({ onFile, disabled }: { onFile: (file: File) => void; disabled?: boolean }) {
@@ -22,7 +24,7 @@ export function FileDrop({ onFile, disabled }: { onFile: (file: File) => void; d
       }`}
     >
       <span className="font-medium text-ink">Drop a CSV file here, or choose one</span>
-      <span className="text-xs text-ink-muted">UTF-8 · comma, semicolon or tab · parsed in your browser first</span>
+      <span className="text-xs text-ink-muted">UTF-8 · comma, semicolon or tab · cells up to {count(MAX_CELL_CHARS)} characters · parsed in your browser first</span>
       <input
         type="file"
         accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values"

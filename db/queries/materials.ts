@@ -43,7 +43,7 @@ export type MaterialListRow = Awaited<ReturnType<typeof listMaterials>>['rows'][
 /** One page of materials (LIMIT/OFFSET), sorted by a whitelisted column, with the total count of the filter. */
 export async function listMaterials(workspaceId: string, params: ListParams) {
   const where = listFilter(workspaceId, params);
-  const sortKey = params.sort && params.sort in SORTABLE ? (params.sort as keyof typeof SORTABLE) : 'name';
+  const sortKey = params.sort && Object.hasOwn(SORTABLE, params.sort) ? (params.sort as keyof typeof SORTABLE) : 'name';
   const order = params.dir === 'desc' ? desc(SORTABLE[sortKey]) : asc(SORTABLE[sortKey]);
   const [rows, [{ total }]] = await Promise.all([
     db

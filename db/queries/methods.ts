@@ -30,7 +30,7 @@ export type MethodListRow = Awaited<ReturnType<typeof listMethods>>['rows'][numb
 
 export async function listMethods(workspaceId: string, params: ListParams) {
   const where = listFilter(workspaceId, params);
-  const sortKey = params.sort && params.sort in SORTABLE ? (params.sort as keyof typeof SORTABLE) : 'label';
+  const sortKey = params.sort && Object.hasOwn(SORTABLE, params.sort) ? (params.sort as keyof typeof SORTABLE) : 'label';
   const order = params.dir === 'desc' ? desc(SORTABLE[sortKey]) : asc(SORTABLE[sortKey]);
   const [rows, [{ total }]] = await Promise.all([
     db

@@ -36,7 +36,7 @@ export type SourceListRow = Awaited<ReturnType<typeof listSources>>['rows'][numb
 
 export async function listSources(workspaceId: string, params: ListParams) {
   const where = listFilter(workspaceId, params);
-  const sortKey = params.sort && params.sort in SORTABLE ? (params.sort as keyof typeof SORTABLE) : 'citeKey';
+  const sortKey = params.sort && Object.hasOwn(SORTABLE, params.sort) ? (params.sort as keyof typeof SORTABLE) : 'citeKey';
   const order = params.dir === 'desc' ? desc(SORTABLE[sortKey]) : asc(SORTABLE[sortKey]);
   const [rows, [{ total }]] = await Promise.all([
     db

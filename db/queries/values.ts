@@ -173,6 +173,7 @@ function commonColumns(t: ValueTable) {
     uncertainty: t.uncertainty,
     uncertaintyText: t.uncertaintyText,
     temperatureK: t.temperatureK,
+    temperatureText: t.temperatureText,
     irrep: t.irrep,
     branch: t.branch,
     activity: t.activity,

@@ -57,6 +57,8 @@ const valueColumns = () => ({
   uncertainty: real(),
   uncertaintyText: text(),
   temperatureK: real(),
+  /** The temperature exactly as entered ("298.150"); null on rows stored before it was kept: show temperatureK then. */
+  temperatureText: text(),
   irrep: text(),
   irrepNormalized: text(),
   branch: text({ enum: BRANCHES }),

@@ -73,8 +73,8 @@ export const problemSchema = z
     title: z.string(),
     status: z.int(),
     detail: z.string(),
-    errorCount: z.int().optional(),
-    errors: z.array(rowErrorSchema).optional(),
+    errorCount: z.int().optional().meta({ description: 'On 422: how many errors the body has in all.' }),
+    errors: z.array(rowErrorSchema).optional().meta({ description: 'On 422: the first 1,000 errors; a cell is echoed up to 40 characters.' }),
     firstImportId: z.string().optional().meta({ description: 'On 409: the import that already holds this file.' }),
   })
   .meta({ title: 'Problem', description: 'RFC 9457 problem details (application/problem+json).' });

@@ -7,10 +7,14 @@ function blankToUndefined(value: unknown): unknown {
   return typeof value === 'string' ? value.trim() : value;
 }
 
-export const optionalText = (max = 500) => z.preprocess(blankToUndefined, z.string().max(max, `At most ${max} characters.`).optional());
+const NO_NUL = (s: string) => !s.includes('\u0000');
+const NUL_MESSAGE = 'Remove the NUL byte (character code 0).';
+
+export const optionalText = (max = 500) =>
+  z.preprocess(blankToUndefined, z.string().max(max, `At most ${max} characters.`).refine(NO_NUL, NUL_MESSAGE).optional());
 
 export const requiredText = (label: string, max = 200) =>
-  z.preprocess((v) => (typeof v === 'string' ? v.trim() : v), z.string(`${label} is required.`).min(1, `${label} is required.`).max(max, `At most ${max} characters.`));
+  z.preprocess((v) => (typeof v === 'string' ? v.trim() : v), z.string(`${label} is required.`).min(1, `${label} is required.`).max(max, `At most ${max} characters.`).refine(NO_NUL, NUL_MESSAGE));
 
 export const optionalInteger = (label: string, min: number, max: number) =>
   z.preprocess(

@@ -19,6 +19,12 @@ const LF = 10;
 export class CsvReader {
   private pending = '';
   private readonly delimiterCode: number;
+  /**
+   * The most characters one unfinished record may hold before the reader stops
+   * buffering it (see `overflow`): a record longer than every cell allowed can
+   * only come from an overlong cell or an unclosed quote.
+   */
+  maxRecordChars = Number.POSITIVE_INFINITY;
 
   constructor(delimiter: Delimiter) {
     this.delimiterCode = delimiter.charCodeAt(0);
@@ -29,6 +35,28 @@ export class CsvReader {
     const consumed = this.scan(this.pending, false, out);
     this.pending = this.pending.slice(consumed);
     return out;
+  }
+
+  /**
+   * When the unfinished record has grown past maxRecordChars: which field it is
+   * in (0-based) and how long that field is so far. Callers refuse the file then.
+   */
+  overflow(): { fieldIndex: number; fieldChars: number } | null {
+    if (this.pending.length <= this.maxRecordChars) return null;
+    const s = this.pending;
+    const d = this.delimiterCode;
+    let fieldIndex = 0;
+    let fieldStart = 0;
+    let quoted = false;
+    for (let i = 0; i < s.length; i++) {
+      const c = s.charCodeAt(i);
+      if (c === QUOTE) quoted = !quoted;
+      else if (c === d && !quoted) {
+        fieldIndex++;
+        fieldStart = i + 1;
+      }
+    }
+    return { fieldIndex, fieldChars: s.length - fieldStart };
   }
 
   /** Flushes the last record (a file need not end with a line break). */

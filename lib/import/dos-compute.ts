@@ -1,6 +1,6 @@
 import { harmonicFromDos } from '@/lib/science/thermodynamics';
 import type { DosBlock } from './dos-parse';
-import { MAX_REPORTED_ERRORS, type RowError } from './errors';
+import { excerpt, MAX_REPORTED_ERRORS, type RowError } from './errors';
 
 /** A material as a DOS import needs it. */
 export interface DosMaterialFacts {
@@ -81,17 +81,17 @@ export function resolveDosBlocks(
     const material = references.materials.get(block.material);
     const methodId = references.methods.get(block.method);
     const sourceId = references.sources.get(block.source);
-    if (!material) fail(row, 'material', `Unknown material "${block.material}".${suggest(references.materials.keys(), block.material)}`, block.material);
+    if (!material) fail(row, 'material', `Unknown material "${excerpt(block.material)}".${suggest(references.materials.keys(), block.material)}`, excerpt(block.material));
     else if (!material.atomsInCell || material.atomsInCell < 1) {
       fail(
         row,
         'material',
-        `Material "${block.material}" has no atoms in the cell recorded: a DOS is per cell, so the number of modes (3 × atoms in the cell) is needed. Set it on the material's page first.`,
+        `Material "${excerpt(block.material)}" has no atoms in the cell recorded: a DOS is per cell, so the number of modes (3 × atoms in the cell) is needed. Set it on the material's page first.`,
         block.material,
       );
     }
-    if (!methodId) fail(row, 'method', `Unknown method "${block.method}".${suggest(references.methods.keys(), block.method)}`, block.method);
-    if (!sourceId) fail(row, 'source', `Unknown source "${block.source}".${suggest(references.sources.keys(), block.source)}`, block.source);
+    if (!methodId) fail(row, 'method', `Unknown method "${excerpt(block.method)}".${suggest(references.methods.keys(), block.method)}`, excerpt(block.method));
+    if (!sourceId) fail(row, 'source', `Unknown source "${excerpt(block.source)}".${suggest(references.sources.keys(), block.source)}`, excerpt(block.source));
     if (!material || !material.atomsInCell || material.atomsInCell < 1 || !methodId || !sourceId) continue;
     resolved.push({
       block,

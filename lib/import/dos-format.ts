@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { RowError } from './errors';
+import { excerpt, type RowError } from './errors';
 import { normalizeHeader } from './header';
 import { parseDecimal } from './numbers';
 
@@ -32,8 +32,8 @@ export function parseDosTemperatures(text: string | null | undefined): { ok: tru
   const out: number[] = [];
   for (const part of parts) {
     const t = parseDecimal(part);
-    if (t === null) return { ok: false, reason: `Temperature "${part}" is not a number.` };
-    if (!(t > 0 && t <= MAX_DOS_TEMPERATURE_K)) return { ok: false, reason: `Temperature ${part} K is out of range: give values > 0 and ≤ ${MAX_DOS_TEMPERATURE_K} K.` };
+    if (t === null) return { ok: false, reason: `Temperature "${excerpt(part)}" is not a number.` };
+    if (!(t > 0 && t <= MAX_DOS_TEMPERATURE_K)) return { ok: false, reason: `Temperature ${excerpt(part)} K is out of range: give values > 0 and ≤ ${MAX_DOS_TEMPERATURE_K} K.` };
     if (!out.includes(t)) out.push(t);
   }
   return { ok: true, temperatures: out.sort((a, b) => a - b) };
@@ -90,7 +90,7 @@ export function resolveDosHeader(headers: readonly string[]): DosHeader {
     if (!n) return;
     const seen = byNormalized.get(n);
     if (seen === undefined) byNormalized.set(n, i);
-    else errors.push({ row: 1, column: h, reason: `Duplicate header: columns ${seen + 1} and ${i + 1} are both named "${headers[seen].trim()}". Rename or remove one.` });
+    else errors.push({ row: 1, column: excerpt(h), reason: `Duplicate header: columns ${seen + 1} and ${i + 1} are both named "${excerpt(headers[seen].trim())}". Rename or remove one.` });
   });
   const indexByKey = new Map<DosColumnKey, number>();
   const nameByKey = new Map<DosColumnKey, string>();
@@ -103,7 +103,7 @@ export function resolveDosHeader(headers: readonly string[]): DosHeader {
     }
     used.add(index);
     indexByKey.set(column.key, index);
-    nameByKey.set(column.key, headers[index].trim());
+    nameByKey.set(column.key, excerpt(headers[index].trim()));
   }
   const ignored = headers.filter((h, i) => h.trim() !== '' && !used.has(i));
   return { indexByKey, nameByKey, ignored, errors };

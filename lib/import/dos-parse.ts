@@ -2,7 +2,7 @@ import { convertFrequency, type FrequencyUnit } from '@/lib/science/units';
 import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
 import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
 import { resolveDosHeader, type DosColumnKey, type DosHeader } from './dos-format';
-import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
+import { cellTooLong, excerpt, MAX_CELL_CHARS, MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
 import { notANumberReason, parseDecimal } from './numbers';
 import { parseUnit } from './units';
 
@@ -77,6 +77,7 @@ export class DosFileReader {
   push(text: string): void {
     if (this.reader) {
       this.take(this.reader.push(text));
+      this.checkOverflow();
       return;
     }
     this.head += text;
@@ -98,14 +99,14 @@ export class DosFileReader {
         this.fail(
           t.row,
           'density',
-          `Imaginary weight: density ${t.densityText} at the negative frequency ${t.frequencyText}${share}. A negative-frequency tail is accepted only with density 0 or at most ${100 * NEGATIVE_TAIL_LIMIT} % of the largest density; this is an unstable structure, whose harmonic entropy is undefined. Fix the calculation or cut the imaginary part from the DOS.`,
+          `Imaginary weight: density ${excerpt(t.densityText)} at the negative frequency ${excerpt(t.frequencyText)}${share}. A negative-frequency tail is accepted only with density 0 or at most ${100 * NEGATIVE_TAIL_LIMIT} % of the largest density; this is an unstable structure, whose harmonic entropy is undefined. Fix the calculation or cut the imaginary part from the DOS.`,
           t.densityText,
         );
       }
       if (block.frequency.length < 2 && block.rejectedRows === 0) {
-        this.fail(block.firstRow, 'frequency', `The DOS of ${block.material} / ${block.method} has ${block.frequency.length} grid point; it needs at least 2.`);
+        this.fail(block.firstRow, 'frequency', `The DOS of ${excerpt(block.material)} / ${excerpt(block.method)} has ${block.frequency.length} grid point; it needs at least 2.`);
       } else if (block.rejectedRows === 0 && block.frequency.length >= 2 && !block.density.some((g) => g > 0)) {
-        this.fail(block.firstRow, 'density', `The DOS of ${block.material} / ${block.method} is zero everywhere; there is nothing to normalise.`);
+        this.fail(block.firstRow, 'density', `The DOS of ${excerpt(block.material)} / ${excerpt(block.method)} is zero everywhere; there is nothing to normalise.`);
       }
     }
     return {
@@ -130,17 +131,38 @@ export class DosFileReader {
     this.take(records);
   }
 
+  /** An unfinished record longer than any allowed row: refuse now rather than buffer the rest of the file. */
+  private checkOverflow(): void {
+    const over = this.reader?.overflow();
+    if (!over) return;
+    const row = this.rowNumber + 1;
+    const column = over.fieldIndex < this.headers.length ? excerpt(this.headers[over.fieldIndex].trim()) : null;
+    const error: RowError =
+      over.fieldChars > MAX_CELL_CHARS
+        ? { ...cellTooLong(row, column, over.fieldChars), reason: `This cell is longer than ${MAX_CELL_CHARS.toLocaleString('en')} characters, the most a cell may have.` }
+        : { row, column: null, reason: 'This row runs on without ending (more cells than the header has, or a quote that is never closed).' };
+    throw importRefusal(`Nothing was imported: row ${row} is too long.`, [error]);
+  }
+
   private take(records: CsvRecord[]): void {
     for (const record of records) {
       this.rowNumber++;
       if (isBlankRecord(record.fields)) continue;
+      const long = record.fields.findIndex((f) => f.length > MAX_CELL_CHARS);
       if (!this.header) {
+        if (long !== -1) throw importRefusal('The header row has problems.', [cellTooLong(1, `column ${long + 1}`, record.fields[long].length)]);
         this.headers = record.fields;
         this.header = resolveDosHeader(record.fields);
         if (this.header.errors.length) throw importRefusal('The header row has problems.', this.header.errors);
+        this.reader!.maxRecordChars = this.headers.length * (MAX_CELL_CHARS + 3);
         continue;
       }
       this.rowCount++;
+      if (long !== -1) {
+        this.errorCount++;
+        if (this.errors.length < MAX_REPORTED_ERRORS) this.errors.push(cellTooLong(this.rowNumber, excerpt(this.headers[long]?.trim() ?? ''), record.fields[long].length));
+        continue;
+      }
       this.readRow(this.rowNumber, record);
     }
   }
@@ -152,7 +174,7 @@ export class DosFileReader {
   private fail(row: number, key: DosColumnKey | null, reason: string, value?: string): void {
     this.errorCount++;
     if (this.errors.length < MAX_REPORTED_ERRORS) {
-      this.errors.push({ row, column: key === null ? null : this.columnName(key), reason, ...(value !== undefined ? { value } : {}) });
+      this.errors.push({ row, column: key === null ? null : this.columnName(key), reason, ...(value !== undefined ? { value: excerpt(value) } : {}) });
     }
   }
 
@@ -178,7 +200,7 @@ export class DosFileReader {
     const source = required('source');
     const unitText = required('unit');
     const unit = unitText === '' ? null : (parseUnit('frequency', unitText) as FrequencyUnit | null);
-    if (unitText !== '' && !unit) this.fail(row, 'unit', `Unknown frequency unit "${unitText}"; use cm-1, THz or meV.`, unitText);
+    if (unitText !== '' && !unit) this.fail(row, 'unit', `Unknown frequency unit "${excerpt(unitText)}"; use cm-1, THz or meV.`, unitText);
 
     const number = (key: 'frequency' | 'density'): number | null => {
       const text = required(key);
@@ -190,7 +212,7 @@ export class DosFileReader {
     const frequency = number('frequency');
     const density = number('density');
     const frequencyText = cell('frequency');
-    if (density !== null && density < 0) this.fail(row, 'density', `A density of states cannot be negative (got ${cell('density')}).`, cell('density'));
+    if (density !== null && density < 0) this.fail(row, 'density', `A density of states cannot be negative (got ${excerpt(cell('density'))}).`, cell('density'));
     if (frequency === 0 && density !== null && density > 0) {
       this.fail(row, 'density', 'The density at zero frequency must be 0: a zero-frequency mode has no harmonic entropy.', cell('density'));
     }
@@ -213,10 +235,10 @@ export class DosFileReader {
       this.unitless.delete(block);
     }
     if (source !== '' && source !== block.source) {
-      this.fail(row, 'source', `The DOS of ${material} / ${method} started with source "${block.source}" (row ${block.firstRow}); one DOS has one source.`, source);
+      this.fail(row, 'source', `The DOS of ${excerpt(material)} / ${excerpt(method)} started with source "${excerpt(block.source)}" (row ${block.firstRow}); one DOS has one source.`, source);
     }
     if (unit && !this.unitless.has(block) && unit !== block.unit) {
-      this.fail(row, 'unit', `The DOS of ${material} / ${method} started in ${block.unit} (row ${block.firstRow}); one DOS has one unit.`, unitText);
+      this.fail(row, 'unit', `The DOS of ${excerpt(material)} / ${excerpt(method)} started in ${block.unit} (row ${block.firstRow}); one DOS has one unit.`, unitText);
     }
     const n = block.frequency.length;
     if (frequency !== null && frequency < 0) {
@@ -226,7 +248,7 @@ export class DosFileReader {
         this.fail(
           row,
           'frequency',
-          `Frequencies must increase strictly within one DOS: ${frequencyText} follows ${n > 0 ? block.frequency[n - 1] : previous} (row ${n > 0 ? block.lastRow : tail[tail.length - 1].row}) of ${material} / ${method}; a negative tail comes first.`,
+          `Frequencies must increase strictly within one DOS: ${excerpt(frequencyText)} follows ${n > 0 ? block.frequency[n - 1] : previous} (row ${n > 0 ? block.lastRow : tail[tail.length - 1].row}) of ${excerpt(material)} / ${excerpt(method)}; a negative tail comes first.`,
           frequencyText,
         );
       }
@@ -238,7 +260,7 @@ export class DosFileReader {
       this.fail(
         row,
         'frequency',
-        `Frequencies must increase strictly within one DOS: ${frequencyText} follows ${block.frequency[n - 1]} (row ${block.lastRow}) of ${material} / ${method}.`,
+        `Frequencies must increase strictly within one DOS: ${excerpt(frequencyText)} follows ${block.frequency[n - 1]} (row ${block.lastRow}) of ${excerpt(material)} / ${excerpt(method)}.`,
         frequencyText,
       );
     }

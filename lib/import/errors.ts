@@ -25,6 +25,40 @@ export function isImportRefusal(e: unknown): e is ImportRefusalError {
   return e instanceof AppError && e.code === 'unprocessable' && Array.isArray(e.errors);
 }
 
-/** Upper bound on errors kept in one response; the count still covers them all. */
-export const MAX_REPORTED_ERRORS = 10_000;
+/**
+ * Upper bound on errors listed in one response; `errorCount` still covers them all.
+ * With MAX_CELL_CHARS and ECHO_CHARS it keeps a refusal under 1 MB for any upload
+ * (bench/error-bodies.ts measures it).
+ */
+export const MAX_REPORTED_ERRORS = 1_000;
 
+/** The longest cell an import accepts (characters, header cells included); longer cells are refused with row and column. */
+export const MAX_CELL_CHARS = 10_000;
+
+/** How much of a cell an error message repeats. */
+export const ECHO_CHARS = 40;
+
+/** The start of a cell for an error message: at most ECHO_CHARS characters, "…" when cut. */
+export function excerpt(text: string, limit = ECHO_CHARS): string {
+  if (text.length <= limit) return text;
+  let end = limit;
+  // Do not cut a surrogate pair in half.
+  const last = text.charCodeAt(end - 1);
+  if (last >= 0xd800 && last <= 0xdbff) end--;
+  return `${text.slice(0, end)}…`;
+}
+
+/** The error for a cell over MAX_CELL_CHARS. */
+export function cellTooLong(row: number, column: string | null, length: number): RowError {
+  return {
+    row,
+    column: column === null ? null : excerpt(column),
+    reason: `This cell has ${length.toLocaleString('en')} characters; a cell may have at most ${MAX_CELL_CHARS.toLocaleString('en')}.`,
+  };
+}
+
+/** The error for the first cell of a record over MAX_CELL_CHARS, or null when every cell fits. */
+export function longCellIn(row: number, fields: readonly string[], columnOf: (index: number) => string): RowError | null {
+  for (let i = 0; i < fields.length; i++) if (fields[i].length > MAX_CELL_CHARS) return cellTooLong(row, columnOf(i), fields[i].length);
+  return null;
+}

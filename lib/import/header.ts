@@ -1,5 +1,5 @@
 import { columnsOf, type ImportableKind } from './columns';
-import type { RowError } from './errors';
+import { excerpt, type RowError } from './errors';
 
 /** Column key → header text in the file; a key left out (or null) is not imported. */
 export type ColumnMapping = Record<string, string | null>;
@@ -60,7 +60,7 @@ export function resolveHeader(kind: ImportableKind, headers: readonly string[], 
       errors.push({
         row: 1,
         column: h,
-        reason: `Duplicate header: columns ${seen + 1} and ${i + 1} are both named "${headers[seen].trim()}". Rename or remove one.`,
+        reason: `Duplicate header: columns ${seen + 1} and ${i + 1} are both named "${excerpt(headers[seen].trim())}". Rename or remove one.`,
       });
   });
 
@@ -71,23 +71,23 @@ export function resolveHeader(kind: ImportableKind, headers: readonly string[], 
   const usedBy = new Map<number, string>();
   for (const [key, header] of Object.entries(mapping)) {
     if (!known.has(key)) {
-      errors.push({ row: 1, column: key, reason: `"${key}" is not a column of ${kind}.` });
+      errors.push({ row: 1, column: excerpt(key), reason: `"${excerpt(key)}" is not a column of ${kind}.` });
       continue;
     }
     if (header === null || header === undefined || header === '') continue;
     const index = headers.findIndex((h) => h === header);
     if (index === -1) {
-      errors.push({ row: 1, column: key, reason: `Column "${key}" is mapped to "${header}", which is not in the file's header.` });
+      errors.push({ row: 1, column: excerpt(key), reason: `Column "${excerpt(key)}" is mapped to "${excerpt(header)}", which is not in the file's header.` });
       continue;
     }
     const other = usedBy.get(index);
     if (other !== undefined) {
-      errors.push({ row: 1, column: header, reason: `File column "${header}" is mapped to both "${other}" and "${key}".` });
+      errors.push({ row: 1, column: excerpt(header), reason: `File column "${excerpt(header)}" is mapped to both "${excerpt(other)}" and "${excerpt(key)}".` });
       continue;
     }
     usedBy.set(index, key);
     indexByKey.set(key, index);
-    nameByKey.set(key, header.trim());
+    nameByKey.set(key, excerpt(header.trim()));
   }
   for (const column of columnsOf(kind)) {
     if (column.required && !indexByKey.has(column.key)) {

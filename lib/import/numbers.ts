@@ -1,3 +1,5 @@
+import { excerpt } from './errors';
+
 const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /** Parses a decimal number written in a cell; null when the text is not one. */
@@ -9,6 +11,6 @@ export function parseDecimal(text: string): number | null {
 
 /** Why a cell is not a number, in words a person can act on. */
 export function notANumberReason(text: string): string {
-  if (/^[+-]?\d+,\d+$/.test(text)) return `"${text}" uses a decimal comma; write numbers with a decimal point (e.g. ${text.replace(',', '.')}).`;
-  return `"${text}" is not a number.`;
+  if (text.length <= 40 && /^[+-]?\d+,\d+$/.test(text)) return `"${text}" uses a decimal comma; write numbers with a decimal point (e.g. ${text.replace(',', '.')}).`;
+  return `"${excerpt(text)}" is not a number.`;
 }

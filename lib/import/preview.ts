@@ -2,7 +2,7 @@ import Papa from 'papaparse';
 import { isImportableKind, type ImportableKind } from './columns';
 import { isBlankRecord } from './csv-reader';
 import { detectDelimiter, delimiterName, type Delimiter } from './delimiter';
-import { MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
+import { excerpt, longCellIn, MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
 import { autoMapColumns, resolveHeader, type ColumnMapping } from './header';
 import type { DefaultUnits } from './units';
 import { ModeSetTally, type ImportWarning } from './mode-set-warnings';
@@ -103,6 +103,8 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
         recordNumber++;
         if (!headers) {
           if (isBlankRecord(fields)) return;
+          const longHeader = longCellIn(1, fields, (i) => `column ${i + 1}`);
+          if (longHeader) throw importRefusal('The header row has problems.', [longHeader]);
           headers = fields;
           mapping = request.mapping ?? autoMapColumns(request.kind, fields);
           header = resolveHeader(request.kind, fields, mapping);
@@ -117,7 +119,9 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
         let ok = false;
         let stored: PreviewRow['stored'] = null;
         const badColumns: string[] = [];
-        if (broken.has(i)) addError({ row, column: null, reason: 'Broken quoting: a quoted cell must end with a quote followed by a delimiter or a line break.' });
+        const long = longCellIn(row, fields, (idx) => excerpt(headers![idx]?.trim() || `column ${idx + 1}`));
+        if (long) addError(long);
+        else if (broken.has(i)) addError({ row, column: null, reason: 'Broken quoting: a quoted cell must end with a quote followed by a delimiter or a line break.' });
         else if (fields.length !== headers.length)
           addError({ row, column: null, reason: `This row has ${fields.length} cells; the header has ${headers.length} (${delimiterName(delimiter)}-separated).` });
         else {

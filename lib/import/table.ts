@@ -2,7 +2,7 @@ import { columnsOf, type ImportableKind } from './columns';
 import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
 import { StrictUtf8Decoder } from './decode';
 import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
-import { type RowError, importRefusal } from './errors';
+import { cellTooLong, excerpt, longCellIn, MAX_CELL_CHARS, type RowError, importRefusal, type ImportRefusalError } from './errors';
 import { resolveHeader, type ColumnMapping } from './header';
 import type { CellReader } from './validate-row';
 
@@ -21,6 +21,18 @@ export interface ImportTable {
 
 const EMPTY_FILE: RowError = { row: 0, column: null, reason: 'The file is empty.' };
 
+/** A header line longer than this cannot be a header of our columns (each cell at most MAX_CELL_CHARS). */
+const MAX_HEADER_LINE_CHARS = 100 * MAX_CELL_CHARS;
+
+/** A refusal for a record that grew past every cell allowed before it even ended. */
+function overlongRecord(row: number, column: string | null, fieldChars: number, limit: number): ImportRefusalError {
+  const error: RowError =
+    fieldChars > MAX_CELL_CHARS
+      ? { ...cellTooLong(row, column, fieldChars), reason: `This cell is longer than ${MAX_CELL_CHARS.toLocaleString('en')} characters, the most a cell may have.` }
+      : { row, column: null, reason: `This row runs past ${limit.toLocaleString('en')} characters without ending (more cells than the header has, or a quote that is never closed).` };
+  return importRefusal(`Nothing was imported: row ${row} is too long.`, [error]);
+}
+
 /**
  * Opens a CSV file given as byte chunks: strict UTF-8 (BOM dropped), delimiter
  * detected from the header line, header checked and mapped. Refuses the file
@@ -38,6 +50,10 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
       head += decoder.decode(new Uint8Array(0), true);
       done = true;
     } else head += decoder.decode(next.value);
+    if (!done && !hasHeaderLine(head) && head.length > MAX_HEADER_LINE_CHARS) {
+      const reason = `The header line is longer than ${MAX_HEADER_LINE_CHARS.toLocaleString('en')} characters; a header cell may have at most ${MAX_CELL_CHARS.toLocaleString('en')}.`;
+      throw importRefusal(reason, [{ row: 1, column: null, reason }]);
+    }
   }
   if (head.trim() === '') throw importRefusal('The file is empty.', [EMPTY_FILE]);
   const delimiter = detectDelimiter(head);
@@ -49,6 +65,8 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
   const headerRecord = pending.shift();
   if (!headerRecord) throw importRefusal('The file is empty.', [EMPTY_FILE]);
   const headers = headerRecord.fields;
+  const longHeader = longCellIn(1, headers, (i) => `column ${i + 1}`);
+  if (longHeader) throw importRefusal('The header row has problems.', [longHeader]);
   const resolved = resolveHeader(kind, headers, mapping);
   if (resolved.errors.length) throw importRefusal('The header row has problems.', resolved.errors);
 
@@ -56,6 +74,12 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
   const width = headers.length;
   const columnName = (key: string) => nameByKey.get(key) ?? key;
   let rowNumber = 1;
+  const headerName = (i: number) => excerpt(headers[i]?.trim() || `column ${i + 1}`);
+  reader.maxRecordChars = width * (MAX_CELL_CHARS + 3);
+  const checkOverflow = () => {
+    const over = reader.overflow();
+    if (over) throw overlongRecord(rowNumber + 1, over.fieldIndex < width ? headerName(over.fieldIndex) : null, over.fieldChars, reader.maxRecordChars);
+  };
 
   const toRows = (records: CsvRecord[]): TableRow[] => {
     const rows: TableRow[] = [];
@@ -63,7 +87,10 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
       rowNumber++;
       const fields = record.fields;
       if (isBlankRecord(fields)) continue;
-      if (record.malformed) {
+      const long = longCellIn(rowNumber, fields, headerName);
+      if (long) {
+        rows.push({ row: rowNumber, error: long });
+      } else if (record.malformed) {
         rows.push({ row: rowNumber, error: { row: rowNumber, column: null, reason: 'Broken quoting: a quoted cell must end with a quote followed by a delimiter or a line break.' } });
       } else if (fields.length !== width) {
         rows.push({
@@ -80,6 +107,7 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
   async function* batches(): AsyncGenerator<TableRow[]> {
     let sawData = false;
     const first = toRows(pending.splice(0));
+    checkOverflow();
     if (first.length) {
       sawData = true;
       yield first;
@@ -93,6 +121,7 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Impo
         reader.end(out);
       } else reader.push(decoder.decode(next.value), out);
       const rows = toRows(out);
+      checkOverflow();
       if (rows.length) {
         sawData = true;
         yield rows;
@@ -122,7 +151,9 @@ export function jsonTable(kind: ImportableKind, rows: ReadonlyArray<Record<strin
         const record = rows[i];
         const row = i + 1;
         const unknown = Object.keys(record).find((k) => !known.has(k));
-        if (unknown) out.push({ row, error: { row, column: unknown, reason: `"${unknown}" is not a column of ${kind}.` } });
+        const long = Object.entries(record).find(([, v]) => typeof v === 'string' && v.length > MAX_CELL_CHARS);
+        if (unknown) out.push({ row, error: { row, column: excerpt(unknown), reason: `"${excerpt(unknown)}" is not a column of ${kind}.` } });
+        else if (long) out.push({ row, error: cellTooLong(row, long[0], (long[1] as string).length) });
         else out.push({ row, read: (key) => cellText(record[key]) });
       }
       yield out;

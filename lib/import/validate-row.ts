@@ -1,7 +1,7 @@
 import { convertEntropy, convertFrequency, type EntropyUnit, type FrequencyUnit } from '@/lib/science/units';
 import { irrepBranch, normalizeIrrep } from '@/lib/science/symmetry';
 import { IMPORT_QUANTITIES, type ImportableKind, type ImportQuantity } from './columns';
-import type { RowError } from './errors';
+import { excerpt, type RowError } from './errors';
 import { notANumberReason, parseDecimal } from './numbers';
 import { parseUnit, unitsOf, type DefaultUnits, type ImportUnit } from './units';
 import {
@@ -34,6 +34,8 @@ export interface ValidRow {
   uncertainty: number | null;
   uncertaintyText: string | null;
   temperatureK: number | null;
+  /** The temperature as written, kept for exports. */
+  temperatureText: string | null;
   irrep: string | null;
   irrepNormalized: string | null;
   branch: Branch | null;
@@ -84,7 +86,7 @@ function suggest(handles: Iterable<string>, text: string): string {
 export function validateRow(row: number, read: CellReader, ctx: RowContext, errors: RowError[]): ValidRow | null {
   const before = errors.length;
   const fail = (key: string, reason: string, value?: string) => {
-    errors.push({ row, column: ctx.columnName(key), reason, ...(value !== undefined ? { value } : {}) });
+    errors.push({ row, column: ctx.columnName(key), reason, ...(value !== undefined ? { value: excerpt(value) } : {}) });
   };
   const cell = (key: string): string => (read(key) ?? '').trim();
 
@@ -116,36 +118,36 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     const text = cell(key);
     if (text === '') return null;
     const picked = pickEnum(values, text);
-    if (!picked) fail(key, `"${text}" is not one of ${values.join(', ')}.`, text);
+    if (!picked) fail(key, `"${excerpt(text)}" is not one of ${values.join(', ')}.`, text);
     return picked;
   };
 
   const refs = ctx.references;
   const materialName = required('material');
   const material = materialName === null ? undefined : refs.materials.get(materialName);
-  if (materialName !== null && !material) fail('material', `Unknown material "${materialName}".${suggest(refs.materials.keys(), materialName)}`, materialName);
+  if (materialName !== null && !material) fail('material', `Unknown material "${excerpt(materialName)}".${suggest(refs.materials.keys(), materialName)}`, materialName);
 
   const citeKey = required('source');
   const sourceId = citeKey === null ? undefined : refs.sources.get(citeKey);
-  if (citeKey !== null && !sourceId) fail('source', `Unknown source "${citeKey}".${suggest(refs.sources.keys(), citeKey)}`, citeKey);
+  if (citeKey !== null && !sourceId) fail('source', `Unknown source "${excerpt(citeKey)}".${suggest(refs.sources.keys(), citeKey)}`, citeKey);
 
   let methodId: string | null = null;
   if (ctx.kind === 'calculations') {
     const label = required('method');
     methodId = label === null ? null : (refs.methods.get(label) ?? null);
-    if (label !== null && !methodId) fail('method', `Unknown method "${label}".${suggest(refs.methods.keys(), label)}`, label);
+    if (label !== null && !methodId) fail('method', `Unknown method "${excerpt(label)}".${suggest(refs.methods.keys(), label)}`, label);
   }
 
   const quantityText = required('quantity');
   const quantity = quantityText === null ? null : pickEnum(IMPORT_QUANTITIES, quantityText);
-  if (quantityText !== null && !quantity) fail('quantity', `"${quantityText}" is not one of ${IMPORT_QUANTITIES.join(', ')}.`, quantityText);
+  if (quantityText !== null && !quantity) fail('quantity', `"${excerpt(quantityText)}" is not one of ${IMPORT_QUANTITIES.join(', ')}.`, quantityText);
 
   let unit: ImportUnit | null = null;
   if (quantity) {
     const unitText = cell('unit');
     if (unitText !== '') {
       unit = parseUnit(quantity, unitText);
-      if (!unit) fail('unit', `Unknown ${quantity} unit "${unitText}"; use one of ${unitsOf(quantity).join(', ')}.`, unitText);
+      if (!unit) fail('unit', `Unknown ${quantity} unit "${excerpt(unitText)}"; use one of ${unitsOf(quantity).join(', ')}.`, unitText);
     } else {
       unit = ctx.units?.[quantity] ?? null;
       if (!unit) fail('unit', `No unit for this ${quantity}: fill the unit column or choose a unit for the whole file.`);
@@ -159,10 +161,10 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     raw = parseDecimal(valueText);
     if (raw === null) fail('value', notANumberReason(valueText), valueText);
     else if (quantity === 'frequency' && isMeasurement && raw <= 0) {
-      fail('value', `A measured frequency must be > 0 (got ${valueText}); only calculations may carry zero or imaginary (negative) modes.`, valueText);
+      fail('value', `A measured frequency must be > 0 (got ${excerpt(valueText)}); only calculations may carry zero or imaginary (negative) modes.`, valueText);
       raw = null;
     } else if (quantity === 'entropy' && raw < 0) {
-      fail('value', `An entropy cannot be negative (got ${valueText}).`, valueText);
+      fail('value', `An entropy cannot be negative (got ${excerpt(valueText)}).`, valueText);
       raw = null;
     }
   }
@@ -178,7 +180,7 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
       irrepNormalized = normalizeIrrep(irrep);
       labelBranch = irrepBranch(irrep);
     } catch (e) {
-      fail('irrep', `"${irrep}" is not an irreducible-representation label: ${(e as Error).message}`, irrep);
+      fail('irrep', `"${excerpt(irrep)}" is not an irreducible-representation label: ${excerpt((e as Error).message, 120)}`, irrep);
       irrep = null;
     }
   }
@@ -186,8 +188,8 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   let branch: Branch | null = null;
   if (branchText !== '' && branchText !== '-' && branchText !== '—') {
     branch = pickEnum(BRANCH_VALUES, branchText.toUpperCase());
-    if (!branch) fail('branch', `"${branchText}" is not one of ${BRANCH_VALUES.join(', ')}.`, branchText);
-    else if (labelBranch && labelBranch !== branch) fail('branch', `Branch ${branch} contradicts the irrep label "${irrep}".`, branchText);
+    if (!branch) fail('branch', `"${excerpt(branchText)}" is not one of ${BRANCH_VALUES.join(', ')}.`, branchText);
+    else if (labelBranch && labelBranch !== branch) fail('branch', `Branch ${branch} contradicts the irrep label "${excerpt(irrep ?? '')}".`, branchText);
   } else branch = labelBranch ?? null;
 
   const degeneracy = wholeNumber('degeneracy', 1);
@@ -197,6 +199,7 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   const laser = isMeasurement ? number('laser_nm', (n) => (n > 0 ? null : 'A laser wavelength must be > 0 nm.')) : null;
   const modeIndex = isMeasurement ? null : wholeNumber('mode_index', 1);
   const notes = cell('notes') || null;
+  if (notes !== null && notes.includes('\u0000')) fail('notes', `Notes contain a NUL byte (character ${notes.indexOf('\u0000') + 1}); remove it.`);
 
   if (errors.length > before || !material || !sourceId || !quantity || !unit || raw === null || valueText === null) return null;
 
@@ -237,6 +240,7 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     uncertainty: uncertaintyCanonical,
     uncertaintyText: uncertainty ? uncertainty.text : null,
     temperatureK: temperature ? temperature.n : null,
+    temperatureText: temperature ? temperature.text : null,
     irrep,
     irrepNormalized,
     branch,

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
-import { newBrowser, screenshot } from './support/browser';
+import { collectCspViolations, newBrowser, screenshot } from './support/browser';
 import { DEMO_SLUG, signInDemo } from './support/demo';
 
 const base = inject('baseURL');
@@ -10,10 +10,12 @@ const BENCHMARK = 'Γ-point frequencies — all methods (demo)';
 let browser: BrowserContext;
 let page: Page;
 let benchmarkUrl = '';
+let cspViolations: () => Promise<string[]>;
 
 beforeAll(async () => {
   browser = await newBrowser();
   page = await browser.newPage();
+  cspViolations = await collectCspViolations(page);
   await signInDemo(page, base, 'curator');
 });
 afterAll(async () => {
@@ -75,6 +77,25 @@ describe('benchmark page', () => {
     const svg = readFileSync((await download.path())!, 'utf8');
     expect(svg.trimStart().startsWith('<svg')).toBe(true);
     expect(svg).toContain('</svg>');
+  });
+
+  it('draws every plot under the Content-Security-Policy (no eval, no inline script) and exports PNG through a canvas', async () => {
+    const policy = (await page.request.get(benchmarkUrl)).headers()['content-security-policy'];
+    expect(policy).toMatch(/script-src 'self' 'nonce-[A-Za-z0-9+/=]+' 'strict-dynamic'/);
+    expect(policy).not.toMatch(/unsafe-eval/);
+    await page.goto(benchmarkUrl);
+    const plots = page.locator('[data-plot]');
+    await expect.poll(() => plots.count(), { timeout: 20_000 }).toBeGreaterThan(2);
+    for (let i = 0; i < (await plots.count()); i++) {
+      await expect.poll(() => plots.nth(i).locator('svg.marks, canvas.marks').count(), { timeout: 20_000 }).toBeGreaterThan(0);
+    }
+    // Marks were drawn, not only the empty frame: Vega evaluated its expressions.
+    expect(await page.locator('[data-plot] svg.marks path').count()).toBeGreaterThan(20);
+    const figure = page.locator('figure', { hasText: 'Parity plot' }).first();
+    await expect.poll(() => figure.getByRole('button', { name: 'PNG' }).isEnabled(), { timeout: 20_000 }).toBe(true);
+    const [download] = await Promise.all([page.waitForEvent('download'), figure.getByRole('button', { name: 'PNG' }).click()]);
+    expect(readFileSync((await download.path())!).subarray(1, 4).toString()).toBe('PNG');
+    expect(await cspViolations()).toEqual([]);
   });
 
   it('compares two methods', async () => {
@@ -224,5 +245,9 @@ describe('benchmark page', () => {
     expect(await page.evaluate(() => (window as unknown as { ledgerMark?: number }).ledgerMark)).toBe(42);
     await page.getByTestId('leaderboard').locator(`tbody tr[data-method="${label}"]`).waitFor();
     await expect.poll(() => page.getByTestId('recomputing').count(), { timeout: 10_000 }).toBe(0);
+  });
+
+  it('met no Content-Security-Policy violation on the way', async () => {
+    expect(await cspViolations()).toEqual([]);
   });
 });

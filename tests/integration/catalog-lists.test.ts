@@ -71,6 +71,16 @@ describe('list queries', () => {
     expect(unknown.sort).toBe('name');
   });
 
+  it('treats inherited property names (__proto__, constructor, toString) as unknown sort keys, not a 500', async () => {
+    for (const sort of ['__proto__', 'constructor', 'toString', 'hasOwnProperty']) {
+      const materials = await listMaterials(ws.workspaceId, params({ sort, dir: 'desc' }));
+      expect(materials.sort).toBe('name');
+      expect(materials.rows[0].name).toBe('M129');
+      expect((await listSources(ws.workspaceId, params({ sort }))).sort).toBe('citeKey');
+      expect((await listMethods(ws.workspaceId, params({ sort }))).sort).toBe('label');
+    }
+  });
+
   it('filters by text, tag and crystal system, and never across workspaces', async () => {
     const text = await listMaterials(ws.workspaceId, params({ q: 'M01' }));
     expect(text.rows.map((r) => r.name)).toEqual(['M011', 'M012', 'M013', 'M014', 'M015', 'M016', 'M017', 'M018', 'M019']);

@@ -36,10 +36,11 @@ const H = 'material,quantity,value,unit,uncertainty,temperature_K,source';
 
 describe('bad input is refused with row, column and reason, and writes nothing', () => {
   it('a file that is not UTF-8 (Latin-1 "µ")', async () => {
-    const latin1 = new Uint8Array([...bytesOf(`${H}\nSi,frequency,520,cm-1,,300,azuhata1995,`), 0xb5, 0x0a]);
+    // "µm" written in Latin-1 in the unit cell of the second data row: the error names that row and column.
+    const latin1 = new Uint8Array([...bytesOf(`${H}\nSi,frequency,520,cm-1,,300,azuhata1995\nSi,frequency,0.5,`), 0xb5, ...bytesOf('m,,300,azuhata1995\n')]);
     const [e] = await errorsOf(latin1);
-    expect(e).toMatchObject({ row: 0, column: null });
-    expect(e.reason).toMatch(/not valid UTF-8/);
+    expect(e).toMatchObject({ row: 3, column: 'unit' });
+    expect(e.reason).toMatch(/not valid UTF-8: the first invalid byte \(0xB5 at byte 119\) is in this cell/);
   });
 
   it('an empty file, and a header without rows', async () => {

@@ -3,6 +3,8 @@ import Papa from 'papaparse';
 import { db } from '@/db/client';
 import { material, measurement, source } from '@/db/schema';
 import { GET } from '@/app/api/workspaces/[workspaceId]/values/[kind]/export/route';
+import { importCsvFile } from '@/lib/services/imports/csv-import';
+import { bytesOf, chunksOf, seedCatalogue } from './import-fixtures';
 import { createWorkspaceWith, signInAs } from '../support/users';
 
 async function seed(workspaceId: string) {
@@ -54,5 +56,21 @@ describe('value CSV export', () => {
     expect((await exportCsv(a.workspaceId, 'measurements')).res.status).toBe(404);
     await signInAs(a.owner.email);
     expect((await exportCsv(a.workspaceId, 'pairs')).res.status).toBe(400);
+  });
+
+  it('writes the temperature as entered ("298.150" stays "298.150"), and the number for rows stored before the text was kept', async () => {
+    const ws = await createWorkspaceWith();
+    const cat = await seedCatalogue(ws.workspaceId);
+    await signInAs(ws.owner.email);
+    const file = 'material,quantity,value,unit,temperature_K,source\nSi,entropy,18.80,J/mol/K,298.150,azuhata1995\nSi,entropy,37.2,J/mol/K,1.0e3,azuhata1995\n';
+    await importCsvFile({ workspaceId: ws.workspaceId, actor: { userId: ws.owner.id, tokenId: null }, via: 'wizard', kind: 'measurements', fileName: 't.csv', body: chunksOf(bytesOf(file), 64) });
+    // A row from before the migration: temperature_text is NULL.
+    await db.insert(measurement).values({ workspaceId: ws.workspaceId, materialId: cat.si.id, sourceId: cat.src.id, quantity: 'entropy', value: 20, valueText: '20.0', unit: 'J/mol/K', temperatureK: 298.15, rowHash: 'old' });
+    const rows = Papa.parse<Record<string, string>>((await exportCsv(ws.workspaceId, 'measurements')).text, { header: true, skipEmptyLines: true }).data;
+    expect(rows.map((r) => [r.value, r.temperature_K]).sort()).toEqual([
+      ['18.80', '298.150'],
+      ['20.0', '298.15'],
+      ['37.2', '1.0e3'],
+    ]);
   });
 });

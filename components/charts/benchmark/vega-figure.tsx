@@ -5,6 +5,7 @@ import type { Result } from 'vega-embed';
 import type { TopLevelSpec } from 'vega-lite';
 import { buttonClass } from '@/components/ui/button';
 import type { FigureText } from './figure-text';
+import { CSP_SAFE_VEGA } from '../vega-options';
 import { FOCUS_PARAM } from './specs';
 
 /**
@@ -40,7 +41,7 @@ export function VegaFigure({
   const result = useVegaEmbed({
     ref,
     spec,
-    options: { renderer, actions: false, tooltip: { theme: 'light' } },
+    options: { renderer, actions: false, tooltip: { theme: 'light' }, ...CSP_SAFE_VEGA },
     onEmbed: (r: Result) => {
       hideMarks(r);
       r.view.addEventListener('click', (_event, item) => {

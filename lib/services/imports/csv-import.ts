@@ -1,56 +1,19 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
-import { createReadStream, createWriteStream } from 'node:fs';
-import { mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { once } from 'node:events';
+import { createReadStream } from 'node:fs';
 import type { ImportActor, ImportOutcome } from '@/db/queries/imports';
 import { commitImport } from './commit-values';
 import { dataChanged } from '@/lib/services/data-changed';
 import type { ImportableKind } from '@/lib/import/columns';
 import { decodeUtf8Strict } from '@/lib/import/decode';
-import { type RowError, importRefusal } from '@/lib/import/errors';
+import { excerpt, MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/errors';
 import type { ColumnMapping } from '@/lib/import/header';
+import { spool } from '@/lib/import/spool';
 import { jsonTable, openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
 import { importRequestSchema } from '@/lib/api/schemas';
 
 const READ_CHUNK_BYTES = 1 << 20;
-
-interface Spooled {
-  path: string;
-  sha256: string;
-  byteCount: number;
-  cleanup: () => Promise<void>;
-}
-
-/**
- * Writes the upload to a temporary file while hashing it, so the database
- * transaction that follows never waits on a slow client.
- */
-async function spool(chunks: AsyncIterable<Uint8Array>): Promise<Spooled> {
-  const dir = await mkdtemp(join(tmpdir(), 'ledger-import-'));
-  const cleanup = () => rm(dir, { recursive: true, force: true });
-  const path = join(dir, 'upload.csv');
-  const out = createWriteStream(path);
-  const hash = createHash('sha256');
-  let byteCount = 0;
-  try {
-    for await (const chunk of chunks) {
-      hash.update(chunk);
-      byteCount += chunk.byteLength;
-      if (!out.write(chunk)) await once(out, 'drain');
-    }
-    out.end();
-    await once(out, 'close');
-  } catch (e) {
-    out.destroy();
-    await cleanup();
-    throw e;
-  }
-  return { path, sha256: hash.digest('hex'), byteCount, cleanup };
-}
 
 export interface CsvImportInput {
   workspaceId: string;
@@ -92,7 +55,7 @@ export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcom
  * like a file (the same body twice is refused), the rows validated like CSV rows.
  */
 export async function importJsonBody(input: { workspaceId: string; actor: ImportActor; bytes: Uint8Array }): Promise<ImportOutcome> {
-  const text = decodeUtf8Strict(input.bytes);
+  const text = decodeUtf8Strict(input.bytes, { csv: false });
   let json: unknown;
   try {
     json = JSON.parse(text);
@@ -101,13 +64,15 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
   }
   const parsed = importRequestSchema.safeParse(json);
   if (!parsed.success) {
-    const errors: RowError[] = parsed.error.issues.slice(0, 10_000).map((issue) => {
+    // Keys and messages can carry the client's text: list a bounded number, each cut short.
+    const errors: RowError[] = parsed.error.issues.slice(0, MAX_REPORTED_ERRORS).map((issue) => {
       const [top, index, key] = issue.path;
+      const reason = excerpt(issue.message, 200);
       if (top === 'rows' && typeof index === 'number') {
-        const column = typeof key === 'string' ? key : issue.code === 'unrecognized_keys' ? issue.keys.join(', ') : null;
-        return { row: index + 1, column, reason: issue.message };
+        const column = typeof key === 'string' ? key : issue.code === 'unrecognized_keys' ? issue.keys.slice(0, 5).map((k) => excerpt(k)).join(', ') : null;
+        return { row: index + 1, column: column === null ? null : excerpt(column, 200), reason };
       }
-      return { row: 0, column: issue.path.join('.') || null, reason: issue.message };
+      return { row: 0, column: excerpt(issue.path.join('.'), 200) || null, reason };
     });
     throw importRefusal('The request body does not match the import schema.', errors, parsed.error.issues.length);
   }

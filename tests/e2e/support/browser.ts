@@ -27,3 +27,24 @@ export async function screenshot(page: Page, name: string) {
   const dir = join(process.cwd(), 'test-results');
   await page.screenshot({ path: join(dir, `${name}.png`), fullPage: true });
 }
+
+/**
+ * Collects Content-Security-Policy violations on a page: the `securitypolicyviolation`
+ * events the document fires (recorded by an init script, which CSP does not block) and
+ * the console errors Chromium prints for them. Call before the page navigates.
+ */
+export async function collectCspViolations(page: Page): Promise<() => Promise<string[]>> {
+  const fromConsole: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error' && /Content[ -]Security[ -]Policy|unsafe-eval|unsafe-inline/i.test(m.text())) fromConsole.push(m.text());
+  });
+  await page.addInitScript(() => {
+    const seen: string[] = [];
+    (window as unknown as { __cspViolations: string[] }).__cspViolations = seen;
+    document.addEventListener('securitypolicyviolation', (e) => seen.push(`${e.violatedDirective} blocked ${e.blockedURI || '(inline)'} at ${e.sourceFile}:${e.lineNumber}`));
+  });
+  return async () => {
+    const fromEvents = await page.evaluate(() => (window as unknown as { __cspViolations?: string[] }).__cspViolations ?? []).catch(() => []);
+    return [...fromEvents, ...fromConsole];
+  };
+}

@@ -94,3 +94,12 @@ describe('parseListParams', () => {
     expect(parseListParams({ page: '3', size: '1000', dir: 'desc', retracted: '1', q: ' GaN ' })).toMatchObject({ page: 3, size: 1000, dir: 'desc', retracted: true, q: 'GaN' });
   });
 });
+
+describe('NUL bytes in text fields', () => {
+  it('are refused in a method\'s notes and label, as in import notes', () => {
+    const ok = methodInputSchema.safeParse({ label: 'PBE-PAW', functional: 'PBE', notes: 'plain notes' });
+    expect(ok.success).toBe(true);
+    expect(errorsOf(methodInputSchema.safeParse({ label: 'PBE-PAW', functional: 'PBE', notes: 'before\u0000after' })).notes).toBe('Remove the NUL byte (character code 0).');
+    expect(errorsOf(methodInputSchema.safeParse({ label: 'PBE\u0000PAW', functional: 'PBE' })).label).toBe('Remove the NUL byte (character code 0).');
+  });
+});

@@ -28,8 +28,53 @@ describe('strict UTF-8 decoding', () => {
       error = e;
     }
     expect(isImportRefusal(error)).toBe(true);
-    expect((error as ImportRefusalError).errors[0].reason).toMatch(/not valid UTF-8 .*bytes 4–6/);
+    expect((error as ImportRefusalError).errors[0].reason).toMatch(/not valid UTF-8: the first invalid byte \(0xB5 at byte 5\)/);
     expect(() => decodeUtf8Strict(new Uint8Array([0xc3]))).toThrow(AppError);
+  });
+
+  const refusalOf = (chunks: Uint8Array[]) => {
+    const d = new StrictUtf8Decoder();
+    try {
+      for (const c of chunks) d.decode(c);
+      d.decode(new Uint8Array(0), true);
+    } catch (e) {
+      return (e as ImportRefusalError).errors[0];
+    }
+    throw new Error('not refused');
+  };
+  const utf8 = (s: string) => new TextEncoder().encode(s);
+  const join = (...parts: Uint8Array[]) => {
+    const out = new Uint8Array(parts.reduce((n, p) => n + p.byteLength, 0));
+    let o = 0;
+    for (const p of parts) {
+      out.set(p, o);
+      o += p.byteLength;
+    }
+    return out;
+  };
+
+  it('names the row and column of the first bad byte of a CSV file', () => {
+    // Latin-1 "µ" (0xB5) in the unit cell of the third data row (row 4; the header is row 1).
+    const file = join(utf8('\n\nmaterial,quantity,value,unit\nSi,frequency,520,cm-1\n"Ge\nx",frequency,300,cm-1\nGaN,frequency,531,'), new Uint8Array([0x6d, 0xb5]), utf8('m\n'));
+    const e = refusalOf([file]);
+    expect(e).toMatchObject({ row: 4, column: 'unit' });
+    expect(e.reason).toMatch(/first invalid byte \(0xB5 at byte \d+\) is in this cell/);
+    // The same file in one-byte chunks, and semicolon-separated.
+    expect(refusalOf([...file].map((b) => new Uint8Array([b])))).toMatchObject({ row: 4, column: 'unit' });
+    const semi = join(utf8('material;quantity;value\nSi;frequency;5'), new Uint8Array([0xff]));
+    expect(refusalOf([semi])).toMatchObject({ row: 2, column: 'value' });
+  });
+
+  it('finds a bad byte that follows a character split across chunks, and a character cut off at the end', () => {
+    const mu = utf8('µ');
+    const e = refusalOf([join(utf8('a,b\nx,'), mu.subarray(0, 1)), join(mu.subarray(1), new Uint8Array([0xc0, 0x80]))]);
+    expect(e).toMatchObject({ row: 2, column: 'b' });
+    expect(e.reason).toMatch(/0xC0 at byte 9\b/);
+    expect(refusalOf([join(utf8('a,b\nx,y'), new Uint8Array([0xe2, 0x82]))])).toMatchObject({ row: 2, column: 'b' });
+  });
+
+  it('a header cell is named by its position', () => {
+    expect(refusalOf([join(utf8('material,'), new Uint8Array([0xb5]))])).toMatchObject({ row: 1, column: 'column 2' });
   });
 });
 
