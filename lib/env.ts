@@ -20,8 +20,16 @@ const schema = z.object({
     .enum(['true', 'false'])
     .optional()
     .transform((v) => (v === undefined ? undefined : v === 'true')),
+  UNSAFE_MAILBOX_IN_PRODUCTION: z.enum(['', '0', '1']).default(''),
   AUTH_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(10),
+  AUTH_ACCOUNT_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
+  AUTH_ACCOUNT_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(20),
+  RATE_LIMIT_TABLE_MAX_ROWS: z.coerce.number().int().min(100).default(10_000),
+  TRUSTED_PROXIES: z.string().default(''),
+  API_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
+  API_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(600),
+  IMPORT_CONCURRENCY_PER_WORKSPACE: z.coerce.number().int().positive().default(2),
 });
 
 export type Env = z.infer<typeof schema>;
@@ -40,8 +48,26 @@ export function env(): Env {
   return cached;
 }
 
-/** The development mailbox page is on in development and when explicitly enabled (demo, tests). */
-export function mailboxEnabled(): boolean {
-  const e = env();
-  return e.MAILBOX_ENABLED ?? e.NODE_ENV !== 'production';
+type MailboxSettings = Pick<Env, 'NODE_ENV' | 'MAILBOX_ENABLED' | 'UNSAFE_MAILBOX_IN_PRODUCTION'>;
+
+/**
+ * Whether the development mailbox page (/dev/mailbox) exists. It shows password-reset links, so in production
+ * it is off unless UNSAFE_MAILBOX_IN_PRODUCTION=1 (the local demo sets it); MAILBOX_ENABLED does not count there.
+ * Outside production it is on unless MAILBOX_ENABLED=false. It answers loopback clients only either way.
+ */
+export function mailboxEnabled(e: MailboxSettings = env()): boolean {
+  if (e.NODE_ENV === 'production') return e.UNSAFE_MAILBOX_IN_PRODUCTION === '1';
+  return e.MAILBOX_ENABLED ?? true;
+}
+
+/** Warnings printed at start-up about settings that are unsafe on a server others can reach. */
+export function startupWarnings(e: MailboxSettings = env()): string[] {
+  const warnings: string[] = [];
+  if (e.NODE_ENV === 'production' && mailboxEnabled(e)) {
+    warnings.push(
+      'UNSAFE_MAILBOX_IN_PRODUCTION=1: /dev/mailbox shows every e-mail, password-reset links included, to loopback clients. ' +
+        'Use it for a local demo only; unset it on a server.',
+    );
+  }
+  return warnings;
 }

@@ -26,6 +26,15 @@ export class AppError extends Error {
   }
 }
 
+/** 429 with the seconds after which the same request may succeed (sent as Retry-After). */
+export class RateLimitedError extends AppError {
+  readonly retryAfterSeconds: number;
+  constructor(message: string, retryAfterSeconds: number) {
+    super('rate-limited', message);
+    this.retryAfterSeconds = Math.max(1, Math.ceil(retryAfterSeconds));
+  }
+}
+
 export function isAppError(e: unknown): e is AppError {
   return e instanceof AppError;
 }
@@ -34,6 +43,12 @@ export function isAppError(e: unknown): e is AppError {
 export function problemResponse(error: AppError): Response {
   return new Response(
     JSON.stringify({ type: 'about:blank', title: error.code, status: error.status, detail: error.message, ...(error.details ? { errors: error.details } : {}) }),
-    { status: error.status, headers: { 'content-type': 'application/problem+json' } },
+    {
+      status: error.status,
+      headers: {
+        'content-type': 'application/problem+json',
+        ...(error instanceof RateLimitedError ? { 'retry-after': String(error.retryAfterSeconds) } : {}),
+      },
+    },
   );
 }

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { AppError } from '@/lib/errors';
+import { withImportSlot } from '@/lib/api-limits';
 import { workspaceRoute } from '@/lib/route';
+import type { MemberContext } from '@/lib/session';
 import { importMaxBytes } from '@/lib/api/import-limit';
 import { problemFromError } from '@/lib/api/problem';
 import { importCsvFile } from '@/lib/api/run-import';
@@ -16,6 +18,14 @@ import { limitedBody } from '@/lib/stream-limit';
  * The server decodes, parses and validates everything again; it is the authority.
  */
 export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.string().min(1) }), async (request, ctx) => {
+  try {
+    return await withImportSlot(ctx.workspace.id, () => postImport(request, ctx));
+  } catch (e) {
+    return problemFromError(e);
+  }
+});
+
+async function postImport(request: Request, ctx: MemberContext): Promise<Response> {
   const params = new URL(request.url).searchParams;
   if (params.get('kind') === 'dos') return postDos(request, params, ctx.workspace.id, ctx.user.id);
   const options = parseWizardQuery(params);
@@ -36,7 +46,7 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
     // Refused imports (422, 409, 413) answer with the same problem documents as the API.
     return problemFromError(e);
   }
-});
+}
 
 /** A phonon DOS file (?kind=dos&temperatures=…): entropies and heat capacities computed and stored as calculations. */
 async function postDos(request: Request, params: URLSearchParams, workspaceId: string, userId: string): Promise<Response> {
