@@ -1,5 +1,6 @@
 import 'server-only';
 import { betterAuth } from 'better-auth';
+import { APIError, createAuthMiddleware } from 'better-auth/api';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { nextCookies } from 'better-auth/next-js';
 import { organization } from 'better-auth/plugins';
@@ -10,7 +11,16 @@ import { ac, roles } from '@/lib/permissions';
 import { enqueueMail } from '@/db/queries/mail';
 import { CLIENT_ADDRESS_HEADER, LIMITED_AUTH_PATHS } from '@/lib/auth-guard';
 import { authRules, betterAuthRateStorage } from '@/lib/rate-limit';
+import { COMMON_PASSWORD_MESSAGE, isCommonPassword } from '@/lib/password-policy';
 import { existingAccountMail, invitationMail, resetPasswordMail, verifyEmailMail } from '@/lib/mail/templates';
+
+/** The endpoints that set a password, and the body field that carries it. */
+const NEW_PASSWORD_FIELD: Record<string, string> = {
+  '/sign-up/email': 'password',
+  '/reset-password': 'newPassword',
+  '/change-password': 'newPassword',
+  '/set-password': 'newPassword',
+};
 
 function createAuth() {
   const e = env();
@@ -42,6 +52,16 @@ function createAuth() {
       sendVerificationEmail: async ({ user, url }) => {
         await enqueueMail(db, verifyEmailMail({ to: user.email, name: user.name, url }));
       },
+    },
+    // Every way a password is chosen refuses the most common ones (lib/password-policy.ts).
+    hooks: {
+      before: createAuthMiddleware(async (ctx) => {
+        const field = NEW_PASSWORD_FIELD[ctx.path];
+        const password = field ? (ctx.body as Record<string, unknown> | undefined)?.[field] : undefined;
+        if (typeof password === 'string' && isCommonPassword(password)) {
+          throw new APIError('BAD_REQUEST', { code: 'PASSWORD_TOO_COMMON', message: COMMON_PASSWORD_MESSAGE });
+        }
+      }),
     },
     // The client address is the one lib/auth-guard.ts wrote from the socket; a client's X-Forwarded-For never
     // reaches better-auth. Sign-in, sign-up and reset are limited there (per client and per account); the other

@@ -24,6 +24,7 @@ const routeFiles = files.filter((f) => f.endsWith(`${sep}route.ts`) && !relative
 const PUBLIC_ROUTES: Record<string, string> = {
   'GET /api/v1/openapi.json': 'the API description, the same for everyone',
   'POST /api/unsubscribe': 'one-click unsubscribe authenticated by its signed token (RFC 8058)',
+  'GET /api/health': 'liveness for operators and load balancers: counts and statuses, no workspace data',
 };
 
 const METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
