@@ -30,7 +30,8 @@ export async function startServer({ dev = false, port = Number(process.env.PORT 
   process.env.LEDGER_PEER_KEY ||= randomBytes(24).toString('hex');
   const key = process.env.LEDGER_PEER_KEY;
   const { default: next } = await import('next');
-  const app = next({ dev, hostname: host, port });
+  // Turbopack in development, as `next dev` uses by default.
+  const app = next({ dev, hostname: host, port, ...(dev ? { turbopack: true } : {}) });
   await app.prepare();
   const handle = app.getRequestHandler();
   const server = createServer((req, res) => {

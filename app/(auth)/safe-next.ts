@@ -1,6 +1,5 @@
 // C0 controls, DEL, C1 controls and every Unicode space: a URL parser drops or trims some of them, so
 // "/\t/evil.example" is "//evil.example" (another host) once the browser reads it.
-// eslint-disable-next-line no-control-regex
 const CONTROL_OR_SPACE = /[\u0000-\u0020\u007f-\u00a0\u1680\u180e\u2000-\u200f\u2028\u2029\u202f\u205f\u3000\ufeff]/g;
 const BASE = 'http://next.invalid';
 
