@@ -1,5 +1,6 @@
 import 'server-only';
 import { betterAuth } from 'better-auth';
+import { APIError, createAuthMiddleware } from 'better-auth/api';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { nextCookies } from 'better-auth/next-js';
 import { organization } from 'better-auth/plugins';
@@ -8,18 +9,25 @@ import * as schema from '@/db/schema';
 import { env } from '@/lib/env';
 import { ac, roles } from '@/lib/permissions';
 import { enqueueMail } from '@/db/queries/mail';
+import { CLIENT_ADDRESS_HEADER, LIMITED_AUTH_PATHS } from '@/lib/auth-guard';
+import { authRules, betterAuthRateStorage } from '@/lib/services/rate-limit';
+import { COMMON_PASSWORD_MESSAGE, isCommonPassword } from '@/lib/password-policy';
 import { existingAccountMail, invitationMail, resetPasswordMail, verifyEmailMail } from '@/lib/mail/templates';
+
+/** The endpoints that set a password, and the body field that carries it. */
+const NEW_PASSWORD_FIELD: Record<string, string> = {
+  '/sign-up/email': 'password',
+  '/reset-password': 'newPassword',
+  '/change-password': 'newPassword',
+  '/set-password': 'newPassword',
+};
 
 function createAuth() {
   const e = env();
-  const rule = { window: e.AUTH_RATE_LIMIT_WINDOW_SECONDS, max: e.AUTH_RATE_LIMIT_MAX };
   return betterAuth({
     appName: 'Lattice Ledger',
     secret: e.BETTER_AUTH_SECRET,
     baseURL: e.BETTER_AUTH_URL,
-    // Served over https (BETTER_AUTH_URL is the public origin): cookies are Secure and __Secure- prefixed.
-    // Over plain http (local runs) they cannot be, or the browser would never send them back.
-    advanced: { useSecureCookies: new URL(e.BETTER_AUTH_URL).protocol === 'https:' },
     database: drizzleAdapter(db, { provider: 'sqlite', schema }),
     emailAndPassword: {
       enabled: true,
@@ -45,17 +53,31 @@ function createAuth() {
         await enqueueMail(verifyEmailMail({ to: user.email, name: user.name, url }));
       },
     },
+    // Every way a password is chosen refuses the most common ones (lib/password-policy.ts).
+    hooks: {
+      before: createAuthMiddleware(async (ctx) => {
+        const field = NEW_PASSWORD_FIELD[ctx.path];
+        const password = field ? (ctx.body as Record<string, unknown> | undefined)?.[field] : undefined;
+        if (typeof password === 'string' && isCommonPassword(password)) {
+          throw new APIError('BAD_REQUEST', { code: 'PASSWORD_TOO_COMMON', message: COMMON_PASSWORD_MESSAGE });
+        }
+      }),
+    },
+    advanced: {
+      // Served over https (BETTER_AUTH_URL is the public origin): cookies are Secure and __Secure- prefixed.
+      // Over plain http (local runs) they cannot be, or the browser would never send them back.
+      useSecureCookies: new URL(e.BETTER_AUTH_URL).protocol === 'https:',
+      // The client address is the one lib/auth-guard.ts wrote from the socket; a client's X-Forwarded-For never
+      // reaches better-auth. Sign-in, sign-up and reset are limited there (per client and per account); the other
+      // endpoints keep better-auth's limits, stored in the same bounded table.
+      ipAddress: { ipAddressHeaders: [CLIENT_ADDRESS_HEADER] },
+    },
     rateLimit: {
       enabled: true,
-      storage: 'database',
-      window: e.AUTH_RATE_LIMIT_WINDOW_SECONDS,
-      max: e.AUTH_RATE_LIMIT_MAX * 10,
-      customRules: {
-        '/sign-in/email': rule,
-        '/sign-up/email': rule,
-        '/request-password-reset': rule,
-        '/reset-password': rule,
-      },
+      window: authRules().general.windowSeconds,
+      max: authRules().general.max,
+      customStorage: betterAuthRateStorage,
+      customRules: Object.fromEntries(Object.keys(LIMITED_AUTH_PATHS).map((path) => [path, false as const])),
     },
     plugins: [
       organization({

@@ -24,6 +24,7 @@ const schema = dbEnvSchema.extend({
     .enum(['true', 'false'])
     .optional()
     .transform((v) => (v === undefined ? undefined : v === 'true')),
+  UNSAFE_MAILBOX_IN_PRODUCTION: z.enum(['', '0', '1']).default(''),
   AUTH_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(10),
   IMPORT_MAX_BYTES: z.coerce.number({ message: 'IMPORT_MAX_BYTES must be a number of bytes.' }).int().positive('IMPORT_MAX_BYTES must be a positive whole number of bytes.').default(200 * 1024 * 1024),
@@ -31,6 +32,18 @@ const schema = dbEnvSchema.extend({
   /** Read by next.config.mjs when the app is built (headers are fixed at build); declared here so the build check validates it. */
   HSTS_MAX_AGE: z.coerce.number({ message: 'HSTS_MAX_AGE must be a number of seconds.' }).int().min(0, 'HSTS_MAX_AGE must not be negative.').default(63_072_000),
   RECOMPUTE_DEBOUNCE_MS: z.coerce.number({ message: 'RECOMPUTE_DEBOUNCE_MS must be a number of milliseconds.' }).int().min(0, 'RECOMPUTE_DEBOUNCE_MS must not be negative.').default(1_500),
+  AUTH_ACCOUNT_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
+  AUTH_ACCOUNT_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(20),
+  RATE_LIMIT_TABLE_MAX_ROWS: z.coerce.number().int().min(100).default(10_000),
+  /** Read by scripts/server.mjs, which starts Next; declared here so the env check validates them. */
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  /** Set by scripts/server.mjs per process; read live (envValue), since tests set it after start-up. */
+  LEDGER_PEER_KEY: z.string().min(1).optional(),
+  TRUSTED_PROXIES: z.string().default(''),
+  API_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
+  API_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(600),
+  IMPORT_CONCURRENCY_PER_WORKSPACE: z.coerce.number().int().positive().default(2),
 });
 
 export const ENV_SCHEMA = schema;
@@ -64,8 +77,26 @@ export function envValue<K extends keyof Env>(name: K): Env[K] {
   return parsed.data as Env[K];
 }
 
-/** The development mailbox page is on in development and when explicitly enabled (demo, tests). */
-export function mailboxEnabled(): boolean {
-  const e = env();
-  return e.MAILBOX_ENABLED ?? e.NODE_ENV !== 'production';
+type MailboxSettings = Pick<Env, 'NODE_ENV' | 'MAILBOX_ENABLED' | 'UNSAFE_MAILBOX_IN_PRODUCTION'>;
+
+/**
+ * Whether the development mailbox page (/dev/mailbox) exists. It shows password-reset links, so in production
+ * it is off unless UNSAFE_MAILBOX_IN_PRODUCTION=1 (the local demo sets it); MAILBOX_ENABLED does not count there.
+ * Outside production it is on unless MAILBOX_ENABLED=false. It answers loopback clients only either way.
+ */
+export function mailboxEnabled(e: MailboxSettings = env()): boolean {
+  if (e.NODE_ENV === 'production') return e.UNSAFE_MAILBOX_IN_PRODUCTION === '1';
+  return e.MAILBOX_ENABLED ?? true;
+}
+
+/** Warnings printed at start-up about settings that are unsafe on a server others can reach. */
+export function startupWarnings(e: MailboxSettings = env()): string[] {
+  const warnings: string[] = [];
+  if (e.NODE_ENV === 'production' && mailboxEnabled(e)) {
+    warnings.push(
+      'UNSAFE_MAILBOX_IN_PRODUCTION=1: /dev/mailbox shows every e-mail, password-reset links included, to loopback clients. ' +
+        'Use it for a local demo only; unset it on a server.',
+    );
+  }
+  return warnings;
 }

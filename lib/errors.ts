@@ -17,31 +17,40 @@ const STATUS: Record<AppErrorCode, number> = {
   'rate-limited': 429,
 };
 
-/** Row-level problems of a refused import (see lib/import/errors). */
-interface RowProblems {
-  errors: Array<{ row: number; column: string | null; reason: string; value?: string }>;
-  errorCount: number;
+/** Facts some kinds carry: a refused import's row errors (see lib/import/errors), a rate limit's wait. */
+interface ErrorFacts {
+  errors?: Array<{ row: number; column: string | null; reason: string; value?: string }>;
+  errorCount?: number;
+  retryAfterSeconds?: number;
 }
 
 export class AppError extends Error {
   readonly code: AppErrorCode;
   /** Field issues (an array, e.g. zod's) or named facts (an object) the problem document carries. */
   readonly details?: unknown;
-  readonly errors?: RowProblems['errors'];
+  readonly errors?: ErrorFacts['errors'];
   readonly errorCount?: number;
-  constructor(code: AppErrorCode, message: string, details?: unknown, rows?: RowProblems) {
+  /** Seconds until the same request may succeed (rate-limited). */
+  readonly retryAfterSeconds?: number;
+  constructor(code: AppErrorCode, message: string, details?: unknown, facts: ErrorFacts = {}) {
     super(message);
     this.name = 'AppError';
     this.code = code;
     this.details = details;
-    if (rows) {
-      this.errors = rows.errors;
-      this.errorCount = rows.errorCount;
+    if (facts.errors) {
+      this.errors = facts.errors;
+      this.errorCount = facts.errorCount ?? facts.errors.length;
     }
+    if (facts.retryAfterSeconds !== undefined) this.retryAfterSeconds = Math.max(1, Math.ceil(facts.retryAfterSeconds));
   }
   get status(): number {
     return STATUS[this.code];
   }
+}
+
+/** 429 with the seconds after which the same request may succeed (sent as Retry-After). */
+export function rateLimited(message: string, retryAfterSeconds: number): AppError {
+  return new AppError('rate-limited', message, undefined, { retryAfterSeconds });
 }
 
 export function isAppError(e: unknown): e is AppError {
@@ -75,6 +84,7 @@ export function toProblem(e: unknown, options: { bearer?: boolean; headers?: Rec
   else if (e.details && typeof e.details === 'object') Object.assign(extra, e.details);
   const headers: Record<string, string> = { ...options.headers };
   if (e.code === 'unauthorized' && options.bearer) headers['www-authenticate'] = 'Bearer realm="lattice-ledger"';
+  if (e.retryAfterSeconds !== undefined) headers['retry-after'] = String(e.retryAfterSeconds);
   return problemDocument(e.status, e.code, e.message, extra, headers);
 }
 

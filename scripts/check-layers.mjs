@@ -62,7 +62,7 @@ export function checkLayers({ graph, text }) {
       if (!b) continue;
       const k = `${a} → ${b}`;
       counts.set(k, (counts.get(k) ?? 0) + 1);
-      if (!mayImport(a, b)) problems.push(`${from} (${a}) imports ${to} (${b}): ${a} may import only ${LAYERS.find((l) => l.name === a).may.join(', ') || 'itself'}.`);
+      if (!mayImport(a, b)) problems.push(`${from} (${a}) imports ${to} (${b}): ${a} may import only ${[a, ...LAYERS.find((l) => l.name === a).may].join(', ')}.`);
       if (isClient(text.get(from) ?? '') && (CLIENT_FORBIDDEN_LAYERS.includes(b) || isServerOnly(text.get(to) ?? ''))) {
         problems.push(`${from} is a client component and imports server code ${to}.`);
       }

@@ -7,4 +7,5 @@ const tsx = ['node_modules/tsx/dist/cli.mjs', '--conditions=react-server'];
 await run('node', [...tsx, 'db/migrate.ts'], env);
 await run('node', [...tsx, 'db/seed.ts'], env);
 start('node', [...tsx, 'lib/mail/fake-resend-server.ts'], env);
-start('node', ['node_modules/next/dist/bin/next', 'dev', '-p', env.PORT], env);
+// Our server around next dev: 127.0.0.1 unless HOST says otherwise, and the socket address for rate limits.
+start('node', ['scripts/server.mjs', '--dev'], env);

@@ -2,7 +2,7 @@
 // One definition, read by the ESLint rule (eslint.config.mjs) and by the import-graph check (scripts/check-layers.mjs).
 
 /** Request gates: session, action and route wrappers, API-token auth. They sit above the services, below the routes. */
-export const GATE_FILES = ['lib/auth.ts', 'lib/session.ts', 'lib/action.ts', 'lib/route.ts', 'lib/api/auth.ts', 'lib/api/handler.ts', 'lib/api/resources.ts'];
+export const GATE_FILES = ['lib/auth.ts', 'lib/auth-guard.ts', 'lib/session.ts', 'lib/action.ts', 'lib/route.ts', 'lib/api/auth.ts', 'lib/api/handler.ts', 'lib/api/resources.ts'];
 
 export const LAYERS = [
   { name: 'science', holds: 'lib/science/: pure computation, no I/O', may: [] },

@@ -24,6 +24,7 @@ const routeFiles = files.filter((f) => f.endsWith(`${sep}route.ts`) && !relative
 const PUBLIC_ROUTES: Record<string, string> = {
   'GET /api/v1/openapi.json': 'the API description, the same for everyone',
   'POST /api/unsubscribe': 'one-click unsubscribe authenticated by its signed token (RFC 8058)',
+  'GET /api/health': 'liveness for operators and load balancers: counts and statuses, no workspace data',
 };
 
 const METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
@@ -133,6 +134,72 @@ describe('every route handler', () => {
         const cross = await handler(makeRequest(), { params: Promise.resolve(params) });
         expect([401, 403, 404], `${method} ${path} cross-workspace answered ${cross.status}`).toContain(cross.status);
         expect(await snapshot()).toEqual(before);
+      }
+    });
+  }
+});
+
+/** Bearer-token routes: a cookie is never read there, so a foreign page cannot borrow one. */
+const BEARER_PREFIX = '/api/v1/';
+const STATE_CHANGING = ['POST', 'PUT', 'PATCH', 'DELETE'] as const;
+
+const changingCookieRoutes: string[] = [];
+for (const file of routeFiles) {
+  if (urlPath(file).startsWith(BEARER_PREFIX)) continue;
+  const mod = (await import(file)) as Record<string, unknown>;
+  if (STATE_CHANGING.some((m) => typeof mod[m] === 'function' && !PUBLIC_ROUTES[`${m} ${urlPath(file)}`])) changingCookieRoutes.push(file);
+}
+
+describe('every state-changing cookie-authenticated route handler', () => {
+  const cookieRoutes = changingCookieRoutes;
+
+  it('includes the import upload (the enumeration found them)', () => {
+    expect(cookieRoutes.map(urlPath)).toContain('/api/workspaces/[workspaceId]/imports');
+  });
+
+  for (const file of cookieRoutes) {
+    const path = urlPath(file);
+    it(`${path}: refuses a signed-in member's request from another origin (403 problem+json), writes nothing`, async () => {
+      const mod = (await import(file)) as Record<string, unknown>;
+      for (const method of STATE_CHANGING) {
+        if (typeof mod[method] !== 'function' || PUBLIC_ROUTES[`${method} ${path}`]) continue;
+        const handler = mod[method] as (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
+        const params: Record<string, string> = {};
+        for (const seg of path.split('/')) {
+          const m = seg.match(/^\[(?:\.\.\.)?(\w+)\]$/);
+          if (m) params[m[1]] = m[1] === 'workspaceId' ? victim.workspaceId : `probe-${m[1]}`;
+        }
+        const concrete = path.replace(/\[(?:\.\.\.)?(\w+)\]/g, (_, k: string) => params[k]);
+        // A member of the workspace, signed in: only the origin is wrong.
+        await signInAs(victim.owner.email);
+        const attempts: Array<[string, Record<string, string>]> = [
+          ['a page on another port of the same host, text/plain body', { origin: 'http://localhost:4000', 'content-type': 'text/plain' }],
+          ['a form on another site', { origin: 'https://evil.example', 'content-type': 'application/x-www-form-urlencoded' }],
+          ['an opaque origin', { origin: 'null', 'content-type': 'text/plain' }],
+          ['no Origin, Sec-Fetch-Site cross-site', { 'sec-fetch-site': 'cross-site', 'content-type': 'text/plain' }],
+          ['no Origin, Sec-Fetch-Site same-site', { 'sec-fetch-site': 'same-site', 'content-type': 'text/plain' }],
+          ['neither header', { 'content-type': 'text/plain' }],
+        ];
+        for (const [what, extra] of attempts) {
+          const headers = requestContext.headers();
+          headers.delete('origin');
+          for (const [k, v] of Object.entries(extra)) headers.set(k, v);
+          const before = await snapshot();
+          const res = await handler(new Request(`http://localhost:3999${concrete}?kind=measurements&fileName=x.csv`, { method, headers, body: 'material,quantity\nGaN,frequency\n' }), {
+            params: Promise.resolve(params),
+          });
+          expect(res.status, `${method} ${path}: ${what}`).toBe(403);
+          expect(res.headers.get('content-type')).toBe('application/problem+json');
+          expect(((await res.json()) as { detail: string }).detail).toMatch(/Cross-site request refused/);
+          expect(await snapshot(), `${method} ${path}: ${what} wrote something`).toEqual(before);
+        }
+        // The same request from the app's own origin is not refused for its origin.
+        const headers = requestContext.headers();
+        headers.set('content-type', 'text/plain');
+        const own = await handler(new Request(`http://localhost:3999${concrete}?kind=measurements&fileName=x.csv`, { method, headers, body: 'material\n' }), {
+          params: Promise.resolve(params),
+        });
+        expect(own.status).not.toBe(403);
       }
     });
   }

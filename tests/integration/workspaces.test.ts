@@ -14,6 +14,14 @@ async function memberRole(workspaceId: string, userId: string) {
 }
 
 describe('workspaces', () => {
+  it('refuses an invitation to an invalid e-mail address with a field error, sending nothing', async () => {
+    const { workspaceId, owner } = await createWorkspaceWith();
+    await signInAs(owner.email);
+    const bad = await callAction(inviteMember, { workspaceId, email: 'not-an-address', role: 'reviewer' });
+    expect(bad.state).toMatchObject({ ok: false, fieldErrors: { email: ['Enter a valid e-mail address.'] } });
+    expect(await db.select().from(invitation).where(eq(invitation.organizationId, workspaceId))).toHaveLength(0);
+  });
+
   it('creates a workspace whose creator is its owner, and refuses a taken address', async () => {
     const u = await createVerifiedUser('Founder');
     await signInAs(u.email);
@@ -97,6 +105,8 @@ describe('workspaces', () => {
     const ownerMember = (await db.select().from(member).where(and(eq(member.userId, owner.id), eq(member.organizationId, workspaceId))))[0];
     const demote = await callAction(changeMemberRole, { workspaceId, memberId: ownerMember.id, role: 'reviewer' });
     expect(demote.state?.ok).toBe(false);
+    // our words, not the auth library's ("organization")
+    expect(demote.state?.message).toBe('You are the only owner of this workspace: make another member an owner before you change your own role.');
     expect(await memberRole(workspaceId, owner.id)).toBe('owner');
 
     const contributorMember = (await db.select().from(member).where(eq(member.userId, members.contributor.id)))[0];

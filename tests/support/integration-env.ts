@@ -13,6 +13,8 @@ process.env.BETTER_AUTH_URL = 'http://localhost:3999';
 process.env.RESEND_API_KEY = 're_test_key';
 process.env.MAIL_WORKER_INTERVAL_MS = '0';
 process.env.MAIL_FROM = 'Lattice Ledger <ledger@example.org>';
+// As scripts/server.mjs sets it: tests stamp the TCP peer with it (lib/client-address.ts).
+process.env.LEDGER_PEER_KEY = 'integration-peer-key';
 
 vi.mock('next/headers', () => ({
   headers: async () => requestContext.headers(),

@@ -1,9 +1,15 @@
 /** The "current request" seen by server code under test (next/headers is mocked to read it). */
 class RequestContext {
   private cookieJar = new Map<string, string>();
+  private extra: Record<string, string> = {};
+
+  /** Headers the next requests carry besides origin and cookie (e.g. the peer stamp of scripts/server.mjs). */
+  setHeaders(extra: Record<string, string>) {
+    this.extra = { ...extra };
+  }
 
   headers(): Headers {
-    const h = new Headers({ origin: process.env.BETTER_AUTH_URL ?? 'http://localhost:3999' });
+    const h = new Headers({ origin: process.env.BETTER_AUTH_URL ?? 'http://localhost:3999', ...this.extra });
     if (this.cookieJar.size > 0) h.set('cookie', [...this.cookieJar].map(([k, v]) => `${k}=${v}`).join('; '));
     return h;
   }

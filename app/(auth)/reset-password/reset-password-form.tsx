@@ -6,6 +6,7 @@ import { authClient } from '@/lib/auth-client';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { PASSWORD_RULE } from '../password-rule';
 
 export function ResetPasswordForm({ token, linkError }: { token?: string; linkError?: string }) {
   const router = useRouter();
@@ -43,7 +44,7 @@ export function ResetPasswordForm({ token, linkError }: { token?: string; linkEr
     <form onSubmit={onSubmit} className="space-y-4">
       <h1>Choose a new password</h1>
       {error && <Notice tone="bad">{error}</Notice>}
-      <TextField label="New password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters. You will be signed out everywhere." required />
+      <TextField label="New password" name="password" type="password" autoComplete="new-password" hint={`${PASSWORD_RULE} You will be signed out everywhere.`} required />
       <Button type="submit" disabled={pending} className="w-full">
         {pending ? 'Saving…' : 'Set password'}
       </Button>

@@ -7,6 +7,7 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { safeNext } from '../safe-next';
+import { PASSWORD_RULE } from '../password-rule';
 
 const signUpSchema = z.object({
   name: z.string().trim().min(1, 'Enter your name.').max(120),
@@ -36,6 +37,7 @@ export function SignUpForm({ next, email }: { next?: string; email?: string }) {
     setPending(false);
     if (error) {
       if (error.status === 429) setError('Too many attempts. Wait a minute and try again.');
+      else if (error.code === 'PASSWORD_TOO_COMMON') setErrors({ password: [error.message ?? 'Choose a less common password.'] });
       else if (error.code === 'USER_ALREADY_EXISTS' || error.code === 'USER_ALREADY_EXISTS_USE_ANOTHER_EMAIL' || error.status === 422)
         setError('An account with this e-mail address already exists. Sign in instead, or reset your password.');
       else setError(error.message ?? 'Sign-up failed.');
@@ -62,7 +64,7 @@ export function SignUpForm({ next, email }: { next?: string; email?: string }) {
       {error && <Notice tone="bad">{error}</Notice>}
       <TextField label="Name" name="name" autoComplete="name" errors={errors.name} required />
       <TextField label="E-mail" name="email" type="email" autoComplete="email" defaultValue={email} errors={errors.email} required />
-      <TextField label="Password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters." errors={errors.password} required />
+      <TextField label="Password" name="password" type="password" autoComplete="new-password" hint={PASSWORD_RULE} errors={errors.password} required />
       <Button type="submit" disabled={pending} className="w-full">
         {pending ? 'Creating…' : 'Create account'}
       </Button>

@@ -1,6 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { headers } from 'next/headers';
 import { notFound } from 'next/navigation';
+import { isDirectLoopback } from '@/lib/client-address';
 import { env, mailboxEnabled } from '@/lib/env';
 
 export const metadata: Metadata = { title: 'Development mailbox' };
@@ -29,7 +31,8 @@ async function fetchMessages(): Promise<{ messages: Message[]; error?: string }>
 }
 
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<{ id?: string }> }) {
-  if (!mailboxEnabled()) notFound();
+  // It shows password-reset links: only on this machine, and in production only when explicitly enabled.
+  if (!mailboxEnabled() || !isDirectLoopback(await headers())) notFound();
   const { id } = await searchParams;
   const { messages, error } = await fetchMessages();
   const selected = messages.find((m) => m.id === id) ?? messages[0];

@@ -26,6 +26,8 @@ interface Job {
   running: Promise<void> | null;
   causes: RecomputeCause[];
   lastError: string | null;
+  /** When this job was first queued (ms since the epoch): the health check reports the oldest. */
+  since: number;
 }
 
 const store = globalThis as unknown as { ledgerRecomputeJobs?: Map<string, Job>; ledgerRecomputeListings?: Map<string, number> };
@@ -45,6 +47,7 @@ function start(job: Job): void {
   job.timer = null;
   if (job.running) return;
   const causes = job.causes.splice(0);
+  job.since = Date.now();
   job.running = recomputeBenchmark(job.workspaceId, job.benchmarkId, causes.length ? causes : [{ trigger: 'data-change' }])
     .then(() => {
       job.lastError = null;
@@ -91,7 +94,7 @@ export function scheduleRecompute(
   for (const benchmarkId of benchmarkIds) {
     const k = key(workspaceId, benchmarkId);
     let job = jobs.get(k);
-    if (!job) jobs.set(k, (job = { workspaceId, benchmarkId, timer: null, running: null, causes: [], lastError: null }));
+    if (!job) jobs.set(k, (job = { workspaceId, benchmarkId, timer: null, running: null, causes: [], lastError: null, since: Date.now() }));
     job.causes.push(cause);
     arm(job, delayMs);
   }
@@ -101,6 +104,19 @@ export function recomputeState(workspaceId: string, benchmarkId: string): Recomp
   const job = jobs.get(key(workspaceId, benchmarkId));
   if (!job) return 'idle';
   return job.running ? 'running' : 'queued';
+}
+
+/** The queue at a glance, for GET /api/health. */
+export function recomputeQueueStatus(now = Date.now()): { queued: number; running: number; oldestMs: number } {
+  let queued = 0;
+  let running = 0;
+  let oldest = now;
+  for (const job of jobs.values()) {
+    if (job.running) running++;
+    else queued++;
+    oldest = Math.min(oldest, job.since);
+  }
+  return { queued, running, oldestMs: now - oldest };
 }
 
 /** Resolves when no job of this benchmark (or of any, when omitted) is queued or running: for tests and scripts. */

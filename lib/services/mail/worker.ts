@@ -32,6 +32,12 @@ export async function runMailWorkerOnce(): Promise<void> {
   }
 }
 
+/** Whether this process delivers mail: 'running' once the timer is set, 'disabled' with MAIL_WORKER_INTERVAL_MS=0. */
+export function mailWorkerStatus(): 'running' | 'stopped' | 'disabled' {
+  if (env().MAIL_WORKER_INTERVAL_MS === 0) return 'disabled';
+  return state.ledgerMailWorker?.timer ? 'running' : 'stopped';
+}
+
 /** Starts the periodic delivery timer once per server process. */
 export function startMailWorker(): void {
   state.ledgerMailWorker ??= { running: false, again: false };

@@ -51,7 +51,7 @@ describe('the import-graph check', () => {
       text: text({ 'app/x/_components/form.tsx': "'use client';\nimport type { A } from '@/db/queries/a';" }),
     });
     expect(result.problems).toEqual([
-      'db/queries/a.ts (db) imports lib/services/b.ts (services): db may import only science, lib.',
+      'db/queries/a.ts (db) imports lib/services/b.ts (services): db may import only db, science, lib.',
       'app/x/_components/form.tsx is a client component and imports server code db/queries/a.ts.',
     ]);
     expect(result.cycles).toEqual([['db/queries/a.ts', 'lib/services/b.ts']]);

@@ -11,8 +11,48 @@ describe('safeNext', () => {
     ['https://evil.example', '/w'],
     [undefined, '/w'],
     ['', '/w'],
+    ['/w/lab/benchmarks?tab=pairs#top', '/w/lab/benchmarks?tab=pairs#top'],
   ])('%s → %s', (input, expected) => {
     expect(safeNext(input)).toBe(expected);
+  });
+
+  // Known bypass shapes, each as the page receives it (already decoded once) and still encoded.
+  const bypasses = [
+    '/\t/evil.example/x',
+    '/\n/evil.example/x',
+    '/\r\n/evil.example',
+    '/ /evil.example',
+    '\t//evil.example',
+    ' //evil.example',
+    '/\u00a0/evil.example',
+    '/\u3000/evil.example',
+    '/%09/evil.example/x',
+    '/%0a/evil.example/x',
+    '/%0D%0A/evil.example',
+    '/%2509/evil.example',
+    '%2F%2Fevil.example',
+    '/%2Fevil.example',
+    '/%2F%2Fevil.example',
+    '/%5Cevil.example',
+    '/%5C%5Cevil.example',
+    '/\\evil.example',
+    '\\\\evil.example',
+    '//evil.example/x',
+    '///evil.example',
+    'https://evil.example',
+    'HTTPS://evil.example',
+    'https:%2F%2Fevil.example',
+    '%68ttps://evil.example',
+    'javascript:alert(1)',
+    'java%0ascript:alert(1)',
+    '/%E0%A4%A',
+    'evil.example',
+  ];
+
+  it.each(bypasses)('refuses %j', (input) => {
+    expect(safeNext(input)).toBe('/w');
+    // whatever is returned must stay on this origin when a browser resolves it
+    expect(new URL(safeNext(input), 'http://ledger.test').origin).toBe('http://ledger.test');
   });
 });
 

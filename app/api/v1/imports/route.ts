@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { listImports } from '@/db/queries/imports';
 import { AppError, issuesText } from '@/lib/errors';
+import { withImportSlot } from '@/lib/api-limits';
+import type { TokenContext } from '@/lib/api/auth';
 import { apiRoute } from '@/lib/api/handler';
 import { envValue } from '@/lib/env';
 import { listRoute } from '@/lib/api/resources';
@@ -14,9 +16,12 @@ import { limitedBody, readLimitedBody } from '@/lib/stream-limit';
  * POST /api/v1/imports — a JSON body `{ kind, fileName?, units?, rows }`, or a
  * CSV file (`Content-Type: text/csv`, `?kind=…&fileName=…`; a phonon DOS with
  * `?kind=dos&temperatures=298.15,300`). 201 with the counts,
- * 422 with every row error, 409 for a file already imported, 413 over IMPORT_MAX_BYTES.
+ * 422 with every row error, 409 for a file already imported, 413 over IMPORT_MAX_BYTES,
+ * 429 when the workspace already runs IMPORT_CONCURRENCY_PER_WORKSPACE imports.
  */
-export const POST = apiRoute('imports:create', z.object({}), async (request, ctx) => {
+export const POST = apiRoute('imports:create', z.object({}), (request, ctx) => withImportSlot(ctx.workspaceId, () => runImport(request, ctx)));
+
+async function runImport(request: Request, ctx: TokenContext): Promise<Response> {
   const maxBytes = envValue('IMPORT_MAX_BYTES');
   const type = (request.headers.get('content-type') ?? '').split(';')[0].trim().toLowerCase();
   const actor = { userId: ctx.createdBy, tokenId: ctx.tokenId };
@@ -52,7 +57,7 @@ export const POST = apiRoute('imports:create', z.object({}), async (request, ctx
     throw new AppError('bad-request', 'Send Content-Type: application/json (rows) or text/csv (a file, with ?kind=).');
   }
   return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
-});
+}
 
 export const GET = listRoute('imports:read', importSummarySchema, async (workspaceId, page) => {
   const { items, total } = await listImports(workspaceId, page);

@@ -3,6 +3,8 @@ import { workspaceRoute } from '@/lib/route';
 import { envValue } from '@/lib/env';
 import { AppError, issuesText, toProblem } from '@/lib/errors';
 import { importCsvFile } from '@/lib/services/imports/csv-import';
+import { withImportSlot } from '@/lib/api-limits';
+import type { MemberContext } from '@/lib/session';
 import { parseDosQuery } from '@/lib/import/dos-format';
 import { importDosFile } from '@/lib/services/imports/dos-import';
 import { parseWizardQuery } from '@/lib/import/wizard-options';
@@ -15,6 +17,14 @@ import { limitedBody } from '@/lib/stream-limit';
  * The server decodes, parses and validates everything again; it is the authority.
  */
 export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.string().min(1) }), async (request, ctx) => {
+  try {
+    return await withImportSlot(ctx.workspace.id, () => postImport(request, ctx));
+  } catch (e) {
+    return toProblem(e);
+  }
+});
+
+async function postImport(request: Request, ctx: MemberContext): Promise<Response> {
   const params = new URL(request.url).searchParams;
   if (params.get('kind') === 'dos') return postDos(request, params, ctx.workspace.id, ctx.user.id);
   const options = parseWizardQuery(params);
@@ -35,7 +45,7 @@ export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.s
     // Refused imports (422, 409, 413) answer with the same problem documents as the API.
     return toProblem(e);
   }
-});
+}
 
 /** A phonon DOS file (?kind=dos&temperatures=…): entropies and heat capacities computed and stored as calculations. */
 async function postDos(request: Request, params: URLSearchParams, workspaceId: string, userId: string): Promise<Response> {

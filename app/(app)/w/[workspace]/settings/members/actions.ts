@@ -2,7 +2,7 @@
 import { headers } from 'next/headers';
 import { revalidatePath } from 'next/cache';
 import { redirect } from 'next/navigation';
-import { APIError } from 'better-auth/api';
+import { APIError, isAPIError } from 'better-auth/api';
 import { getAuth } from '@/lib/auth';
 import { workspaceAction } from '@/lib/action';
 import type { ActionState } from '@/lib/action-state';
@@ -10,8 +10,12 @@ import { AppError } from '@/lib/errors';
 import { listMembers, listPendingInvitations } from '@/db/queries/workspaces';
 import { changeRoleSchema, invitationSchema, inviteSchema, memberSchema, workspaceOnlySchema } from './schemas';
 
+/** better-auth's refusals, in our words: its "organization" is our workspace. */
 function fromApiError(e: unknown): ActionState {
-  if (e instanceof APIError) return { ok: false, code: 'bad-request', message: e.message };
+  if (isAPIError(e) || e instanceof APIError) {
+    const message = (e as Error).message.replace(/\borganizations\b/gi, 'workspaces').replace(/\borganization\b/gi, 'workspace');
+    return { ok: false, code: 'bad-request', message };
+  }
   throw e;
 }
 
@@ -39,7 +43,17 @@ export const inviteMember = workspaceAction('members:invite', inviteSchema, asyn
 });
 
 export const changeMemberRole = workspaceAction('members:update-role', changeRoleSchema, async (input, ctx) => {
-  await memberOf(ctx.workspace.id, input.memberId);
+  const target = await memberOf(ctx.workspace.id, input.memberId);
+  if (target.role === 'owner' && input.role !== 'owner') {
+    const owners = (await listMembers(ctx.workspace.id)).filter((m) => m.role === 'owner').length;
+    if (owners <= 1) {
+      const message =
+        target.userId === ctx.user.id
+          ? 'You are the only owner of this workspace: make another member an owner before you change your own role.'
+          : `${target.name} is the only owner of this workspace: make another member an owner first.`;
+      return { ok: false, code: 'conflict', message };
+    }
+  }
   try {
     await getAuth().api.updateMemberRole({
       body: { memberId: input.memberId, role: input.role, organizationId: ctx.workspace.id },

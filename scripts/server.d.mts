@@ -1,0 +1,6 @@
+import type { IncomingMessage, Server } from 'node:http';
+
+export const PEER_HEADER: string;
+export function listenHost(env?: Record<string, string | undefined>): string;
+export function stampPeer(req: IncomingMessage, key: string): void;
+export function startServer(options?: { dev?: boolean; port?: number; host?: string }): Promise<Server>;

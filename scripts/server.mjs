@@ -1,0 +1,65 @@
+// The app's HTTP server: Next.js behind a plain node:http server that we own, for two reasons.
+// 1. It listens on 127.0.0.1 unless HOST says otherwise, so a demo or dev server is not on the network by accident.
+// 2. It alone sees the TCP peer. It writes that address into a header on every request, overwriting whatever the
+//    client sent, together with a per-process key the client cannot know (lib/client-address.ts checks it), so
+//    rate limits and the loopback-only mailbox rest on the socket, not on headers a client can forge.
+// Usage: node scripts/server.mjs [--dev]   (PORT, HOST from the environment)
+import { randomBytes } from 'node:crypto';
+import { createServer } from 'node:http';
+import { fileURLToPath } from 'node:url';
+
+export const PEER_HEADER = 'x-ledger-peer';
+
+/** The interface to listen on: loopback unless HOST names another. */
+export function listenHost(env = process.env) {
+  return env.HOST && env.HOST.trim() !== '' ? env.HOST.trim() : '127.0.0.1';
+}
+
+/**
+ * Overwrites the peer header with "<key> <socket address> <direct|forwarded>": forwarded when the client sent
+ * any forwarding header (read before Next adds its own X-Forwarded-For).
+ */
+export function stampPeer(req, key) {
+  const h = req.headers;
+  const forwarded = h['x-forwarded-for'] !== undefined || h['forwarded'] !== undefined || h['x-real-ip'] !== undefined;
+  h[PEER_HEADER] = `${key} ${req.socket.remoteAddress ?? '-'} ${forwarded ? 'forwarded' : 'direct'}`;
+}
+
+export async function startServer({ dev = false, port = Number(process.env.PORT || 3000), host = listenHost() } = {}) {
+  // Set before Next loads, so the route handlers (same process) read the same key.
+  process.env.LEDGER_PEER_KEY ||= randomBytes(24).toString('hex');
+  const key = process.env.LEDGER_PEER_KEY;
+  const { default: next } = await import('next');
+  // Turbopack in development, as `next dev` uses by default.
+  const app = next({ dev, hostname: host, port, ...(dev ? { turbopack: true } : {}) });
+  await app.prepare();
+  const handle = app.getRequestHandler();
+  const server = createServer((req, res) => {
+    stampPeer(req, key);
+    handle(req, res);
+  });
+  if (dev) {
+    const upgrade = app.getUpgradeHandler();
+    server.on('upgrade', (req, socket, head) => {
+      stampPeer(req, key);
+      upgrade(req, socket, head);
+    });
+  }
+  await new Promise((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, host, resolve);
+  });
+  const shown = host.includes(':') ? `[${host}]` : host;
+  console.log(`Lattice Ledger ${dev ? '(development) ' : ''}listening on http://${shown}:${port}`);
+  if (host !== '127.0.0.1' && host !== '::1' && host !== 'localhost') {
+    console.warn(`HOST=${host}: the app is reachable from other machines on that interface.`);
+  }
+  return server;
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  startServer({ dev: process.argv.includes('--dev') }).catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });
+}
