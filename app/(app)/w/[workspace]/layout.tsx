@@ -35,7 +35,7 @@ export default async function WorkspaceLayout({ children, params }: { children: 
           <SignOutButton />
         </div>
       </NavDrawer>
-      <main id="main" tabIndex={-1} className="min-w-0 flex-1 px-4 py-5 focus:outline-none sm:px-6 lg:px-8 lg:py-6 print:px-0">
+      <main id="main" tabIndex={-1} className="min-w-0 flex-1 px-4 py-5 focus:outline-none sm:px-6 md:overflow-x-clip lg:px-8 lg:py-6 print:px-0">
         {children}
       </main>
       <ShortcutOverlay slug={slug} />
