@@ -1,10 +1,11 @@
 'use client';
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useMemo, useRef } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { useTable, type ColumnDef, type PaginationState, type SortingState, type Updater } from '@tanstack/react-table';
 import { dataTableFeatures, type DataTableFeatures } from './features';
 import { DataTablePagination } from './data-table-pagination';
 import { useListUrl } from './use-list-url';
+import { useHiddenContent } from '@/components/ui/scroll-region';
 
 export interface DataTableState {
   page: number;
@@ -30,25 +31,6 @@ export interface DataTableProps<TData extends { id: string }> {
 const VIRTUALISE_FROM = 100;
 const ROW_HEIGHT = 33;
 
-/** True while a table wider than its box has columns out of sight on the right (a cue to scroll sideways). */
-function useMoreToTheRight(ref: React.RefObject<HTMLDivElement | null>): boolean {
-  const [more, setMore] = useState(false);
-  useEffect(() => {
-    const el = ref.current;
-    if (!el) return;
-    const check = () => setMore(el.scrollLeft + el.clientWidth < el.scrollWidth - 4);
-    check();
-    const observer = new ResizeObserver(check);
-    observer.observe(el);
-    if (el.firstElementChild) observer.observe(el.firstElementChild);
-    el.addEventListener('scroll', check, { passive: true });
-    return () => {
-      observer.disconnect();
-      el.removeEventListener('scroll', check);
-    };
-  }, [ref]);
-  return more;
-}
 
 function resolve<T>(updater: Updater<T>, current: T): T {
   return typeof updater === 'function' ? (updater as (old: T) => T)(current) : updater;
@@ -100,7 +82,7 @@ export function DataTable<TData extends { id: string }>({ columns, data, rowCoun
   const padBottom = items?.length ? virtualizer.getTotalSize() - items[items.length - 1].end : 0;
   const visible = items ? items.map((i) => rows[i.index]) : rows;
   const columnCount = table.getAllLeafColumns().length;
-  const moreToTheRight = useMoreToTheRight(scrollRef);
+  const moreToTheRight = useHiddenContent(scrollRef).right;
 
   return (
     <div className="relative space-y-2" aria-busy={pending}>

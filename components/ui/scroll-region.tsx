@@ -2,7 +2,7 @@
 import { useEffect, useRef, useState, type HTMLAttributes } from 'react';
 
 /** Which edges of a box have content out of sight (a cue to scroll). */
-function useHiddenContent(ref: React.RefObject<HTMLDivElement | null>): { right: boolean; below: boolean } {
+export function useHiddenContent(ref: React.RefObject<HTMLDivElement | null>): { right: boolean; below: boolean } {
   const [hidden, setHidden] = useState({ right: false, below: false });
   useEffect(() => {
     const el = ref.current;
