@@ -3,7 +3,7 @@ import { useId, useRef, useState } from 'react';
 import { useVegaEmbed } from 'react-vega';
 import type { EmbedOptions, VisualizationSpec } from 'vega-embed';
 import { hideMarks } from './benchmark/vega-figure';
-import { CSP_SAFE_VEGA } from './vega-options';
+import { embedOptions, saveFigure } from './vega-options';
 
 export interface VegaChartProps {
   spec: VisualizationSpec;
@@ -22,17 +22,12 @@ export interface VegaChartProps {
 export function VegaChart({ spec, renderer = 'svg', downloadName, ariaLabel, summary, className = '' }: VegaChartProps) {
   const id = useId();
   const ref = useRef<HTMLDivElement>(null);
-  const [options] = useState<EmbedOptions>(() => ({ renderer, actions: false, tooltip: { theme: 'light' }, ...CSP_SAFE_VEGA }));
+  const [options] = useState<EmbedOptions>(() => embedOptions(renderer));
   const [failed, setFailed] = useState<string | null>(null);
   const result = useVegaEmbed({ ref, spec, options: { ...options, renderer }, onEmbed: hideMarks, onError: (e) => setFailed(e instanceof Error ? e.message : String(e)) });
 
   async function download(type: 'svg' | 'png') {
-    if (!result || !downloadName) return;
-    const url = await result.view.toImageURL(type, type === 'png' ? 2 : 1);
-    const a = document.createElement('a');
-    a.href = url;
-    a.download = `${downloadName}.${type}`;
-    a.click();
+    if (result && downloadName) await saveFigure(result.view, downloadName, type);
   }
 
   return (

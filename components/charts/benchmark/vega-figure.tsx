@@ -5,7 +5,7 @@ import type { Result } from 'vega-embed';
 import type { TopLevelSpec } from 'vega-lite';
 import { buttonClass } from '@/components/ui/button';
 import type { FigureText } from './figure-text';
-import { CSP_SAFE_VEGA } from '../vega-options';
+import { embedOptions, saveFigure } from '../vega-options';
 import { FOCUS_PARAM } from './specs';
 
 /**
@@ -41,7 +41,7 @@ export function VegaFigure({
   const result = useVegaEmbed({
     ref,
     spec,
-    options: { renderer, actions: false, tooltip: { theme: 'light' }, ...CSP_SAFE_VEGA },
+    options: embedOptions(renderer),
     onEmbed: (r: Result) => {
       hideMarks(r);
       r.view.addEventListener('click', (_event, item) => {
@@ -85,14 +85,7 @@ export function VegaFigure({
   }
 
   async function download(type: 'svg' | 'png') {
-    if (!result) return;
-    const url = await result.view.toImageURL(type, type === 'png' ? 2 : 1);
-    const a = document.createElement('a');
-    a.href = url;
-    a.download = `${fileName}.${type}`;
-    document.body.appendChild(a);
-    a.click();
-    a.remove();
+    if (result) await saveFigure(result.view, fileName, type);
   }
 
   const hint = nav.length ? `Arrow keys move between the ${nav.length} points${onPick ? ', Enter opens a pair' : ''}.` : '';
