@@ -47,6 +47,9 @@ export default async function setup(project: TestProject) {
     MAIL_WORKER_INTERVAL_MS: '300',
     // alerts wait this long after a benchmark's latest revision (default 3 minutes)
     ALERT_DEBOUNCE_MS: '1500',
+    // benchmarks wait this long after a change before recomputing: longer than the page's status poll (1.5 s),
+    // so the "Recomputing…" state is always seen by at least one poll
+    RECOMPUTE_DEBOUNCE_MS: '3000',
     // the browser signs in and up many times within a minute
     AUTH_RATE_LIMIT_MAX: '1000',
     AUTH_ACCOUNT_RATE_LIMIT_MAX: '1000',

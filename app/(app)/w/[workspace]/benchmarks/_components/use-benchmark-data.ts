@@ -29,12 +29,17 @@ export function usePairs(workspaceId: string, benchmarkId: string, revision: num
 export const STATUS_POLL_BUSY_MS = 1000;
 export const STATUS_POLL_IDLE_MS = 1500;
 
-/** The benchmark's recomputation state and latest revision (a few bytes), polled while the page is visible. */
+/**
+ * The benchmark's recomputation state and latest revision (a few bytes), polled
+ * in a background tab too: a user who imports in another tab comes back to the
+ * new revision, not to a stale page.
+ */
 export function useRecomputeStatus(workspaceId: string, benchmarkId: string, computing: boolean) {
   return useQuery({
     queryKey: ['benchmark-status', workspaceId, benchmarkId],
     queryFn: () => getJson<RecomputeStatus>(`${benchmarkApi(workspaceId, benchmarkId)}/status`),
     staleTime: 0,
     refetchInterval: (query) => ((query.state.data ? query.state.data.computing : computing) ? STATUS_POLL_BUSY_MS : STATUS_POLL_IDLE_MS),
+    refetchIntervalInBackground: true,
   });
 }
