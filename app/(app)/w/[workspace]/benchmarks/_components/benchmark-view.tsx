@@ -1,8 +1,9 @@
+import { Suspense } from 'react';
 import Link from 'next/link';
 import type { BenchmarkRecord } from '@/db/queries/benchmarks';
 import { scopeLabels } from '@/db/queries/benchmarks';
-import { importsByIds, listRevisionHistory, materialNames, pairLookups, type RevisionView } from '@/db/queries/revisions';
-import { decisionNames, listDecisions, listPins } from '@/db/queries/decisions';
+import { materialNames, pairLookups, type RevisionView } from '@/db/queries/revisions';
+import { listDecisions, listPins } from '@/db/queries/decisions';
 import { describeScope, techniqueName } from '@/lib/benchmark/describe';
 import { howToCite } from '@/lib/benchmark/citation';
 import { RevisionSources } from '@/components/citations/revision-sources';
@@ -18,7 +19,7 @@ import { ENTROPY_CAUTION } from '@/lib/benchmark/compute';
 import { BreakdownTable } from './breakdown-table';
 import { BenchmarkPlots } from './benchmark-plots';
 import { MethodComparison } from './method-comparison';
-import { RevisionHistory } from './revision-history';
+import { RevisionHistoryLoading, RevisionHistoryPanel } from './revision-history-panel';
 import { PairDecisionForm, RecomputeButton, RevertForm } from './decision-forms';
 import { RecomputeWatcher } from './recompute-watcher';
 import { QueryProvider } from './query-provider';
@@ -113,9 +114,8 @@ export async function BenchmarkView({
   }
 
   const snap = rev.statistics;
-  const [lookups, history, decisions, pins] = await Promise.all([
+  const [lookups, decisions, pins] = await Promise.all([
     pairLookups(workspace.id, snap),
-    listRevisionHistory(workspace.id, bm.id),
     listDecisions(workspace.id, bm.id),
     listPins(workspace.id),
   ]);
@@ -126,10 +126,6 @@ export async function BenchmarkView({
     snap.quality.map((q) => q.materialId).filter((id) => !lookups.materials.has(id)),
   );
   const materialName = (id: string) => lookups.materials.get(id)?.name ?? extraNames.get(id) ?? id.slice(0, 8);
-  const importIds = [...new Set(history.flatMap((h) => h.cause?.imports.map((i) => i.id) ?? []))];
-  const decisionIds = [...new Set(history.flatMap((h) => [...(h.cause?.decisions.added ?? []), ...(h.cause?.decisions.reverted ?? [])]))];
-  const [importRows, decisionMap] = await Promise.all([importsByIds(workspace.id, importIds), decisionNames(workspace.id, decisionIds)]);
-  const importMap = new Map(importRows.map((r) => [r.id, { fileName: r.fileName, by: r.by, status: r.status }]));
 
   const pairByKey = new Map(snap.pairs.map((p) => [p.key, p]));
   const excludedCount = snap.pairs.filter((p) => p.excluded !== null).length;
@@ -400,9 +396,9 @@ export async function BenchmarkView({
       </div>
 
       <div id="revision-history">
-        <Panel title="Revision history">
-          <RevisionHistory history={history} base={base} current={rev.number} imports={importMap} decisions={decisionMap} />
-        </Panel>
+        <Suspense fallback={<RevisionHistoryLoading />}>
+          <RevisionHistoryPanel workspaceId={workspace.id} benchmarkId={bm.id} base={base} current={rev.number} />
+        </Suspense>
       </div>
 
       <Panel title="Cite and download">
