@@ -2,8 +2,7 @@ import 'server-only';
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { calculation, importBatch, material } from '@/db/schema';
-import { writeAudit } from '@/db/queries/audit';
-import { insertImportBatch, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
+import { insertImportBatch, writeImportAudit, type ImportActor, type ImportOutcome } from '@/db/queries/imports';
 import { INSERT_CHUNK_ROWS, rowHash, type DuplicateRow } from '@/lib/import/row-validator';
 import type { ComputedDosValue } from '@/lib/import/dos-compute';
 import { MAX_REPORTED_ERRORS } from '@/lib/import/errors';
@@ -100,13 +99,11 @@ export async function storeDosValues(args: {
     }
 
     await tx.update(importBatch).set({ insertedCount, duplicateCount }).where(eq(importBatch.id, importId));
-    await writeAudit({
+    await writeImportAudit(
       workspaceId,
       actor,
-      action: 'import',
-      entityType: 'import',
-      entityId: importId,
-      after: {
+      importId,
+      {
         kind: 'dos',
         fileName: file.fileName,
         sha256: file.sha256,
@@ -117,7 +114,8 @@ export async function storeDosValues(args: {
         via: file.via,
         ...args.auditDetails,
       },
-    }, tx);
+      tx,
+    );
   });
 
   return { importId, insertedCount, duplicateCount, duplicates };

@@ -168,6 +168,11 @@ function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, co
 
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
+/** The audit row of an import: what the file was and what it did (counts, channel, and any kind-specific facts). */
+export async function writeImportAudit(workspaceId: string, actor: ImportActor, importId: string, after: Record<string, unknown>, tx: Executor): Promise<void> {
+  await writeAudit({ workspaceId, actor, action: 'import', entityType: 'import', entityId: importId, after }, tx);
+}
+
 /** A value import in progress: one write transaction from its import row to its audit row. */
 export interface ValueImportWriter {
   importId: string;
@@ -229,14 +234,7 @@ export async function openValueImport(workspaceId: string, actor: ImportActor, f
     async commit(counts) {
       try {
         await tx.update(importBatch).set(counts).where(eq(importBatch.id, importId));
-        await writeAudit({
-          workspaceId,
-          actor,
-          action: 'import',
-          entityType: 'import',
-          entityId: importId,
-          after: { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, ...counts, via: file.via },
-        }, tx);
+        await writeImportAudit(workspaceId, actor, importId, { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, ...counts, via: file.via }, tx);
         await raw.commit();
       } catch (e) {
         await raw.rollback().catch(() => undefined);
