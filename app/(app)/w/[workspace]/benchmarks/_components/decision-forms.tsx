@@ -40,7 +40,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
         </button>
       </div>
       {open === 'decide' ? (
-        <form action={decide} className="absolute right-0 z-30 mt-1 w-[30rem] max-w-[calc(100vw-2rem)] space-y-1.5 rounded-md border border-rule-strong bg-panel p-3 text-left shadow-lg">
+        <form action={decide} className="absolute right-0 z-50 mt-1 w-[30rem] max-w-[calc(100vw-2rem)] space-y-1.5 rounded-md border border-rule-strong bg-panel p-3 text-left shadow-lg">
           <input type="hidden" name="workspaceId" value={pair.workspaceId} />
           <input type="hidden" name="benchmarkId" value={pair.benchmarkId} />
           <input type="hidden" name="measurementId" value={pair.measurementId} />
@@ -57,7 +57,7 @@ export function PairDecisionForm({ pair }: { pair: PairRef }) {
         </form>
       ) : null}
       {open === 'pin' ? (
-        <form action={pin} className="absolute right-0 z-30 mt-1 w-[30rem] max-w-[calc(100vw-2rem)] space-y-1.5 rounded-md border border-rule-strong bg-panel p-3 text-left shadow-lg">
+        <form action={pin} className="absolute right-0 z-50 mt-1 w-[30rem] max-w-[calc(100vw-2rem)] space-y-1.5 rounded-md border border-rule-strong bg-panel p-3 text-left shadow-lg">
           <input type="hidden" name="workspaceId" value={pair.workspaceId} />
           <input type="hidden" name="benchmarkId" value={pair.benchmarkId} />
           <input type="hidden" name="measurementId" value={pair.measurementId} />

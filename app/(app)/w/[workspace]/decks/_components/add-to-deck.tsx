@@ -78,7 +78,7 @@ export function AddToDeck({
           id={`${id}-dialog`}
           role="dialog"
           aria-label="Add this view to a deck"
-          className="absolute right-0 z-30 mt-1 w-80 space-y-2 rounded-md border border-rule-strong bg-panel p-3 text-sm shadow-lg"
+          className="absolute right-0 z-50 mt-1 w-80 max-w-[calc(100vw-2rem)] space-y-2 rounded-md border border-rule-strong bg-panel p-3 text-sm shadow-lg"
           onKeyDown={(e) => {
             if (e.key === 'Escape') close();
           }}
