@@ -8,6 +8,9 @@ import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
 import { VIEW_KIND_LABELS, type ViewFilters, type ViewKind } from '@/lib/decks/view-kinds';
 
+/** w-80 */
+const DIALOG_WIDTH_PX = 320;
+
 type DeckOption = { id: string; title: string; views: number };
 
 /**
@@ -32,6 +35,9 @@ export function AddToDeck({
 }) {
   const id = useId();
   const [open, setOpen] = useState(false);
+  // The dialog opens leftwards from its button; near the left edge of the page it opens rightwards instead,
+  // or its left part would be clipped by the page and lie under the workspace menu.
+  const [opensRight, setOpensRight] = useState(false);
   const [decks, setDecks] = useState<{ list: DeckOption[]; canCreate: boolean } | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [deckId, setDeckId] = useState('');
@@ -70,7 +76,12 @@ export function AddToDeck({
 
   return (
     <div className="relative inline-block text-left">
-      <button ref={trigger} type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open} aria-controls={`${id}-dialog`} onClick={() => setOpen(!open)}>
+      <button ref={trigger} type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open} aria-controls={`${id}-dialog`} onClick={() => {
+          const button = trigger.current?.getBoundingClientRect();
+          const page = trigger.current?.closest('main')?.getBoundingClientRect();
+          setOpensRight(Boolean(button && button.right - DIALOG_WIDTH_PX < (page?.left ?? 0) + 8));
+          setOpen(!open);
+        }}>
         Add to deck
       </button>
       {open ? (
@@ -78,7 +89,7 @@ export function AddToDeck({
           id={`${id}-dialog`}
           role="dialog"
           aria-label="Add this view to a deck"
-          className="absolute right-0 z-50 mt-1 w-80 max-w-[calc(100vw-2rem)] space-y-2 rounded-md border border-rule-strong bg-panel p-3 text-sm shadow-lg"
+          className={`absolute ${opensRight ? 'left-0' : 'right-0'} z-50 mt-1 w-80 max-w-[calc(100vw-2rem)] space-y-2 rounded-md border border-rule-strong bg-panel p-3 text-sm shadow-lg`}
           onKeyDown={(e) => {
             if (e.key === 'Escape') close();
           }}
