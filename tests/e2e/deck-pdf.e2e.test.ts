@@ -54,7 +54,7 @@ describe('deck in the presenter and as a PDF', () => {
     await page.getByLabel('Outlier rule').selectOption('relative');
     await page.getByLabel('Outlier threshold').fill('0.01');
     await page.getByRole('button', { name: 'Create benchmark' }).click();
-    await page.waitForURL(/\/benchmarks\/[^/]+$/);
+    await page.waitForURL((url) => /\/benchmarks\/[^/]+$/.test(url.pathname) && !url.pathname.endsWith('/new'));
     await expect.poll(async () => (await page.getByTestId('leaderboard').count()) || (await page.reload(), 0), { timeout: 60_000, interval: 2000 }).toBe(1);
     deckId = await addViewToDeck(page, panel(page, /^Leaderboard$/), 'leaderboard', { newTitle: deckTitle });
     const plots = panel(page, /^Plots$/);
