@@ -56,6 +56,9 @@ export function checkFile(path: string, options: { foreignKeys?: boolean } = {})
         ? []
         : rows<{ table: string; rowid: number | null; parent: string }>(db, 'PRAGMA foreign_key_check').map((r) => ({ table: r.table, rowid: r.rowid, parent: r.parent }));
     return { ok: integrity.length === 1 && integrity[0] === 'ok' && foreignKeys.length === 0, integrity, foreignKeys };
+  } catch (e) {
+    // Damage bad enough that the check itself stops ("database disk image is malformed") is a failed check.
+    return { ok: false, integrity: [(e as Error).message], foreignKeys: [] };
   } finally {
     db.close();
   }
