@@ -19,7 +19,7 @@ export interface ImportActor {
 }
 
 export interface ImportFileFacts {
-  kind: ImportableKind;
+  kind: ImportBatch['kind'];
   fileName: string | null;
   sha256: string;
   byteCount: number;
@@ -36,6 +36,9 @@ export interface ImportOutcome {
   /** Calculation imports: incomplete mode sets and sets without acoustic marks; imported all the same. */
   warnings?: ImportWarning[];
   warningCount?: number;
+  /** Calculation imports with createMissing: the materials and methods they created. */
+  createdMaterials?: number;
+  createdMethods?: number;
 }
 
 /** The handles an import (CSV, JSON rows or DOS) may use, for validation on the server and in the browser. */
@@ -178,8 +181,10 @@ export interface ValueImportWriter {
   importId: string;
   /** Stores the rows not identical to a live row of the workspace (earlier chunks of this file included); returns the skipped ones. */
   insertValueRows(rows: readonly PendingRow[]): Promise<{ inserted: number; identical: Array<{ row: number; sameFile: boolean }> }>;
-  /** Records the counts and the audit row, and commits. */
-  commit(counts: { rowCount: number; insertedCount: number; duplicateCount: number }): Promise<void>;
+  /** Runs more writes inside the import's transaction (the catalogue records a createMissing import creates). */
+  within<T>(fn: (raw: Transaction, tx: Executor) => Promise<T>): Promise<T>;
+  /** Records the counts and the audit row (with `auditExtra`), and commits. */
+  commit(counts: { rowCount: number; insertedCount: number; duplicateCount: number }, auditExtra?: Record<string, unknown>): Promise<void>;
   /** Rolls everything back (nothing of the import stays). */
   abort(): Promise<void>;
 }
@@ -191,7 +196,7 @@ export interface ValueImportWriter {
  * chunks; any failure before commit() rolls everything back.
  */
 export async function openValueImport(workspaceId: string, actor: ImportActor, file: ImportFileFacts): Promise<ValueImportWriter> {
-  const { table: tableName, columns } = valueTableOf(file.kind);
+  const { table: tableName, columns } = valueTableOf(file.kind as ImportableKind);
   const raw: Transaction = await getClient().transaction('write');
   const tx = createDb(raw as unknown as Client);
   const importId = crypto.randomUUID();
@@ -225,16 +230,19 @@ export async function openValueImport(workspaceId: string, actor: ImportActor, f
       }
       if (fresh.length) {
         const values: InValue[] = [];
-        for (const p of fresh) rowArgs(file.kind, workspaceId, importId, actor.userId, p, values);
+        for (const p of fresh) rowArgs(file.kind as ImportableKind, workspaceId, importId, actor.userId, p, values);
         await raw.execute({ sql: multiRowInsertSql(tableName, columns, fresh.length), args: values });
       }
       await yieldToEventLoop();
       return { inserted: fresh.length, identical };
     },
-    async commit(counts) {
+    within(fn) {
+      return fn(raw, tx);
+    },
+    async commit(counts, auditExtra) {
       try {
         await tx.update(importBatch).set(counts).where(eq(importBatch.id, importId));
-        await writeImportAudit(workspaceId, actor, importId, { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, ...counts, via: file.via }, tx);
+        await writeImportAudit(workspaceId, actor, importId, { kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, ...counts, via: file.via, ...auditExtra }, tx);
         await raw.commit();
       } catch (e) {
         await raw.rollback().catch(() => undefined);
@@ -261,7 +269,9 @@ export async function undoImport(
   actorUserId: string,
   reason: string,
   refusal: (batch: ImportBatch) => string | null = () => null,
-): Promise<{ retracted: number }> {
+  /** More work in the same transaction after the values are retracted (the catalogue records the import created or updated). */
+  alsoUndo?: (tx: Executor) => Promise<Record<string, number>>,
+): Promise<{ retracted: number } & Record<string, number>> {
   return db.transaction(async (tx) => {
     const [batch] = await tx
       .select()
@@ -279,6 +289,7 @@ export async function undoImport(
       .set({ retractedAt: new Date(now), retractedBy: actorUserId, retractionReason: `Import undone: ${reason}` })
       .where(and(eq(target.workspaceId, workspaceId), eq(target.importId, importId), isNull(target.retractedAt)));
     const retracted = result.rowsAffected;
+    const more = alsoUndo ? await alsoUndo(tx) : {};
     await tx
       .update(importBatch)
       .set({ status: 'undone', undoneAt: new Date(now), undoneBy: actorUserId, undoReason: reason })
@@ -290,10 +301,10 @@ export async function undoImport(
       entityType: 'import',
       entityId: importId,
       before: { status: 'committed' },
-      after: { status: 'undone', retracted },
+      after: { status: 'undone', retracted, ...more },
       reason,
     }, tx);
-    return { retracted };
+    return { ...more, retracted };
   });
 }
 

@@ -25,6 +25,8 @@ export const material = sqliteTable(
     crystalSystem: text(),
     atomsInCell: integer(),
     externalId: text(),
+    /** The catalogue or calculation import (import_batch.id) that created the record; null when typed in. Undo of that import retracts it. */
+    importId: text(),
     createdBy: text().references(() => user.id),
     createdAt: createdAt(),
     updatedAt: timestamp(),
@@ -33,6 +35,7 @@ export const material = sqliteTable(
   (t) => [
     uniqueIndex('material_name_uq').on(t.workspaceId, t.name).where(sql`retracted_at is null`),
     index('material_formula_idx').on(t.workspaceId, t.reducedFormula),
+    index('material_import_idx').on(t.workspaceId, t.importId),
   ],
 );
 
@@ -85,6 +88,8 @@ export const source = sqliteTable(
     operator: text(),
     recordedOn: text(),
     note: text(),
+    /** The catalogue or calculation import (import_batch.id) that created the record; null when typed in. Undo of that import retracts it. */
+    importId: text(),
     /** What keeps the source from being complete (lib/citations/completeness.ts), derived on every write; [] when complete. */
     gaps: text({ mode: 'json' }).$type<string[]>().notNull().default(sql`'[]'`),
     createdBy: text().references(() => user.id),
@@ -95,6 +100,7 @@ export const source = sqliteTable(
   (t) => [
     uniqueIndex('source_cite_key_uq').on(t.workspaceId, t.citeKey),
     index('source_doi_idx').on(t.workspaceId, t.doi),
+    index('source_import_idx').on(t.workspaceId, t.importId),
   ],
 );
 
@@ -117,12 +123,14 @@ export const method = sqliteTable(
     approach: text({ enum: APPROACHES }),
     nonAnalyticCorrection: integer({ mode: 'boolean' }),
     notes: text(),
+    /** The catalogue or calculation import (import_batch.id) that created the record; null when typed in. Undo of that import retracts it. */
+    importId: text(),
     createdBy: text().references(() => user.id),
     createdAt: createdAt(),
     updatedAt: timestamp(),
     ...retraction(),
   },
-  (t) => [uniqueIndex('method_label_uq').on(t.workspaceId, t.label)],
+  (t) => [uniqueIndex('method_label_uq').on(t.workspaceId, t.label), index('method_import_idx').on(t.workspaceId, t.importId)],
 );
 
 export type Material = typeof material.$inferSelect;

@@ -3,6 +3,7 @@ import {
   calculationSchema,
   importRequestSchema,
   importResultSchema,
+  catalogImportResultSchema,
   importSummarySchema,
   materialSchema,
   materialSummarySchema,
@@ -79,6 +80,7 @@ export function buildOpenApiDocument(serverUrl: string): JsonSchema {
   const components: Record<string, JsonSchema> = {
     ImportRequest: jsonSchema(importRequestSchema, 'input'),
     ImportResult: jsonSchema(importResultSchema, 'output'),
+    CatalogImportResult: jsonSchema(catalogImportResultSchema, 'output'),
     ImportSummary: jsonSchema(importSummarySchema, 'output'),
     ImportSummaryPage: jsonSchema(pageOf(importSummarySchema, 'ImportSummaryPage'), 'output'),
     Problem: jsonSchema(problemSchema, 'output'),
@@ -110,17 +112,35 @@ export function buildOpenApiDocument(serverUrl: string): JsonSchema {
       '/imports': {
         post: {
           tags: ['Imports'],
-          summary: 'Import measurements or calculations (all rows or none)',
+          summary: 'Import measurements, calculations, or catalogue records (materials, methods, sources) in bulk (all rows or none)',
           description:
             'JSON rows or a CSV file (the template’s columns; UTF-8; comma, semicolon or tab). The same body twice is refused (409). ' +
-            'Rows identical to existing ones are skipped and listed in `duplicates`.',
+            'Rows identical to existing ones are skipped and listed in `duplicates`. ' +
+            'Catalogue kinds (materials, methods, sources; sources also as a BibTeX, RIS or CSL-JSON body) match stored records by identity ' +
+            '(material: external identifier, else reduced formula + space group + name; method: label; source: cite key): identical rows are listed as `unchanged`, ' +
+            'changed rows are refused unless `onChange=update`; an import whose rows are all unchanged writes nothing and answers 200 with `importId: null` (CatalogImportResult). ' +
+            'Calculations with `createMissing=true` create the materials and methods they name from their material_… and method_… columns.',
           parameters: [
             {
               name: 'kind',
               in: 'query',
               required: false,
               description: 'Required with text/csv. `dos`: a phonon density of states (columns material, method, source, unit, frequency, density) from which entropies and heat capacities are computed and stored as calculations.',
-              schema: { type: 'string', enum: ['measurements', 'calculations', 'dos'] },
+              schema: { type: 'string', enum: ['measurements', 'calculations', 'dos', 'materials', 'methods', 'sources'] },
+            },
+            {
+              name: 'onChange',
+              in: 'query',
+              required: false,
+              description: 'Catalogue kinds: `refuse` (default) a row whose stored record has other values, or `update` it with an audit entry (curator or owner). In a JSON body: `onChange`.',
+              schema: { type: 'string', enum: ['refuse', 'update'] },
+            },
+            {
+              name: 'createMissing',
+              in: 'query',
+              required: false,
+              description: 'kind=calculations: `true` creates missing materials and methods in the same transaction (needs materials:create and methods:create; 403 without). In a JSON body: `createMissing`.',
+              schema: { type: 'string', enum: ['true', 'false'] },
             },
             {
               name: 'temperatures',
@@ -136,10 +156,12 @@ export function buildOpenApiDocument(serverUrl: string): JsonSchema {
             content: {
               'application/json': { schema: ref('ImportRequest') },
               'text/csv': { schema: { type: 'string', contentMediaType: 'text/csv' } },
+              'application/x-bibtex': { schema: { type: 'string', description: 'kind=sources: BibTeX (RIS and CSL-JSON are recognised too).' } },
             },
           },
           responses: {
-            '201': { description: 'Imported', content: { 'application/json': { schema: ref('ImportResult') } } },
+            '201': { description: 'Imported', content: { 'application/json': { schema: { oneOf: [ref('ImportResult'), ref('CatalogImportResult')] } } } },
+            '200': { description: 'Catalogue kinds: every row unchanged, nothing written', content: { 'application/json': { schema: ref('CatalogImportResult') } } },
             ...problems(400, 401, 403, 409, 413, 422),
           },
         },

@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { APPROACHES, SOURCE_KINDS } from '@/lib/record-kinds';
 import { GAP_CODES } from '@/lib/citations/completeness';
-import { CALCULATION_COLUMNS, MEASUREMENT_COLUMNS, type ColumnDef } from '@/lib/import/columns';
+import { CALCULATION_CATALOG_COLUMNS, CALCULATION_COLUMNS, MEASUREMENT_COLUMNS, type ColumnDef } from '@/lib/import/columns';
+import { MATERIAL_IMPORT_COLUMNS, METHOD_IMPORT_COLUMNS, SOURCE_IMPORT_COLUMNS } from '@/lib/import/catalog-columns';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 import { ACTIVITY_VALUES, BRANCH_VALUES, SAMPLE_FORM_VALUES, TECHNIQUE_VALUES } from '@/lib/import/vocabulary';
 
@@ -18,7 +19,19 @@ function rowSchema(columns: readonly ColumnDef[], title: string) {
 }
 
 export const measurementRowSchema = rowSchema(MEASUREMENT_COLUMNS, 'MeasurementRow');
-export const calculationRowSchema = rowSchema(CALCULATION_COLUMNS, 'CalculationRow');
+export const calculationRowSchema = rowSchema([...CALCULATION_COLUMNS, ...CALCULATION_CATALOG_COLUMNS], 'CalculationRow');
+export const materialImportRowSchema = rowSchema(MATERIAL_IMPORT_COLUMNS, 'MaterialImportRow');
+export const methodImportRowSchema = rowSchema(METHOD_IMPORT_COLUMNS, 'MethodImportRow');
+export const sourceImportRowSchema = rowSchema(SOURCE_IMPORT_COLUMNS, 'SourceImportRow');
+
+const onChangeSchema = z
+  .enum(['refuse', 'update'])
+  .optional()
+  .meta({ description: 'Catalogue kinds: a row whose stored record has other values is refused (default) or, with `update` (curator or owner), updates it with an audit entry.' });
+const createMissingSchema = z
+  .boolean()
+  .optional()
+  .meta({ description: 'Calculations: create the materials and methods the rows name but the workspace lacks, from their material_… and method_… columns (needs materials:create and methods:create). Undo retracts them.' });
 
 const defaultUnitsSchema = z
   .object({ frequency: z.enum(FREQUENCY_UNITS as [string, ...string[]]).optional(), entropy: z.enum(ENTROPY_UNITS as [string, ...string[]]).optional() })
@@ -38,14 +51,20 @@ export const importRequestSchema = z
       kind: z.literal('calculations'),
       fileName: z.string().max(255).optional(),
       units: defaultUnitsSchema.optional(),
+      createMissing: createMissingSchema,
       rows: z.array(calculationRowSchema).min(1).max(MAX_JSON_ROWS),
     }),
+    z.object({ kind: z.literal('materials'), fileName: z.string().max(255).optional(), onChange: onChangeSchema, rows: z.array(materialImportRowSchema).min(1).max(MAX_JSON_ROWS) }),
+    z.object({ kind: z.literal('methods'), fileName: z.string().max(255).optional(), onChange: onChangeSchema, rows: z.array(methodImportRowSchema).min(1).max(MAX_JSON_ROWS) }),
+    z.object({ kind: z.literal('sources'), fileName: z.string().max(255).optional(), onChange: onChangeSchema, rows: z.array(sourceImportRowSchema).min(1).max(MAX_JSON_ROWS) }),
   ])
   .meta({ title: 'ImportRequest' });
 
 export const importKindQuerySchema = z.object({
-  kind: z.enum(['measurements', 'calculations'], 'Give ?kind=measurements or ?kind=calculations.'),
+  kind: z.enum(['measurements', 'calculations', 'materials', 'methods', 'sources'], 'Give ?kind=measurements, calculations, materials, methods or sources.'),
   fileName: z.string().max(255).optional(),
+  onChange: z.enum(['refuse', 'update'], 'onChange is refuse or update.').optional(),
+  createMissing: z.enum(['true', 'false'], 'createMissing is true or false.').optional(),
 });
 
 export const rowErrorSchema = z
@@ -64,8 +83,25 @@ export const importResultSchema = z
     insertedCount: z.int(),
     duplicateCount: z.int(),
     duplicates: z.array(z.object({ row: z.int(), reason: z.string() })),
+    createdMaterials: z.int().optional().meta({ description: 'createMissing: materials created.' }),
+    createdMethods: z.int().optional().meta({ description: 'createMissing: methods created.' }),
   })
   .meta({ title: 'ImportResult' });
+
+export const catalogImportResultSchema = z
+  .object({
+    importId: z.string().nullable().meta({ description: 'null when every row was unchanged: nothing was written (200).' }),
+    kind: z.enum(['materials', 'methods', 'sources']),
+    rowCount: z.int(),
+    createdCount: z.int(),
+    updatedCount: z.int(),
+    unchangedCount: z.int(),
+    unchanged: z.array(z.object({ row: z.int(), handle: z.string() })),
+    insertedCount: z.int(),
+    duplicateCount: z.int(),
+    duplicates: z.array(z.object({ row: z.int(), reason: z.string() })),
+  })
+  .meta({ title: 'CatalogImportResult' });
 
 export const problemSchema = z
   .object({

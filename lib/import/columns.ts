@@ -1,9 +1,13 @@
 import { ACTIVITY_VALUES as ACTIVITIES, BRANCH_VALUES as BRANCHES, SAMPLE_FORM_VALUES as SAMPLE_FORMS, TECHNIQUE_VALUES as TECHNIQUES } from './vocabulary';
+import { catalogColumnsOf, isCatalogKind, type CatalogKind } from './catalog-columns';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 
 /** What an import file holds; each kind has its own template. */
 export const IMPORTABLE_KINDS = ['measurements', 'calculations'] as const;
 export type ImportableKind = (typeof IMPORTABLE_KINDS)[number];
+
+/** Every kind read as a table of rows: values, and the catalogue kinds (materials, methods, sources). */
+export type TableKind = ImportableKind | CatalogKind;
 
 /** Quantities an import may carry for now (the others arrive with their own checks). */
 export const IMPORT_QUANTITIES = ['frequency', 'entropy'] as const;
@@ -70,8 +74,36 @@ export const CALCULATION_COLUMNS: readonly ColumnDef[] = [
   shared.notes,
 ];
 
-export function columnsOf(kind: ImportableKind): readonly ColumnDef[] {
-  return kind === 'measurements' ? MEASUREMENT_COLUMNS : CALCULATION_COLUMNS;
+/**
+ * Optional catalogue columns of a calculation import: with createMissing, a row whose
+ * material or method is not in the workspace creates it from these (lib/import/create-missing.ts).
+ */
+export const CALCULATION_CATALOG_COLUMNS: readonly ColumnDef[] = [
+  col('material_formula', false, 'With createMissing: formula of a new material, e.g. "GaN".'),
+  col('material_space_group', false, 'With createMissing: space-group number 1–230 of a new material.'),
+  col('material_atoms_in_cell', false, 'With createMissing: atoms in the primitive cell of a new material (a whole multiple of the atoms per formula unit).'),
+  col('material_display_name', false, 'With createMissing: display name of a new material.'),
+  col('material_external_id', false, 'With createMissing: external structure identifier of a new material.'),
+  col('material_tags', false, 'With createMissing: tags of a new material, separated by commas.'),
+  col('method_functional', false, 'With createMissing: functional of a new method, e.g. "PBEsol".'),
+  col('method_dispersion', false, 'With createMissing: dispersion correction of a new method.'),
+  col('method_pseudopotential', false, 'With createMissing: pseudopotential family of a new method.'),
+  col('method_cutoff_eV', false, 'With createMissing: plane-wave cutoff of a new method in eV, > 0.'),
+  col('method_k_grid', false, 'With createMissing: k-point grid of a new method, e.g. "8x8x8".'),
+  col('method_q_grid', false, 'With createMissing: q-point grid of a new method, e.g. "4x4x4".'),
+  col('method_smearing', false, 'With createMissing: smearing of a new method.'),
+  col('method_approach', false, 'With createMissing: perturbation | finite-displacement.'),
+  col('method_lo_to', false, 'With createMissing: LO–TO (non-analytic) correction of a new method, yes | no.'),
+];
+
+export function columnsOf(kind: TableKind): readonly ColumnDef[] {
+  if (isCatalogKind(kind)) return catalogColumnsOf(kind);
+  return kind === 'measurements' ? MEASUREMENT_COLUMNS : [...CALCULATION_COLUMNS, ...CALCULATION_CATALOG_COLUMNS];
+}
+
+/** Columns of the downloadable template (the calculation template leaves out the createMissing columns). */
+export function templateColumnsOf(kind: TableKind): readonly ColumnDef[] {
+  return kind === 'calculations' ? CALCULATION_COLUMNS : columnsOf(kind);
 }
 
 export function isImportableKind(value: unknown): value is ImportableKind {

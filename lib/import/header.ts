@@ -1,4 +1,4 @@
-import { columnsOf, type ImportableKind } from './columns';
+import { columnsOf, type TableKind } from './columns';
 import { excerpt, type RowError } from './errors';
 
 /** Column key → header text in the file; a key left out (or null) is not imported. */
@@ -25,7 +25,7 @@ export function normalizeHeader(header: string): string {
 }
 
 /** Suggests, for each column of the kind, the file header it most likely is. */
-export function autoMapColumns(kind: ImportableKind, headers: readonly string[]): ColumnMapping {
+export function autoMapColumns(kind: TableKind, headers: readonly string[]): ColumnMapping {
   const byNormalized = new Map<string, string>();
   for (const h of headers) {
     const n = normalizeHeader(h);
@@ -48,7 +48,7 @@ export function autoMapColumns(kind: ImportableKind, headers: readonly string[])
  * file lacks, one file column used twice, and missing required columns. Header errors
  * are reported on row 1.
  */
-export function resolveHeader(kind: ImportableKind, headers: readonly string[], requested?: ColumnMapping): ResolvedHeader {
+export function resolveHeader(kind: TableKind, headers: readonly string[], requested?: ColumnMapping): ResolvedHeader {
   const errors: RowError[] = [];
   const firstIndex = new Map<string, number>();
   headers.forEach((h, i) => {

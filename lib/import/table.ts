@@ -1,4 +1,4 @@
-import { columnsOf, type ImportableKind } from './columns';
+import { columnsOf, type TableKind } from './columns';
 import { CsvReader, isBlankRecord, type CsvRecord } from './csv-reader';
 import { StrictUtf8Decoder } from './decode';
 import { delimiterName, detectDelimiter, hasHeaderLine, type Delimiter } from './delimiter';
@@ -38,7 +38,7 @@ function overlongRecord(row: number, column: string | null, fieldChars: number, 
  * detected from the header line, header checked and mapped. Refuses the file
  * (an unprocessable AppError) when any of that fails; row problems come out with the rows.
  */
-export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: ImportableKind, mapping?: ColumnMapping): Promise<ImportTable> {
+export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: TableKind, mapping?: ColumnMapping): Promise<ImportTable> {
   const decoder = new StrictUtf8Decoder();
   const iterator = chunks[Symbol.asyncIterator]();
   let head = '';
@@ -141,7 +141,7 @@ function cellText(value: unknown): string | undefined {
 }
 
 /** Rows given as JSON objects keyed by our column names (see the template README). */
-export function jsonTable(kind: ImportableKind, rows: ReadonlyArray<Record<string, unknown>>, batchSize = 1000): ImportTable {
+export function jsonTable(kind: TableKind, rows: ReadonlyArray<Record<string, unknown>>, batchSize = 1000): ImportTable {
   if (rows.length === 0) throw importRefusal('The request has no rows.', [{ row: 0, column: null, reason: 'The request has no rows.' }]);
   const known = new Set(columnsOf(kind).map((c) => c.key));
   async function* batches(): AsyncGenerator<TableRow[]> {

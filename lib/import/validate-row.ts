@@ -2,6 +2,7 @@ import { convertEntropy, convertFrequency, type EntropyUnit, type FrequencyUnit 
 import { irrepBranch, normalizeIrrep } from '@/lib/science/symmetry';
 import { IMPORT_QUANTITIES, type ImportableKind, type ImportQuantity } from './columns';
 import { excerpt, type RowError } from './errors';
+import type { MissingCatalog } from './create-missing';
 import { notANumberReason, parseDecimal } from './numbers';
 import { parseUnit, unitsOf, type DefaultUnits, type ImportUnit } from './units';
 import {
@@ -56,6 +57,8 @@ export interface RowContext {
   units?: DefaultUnits;
   /** Column key → the name to show in errors (the file's header text). */
   columnName: (key: string) => string;
+  /** Calculations with createMissing: resolves (creates) the materials and methods the workspace lacks. */
+  missing?: MissingCatalog;
 }
 
 /** Reads one cell of the current row by column key; undefined when the column is absent. */
@@ -124,8 +127,9 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
 
   const refs = ctx.references;
   const materialName = required('material');
-  const material = materialName === null ? undefined : refs.materials.get(materialName);
-  if (materialName !== null && !material) fail('material', `Unknown material "${excerpt(materialName)}".${suggest(refs.materials.keys(), materialName)}`, materialName);
+  let material = materialName === null ? undefined : refs.materials.get(materialName);
+  if (materialName !== null && ctx.missing?.handlesMaterial(materialName)) material = ctx.missing.material(row, materialName, read, fail) ?? undefined;
+  else if (materialName !== null && !material) fail('material', `Unknown material "${excerpt(materialName)}".${suggest(refs.materials.keys(), materialName)}`, materialName);
 
   const citeKey = required('source');
   const sourceId = citeKey === null ? undefined : refs.sources.get(citeKey);
@@ -135,7 +139,8 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   if (ctx.kind === 'calculations') {
     const label = required('method');
     methodId = label === null ? null : (refs.methods.get(label) ?? null);
-    if (label !== null && !methodId) fail('method', `Unknown method "${excerpt(label)}".${suggest(refs.methods.keys(), label)}`, label);
+    if (label !== null && ctx.missing?.handlesMethod(label)) methodId = ctx.missing.method(row, label, read, fail);
+    else if (label !== null && !methodId) fail('method', `Unknown method "${excerpt(label)}".${suggest(refs.methods.keys(), label)}`, label);
   }
 
   const quantityText = required('quantity');

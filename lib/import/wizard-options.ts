@@ -1,10 +1,15 @@
 import { z } from 'zod';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 import { IMPORTABLE_KINDS } from './columns';
+import { CATALOG_KINDS } from './catalog-columns';
 
 /** What the wizard sends beside the file bytes (as query parameters): kind, file name, the corrected mapping, file-wide units. */
 export const wizardOptionsSchema = z.object({
-  kind: z.enum(IMPORTABLE_KINDS, 'Choose measurements or calculations.'),
+  kind: z.enum([...IMPORTABLE_KINDS, ...CATALOG_KINDS], 'Choose measurements, calculations, materials, methods or sources.'),
+  /** Catalogue kinds: update stored records a row changes (curator or owner), instead of refusing the file. */
+  onChange: z.enum(['refuse', 'update']).optional(),
+  /** Calculations: create missing materials and methods from the rows' catalogue columns. */
+  createMissing: z.boolean().optional(),
   fileName: z.string().max(255).optional(),
   mapping: z.record(z.string(), z.string().nullable()).optional(),
   units: z
@@ -23,6 +28,8 @@ export function wizardQuery(options: WizardOptions): string {
   if (options.fileName) q.set('fileName', options.fileName);
   if (options.mapping) q.set('mapping', JSON.stringify(options.mapping));
   if (options.units) q.set('units', JSON.stringify(options.units));
+  if (options.onChange) q.set('onChange', options.onChange);
+  if (options.createMissing) q.set('createMissing', 'true');
   return q.toString();
 }
 
@@ -42,5 +49,7 @@ export function parseWizardQuery(params: URLSearchParams) {
     fileName: params.get('fileName') ?? undefined,
     mapping: json('mapping'),
     units: json('units'),
+    onChange: params.get('onChange') ?? undefined,
+    createMissing: params.get('createMissing') === null ? undefined : params.get('createMissing') === 'true',
   });
 }

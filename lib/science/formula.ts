@@ -166,3 +166,17 @@ export function parseFormula(formula: string): ParsedFormula {
 export function atomsPerReducedFormulaUnit(formula: string): number {
   return parseFormula(formula).atomsPerReducedFormulaUnit;
 }
+
+/**
+ * Formula units Z in a cell of `atomsInCell` atoms, or null when the count contradicts
+ * the formula: a cell holds a whole number Z ≥ 1 of (reduced) formula units (common
+ * practice, e.g. wurtzite GaN: 4 atoms = 2 × GaN; rocksalt NaCl primitive: 2 = 1 × NaCl).
+ * Formulas with fractional occupancies (a non-whole atom count per formula unit) count
+ * sites, not atoms: any positive whole atomsInCell is accepted for them (Z undefined → NaN).
+ */
+export function formulaUnitsInCell(atomsInCell: number, atomsPerReducedFormulaUnit: number): number | null {
+  if (!Number.isInteger(atomsInCell) || atomsInCell < 1) return null;
+  if (!Number.isInteger(atomsPerReducedFormulaUnit)) return Number.NaN;
+  const z = atomsInCell / atomsPerReducedFormulaUnit;
+  return Number.isInteger(z) && z >= 1 ? z : null;
+}

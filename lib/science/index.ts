@@ -6,7 +6,7 @@ export * from './constants';
 export { ScienceInputError } from './errors';
 export { convertFrequency, convertEntropy, frequencyCm1ToKelvin, FREQUENCY_UNITS, ENTROPY_UNITS } from './units';
 export type { FrequencyUnit, EntropyUnit } from './units';
-export { parseFormula, atomsPerReducedFormulaUnit } from './formula';
+export { parseFormula, atomsPerReducedFormulaUnit, formulaUnitsInCell } from './formula';
 export type { ParsedFormula } from './formula';
 export { ELEMENT_SYMBOLS, isElementSymbol } from './elements';
 export { crystalSystem, normalizeIrrep, irrepSpecies, irrepBranch } from './symmetry';

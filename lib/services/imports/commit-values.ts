@@ -9,19 +9,40 @@ import 'server-only';
  * rows of the same file) are skipped and reported.
  */
 import { duplicateFile, findImportBySha, loadImportReferences, openValueImport, type ImportActor, type ImportFileFacts, type ImportOutcome } from '@/db/queries/imports';
+import { insertMaterialRows, insertMethodRows, listRetractedMethodLabels } from '@/db/queries/catalog-import';
+import { MissingCatalog } from '@/lib/import/create-missing';
 import { RowValidator } from '@/lib/import/row-validator';
 import type { ImportTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
 
-export async function commitImport(args: { workspaceId: string; actor: ImportActor; file: ImportFileFacts; table: ImportTable; units?: DefaultUnits }): Promise<ImportOutcome> {
+export async function commitImport(args: {
+  workspaceId: string;
+  actor: ImportActor;
+  file: ImportFileFacts & { kind: 'measurements' | 'calculations' };
+  table: ImportTable;
+  units?: DefaultUnits;
+  /** Calculations: create missing materials and methods from the rows' catalogue columns (permissions checked by the caller). */
+  createMissing?: boolean;
+}): Promise<ImportOutcome> {
   const { workspaceId, actor, file, table } = args;
   const first = await findImportBySha(workspaceId, file.sha256);
   if (first) throw duplicateFile(first);
   const references = await loadImportReferences(workspaceId);
-  const validator = new RowValidator({ kind: file.kind, references, units: args.units, columnName: (key: string) => table.columnName(key) }, references);
+  const columnName = (key: string) => table.columnName(key);
+  const missing = args.createMissing && file.kind === 'calculations' ? new MissingCatalog(references, columnName, await listRetractedMethodLabels(workspaceId)) : undefined;
+  const validator = new RowValidator({ kind: file.kind, references, units: args.units, columnName, missing }, references);
   const writer = await openValueImport(workspaceId, actor, file);
   let insertedCount = 0;
   const store = async (rows: Parameters<typeof writer.insertValueRows>[0]) => {
+    if (missing) {
+      const fresh = missing.takeNew();
+      if (fresh.materials.length || fresh.methods.length) {
+        await writer.within(async (raw, tx) => {
+          await insertMaterialRows(raw, workspaceId, writer.importId, actor.userId, fresh.materials);
+          await insertMethodRows(tx, workspaceId, writer.importId, actor.userId, fresh.methods);
+        });
+      }
+    }
     const { inserted, identical } = await writer.insertValueRows(rows);
     insertedCount += inserted;
     for (const d of identical) validator.skipDuplicate(d.row, d.sameFile ? 'Identical to an earlier row of this file; skipped.' : 'Identical to a row already in the workspace; skipped.');
@@ -31,11 +52,15 @@ export async function commitImport(args: { workspaceId: string; actor: ImportAct
       for (const chunk of validator.accept(rows)) await store(chunk);
     }
     await store(validator.finish(table.format));
-    await writer.commit({ rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount });
+    await writer.commit(
+      { rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount },
+      missing ? { createMissing: true, createdMaterials: missing.createdMaterialCount, createdMethods: missing.createdMethodCount } : undefined,
+    );
   } catch (e) {
     await writer.abort();
     throw e;
   }
   const { warnings, warningCount } = validator.warnings();
-  return { importId: writer.importId, rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount, duplicates: validator.duplicates, warnings, warningCount };
+  const created = missing ? { createdMaterials: missing.createdMaterialCount, createdMethods: missing.createdMethodCount } : {};
+  return { importId: writer.importId, rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount, duplicates: validator.duplicates, warnings, warningCount, ...created };
 }

@@ -1,10 +1,15 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
+import { readFile } from 'node:fs/promises';
 import type { ImportActor, ImportOutcome } from '@/db/queries/imports';
 import { commitImport } from './commit-values';
 import { dataChanged } from '@/lib/services/data-changed';
-import type { ImportableKind } from '@/lib/import/columns';
+import type { ImportableKind, TableKind } from '@/lib/import/columns';
+import { isCatalogKind } from '@/lib/import/catalog-columns';
+import type { WorkspaceRole } from '@/lib/permissions';
+import { importCatalogTable, importReferenceText, type CatalogImportOutcome, type OnChange } from './catalog-import';
+import { assertCreateMissingPermissions } from './create-missing';
 import { decodeUtf8Strict } from '@/lib/import/decode';
 import { excerpt, MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/errors';
 import type { ColumnMapping } from '@/lib/import/header';
@@ -18,29 +23,61 @@ const READ_CHUNK_BYTES = 1 << 20;
 export interface CsvImportInput {
   workspaceId: string;
   actor: ImportActor;
+  /** The member's or token's role: catalogue kinds, onChange=update and createMissing need more than imports:create. */
+  role?: WorkspaceRole;
   via: 'wizard' | 'api';
-  kind: ImportableKind;
+  kind: TableKind;
   fileName: string | null;
+  /** Catalogue kinds: what to do with a row whose stored record has other values (default refuse). */
+  onChange?: OnChange;
+  /** Calculations: create materials and methods the rows name but the workspace lacks, from the rows' catalogue columns. */
+  createMissing?: boolean;
   /** The file's bytes as they arrive (already limited to IMPORT_MAX_BYTES by the caller). */
   body: AsyncIterable<Uint8Array>;
   mapping?: ColumnMapping;
   units?: DefaultUnits;
 }
 
-/**
- * The one server path for a CSV file, from the wizard and from the API alike:
- * spool and hash the bytes, then validate and commit atomically.
- */
-export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcome> {
+/** A file of any kind that is read as rows: catalogue kinds (lib/services/imports/catalog-import.ts) or values (importCsvFile). */
+export async function importFile(input: CsvImportInput & { kind: TableKind }): Promise<ImportOutcome | CatalogImportOutcome> {
+  const kind = input.kind;
+  if (!isCatalogKind(kind)) return importCsvFile({ ...input, kind });
+  const role = input.role ?? 'contributor';
   const spooled = await spool(input.body);
   try {
     if (spooled.byteCount === 0) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+    const catalogInput = { workspaceId: input.workspaceId, actor: input.actor, role, via: input.via, kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, onChange: input.onChange };
+    if (kind === 'sources') {
+      const text = decodeUtf8Strict(new Uint8Array(await readFile(/*turbopackIgnore: true*/ spooled.path)), { csv: true });
+      const references = await importReferenceText(catalogInput, text);
+      if (references) return references;
+    }
     const stream = createReadStream(/*turbopackIgnore: true*/ spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
-    const table = await openCsvTable(stream, input.kind, input.mapping);
+    return await importCatalogTable(catalogInput, await openCsvTable(stream, kind, input.mapping));
+  } finally {
+    await spooled.cleanup();
+  }
+}
+
+/**
+ * The one server path for a CSV file of values, from the wizard and from the API alike:
+ * spool and hash the bytes, then validate and commit atomically.
+ */
+export async function importCsvFile(input: CsvImportInput & { kind: ImportableKind }): Promise<ImportOutcome> {
+  // Callers that pass no role (benches, older tests) get the least role that may import.
+  const role = input.role ?? 'contributor';
+  if (input.createMissing) assertCreateMissingPermissions(role);
+  const spooled = await spool(input.body);
+  try {
+    if (spooled.byteCount === 0) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
+    const kind = input.kind;
+    const stream = createReadStream(/*turbopackIgnore: true*/ spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
+    const table = await openCsvTable(stream, kind, input.mapping);
     const outcome = await commitImport({
+      createMissing: input.createMissing,
       workspaceId: input.workspaceId,
       actor: input.actor,
-      file: { kind: input.kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, via: input.via },
+      file: { kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, via: input.via },
       table,
       units: input.units,
     });
@@ -54,7 +91,7 @@ export async function importCsvFile(input: CsvImportInput): Promise<ImportOutcom
  * A JSON import body `{ kind, fileName?, units?, rows }`: its bytes are hashed
  * like a file (the same body twice is refused), the rows validated like CSV rows.
  */
-export async function importJsonBody(input: { workspaceId: string; actor: ImportActor; bytes: Uint8Array }): Promise<ImportOutcome> {
+export async function importJsonBody(input: { workspaceId: string; actor: ImportActor; role: WorkspaceRole; bytes: Uint8Array }): Promise<ImportOutcome | CatalogImportOutcome> {
   const text = decodeUtf8Strict(input.bytes, { csv: false });
   let json: unknown;
   try {
@@ -78,12 +115,22 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
   }
   const body = parsed.data;
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');
+  if (isCatalogKind(body.kind)) {
+    const catalog = body as { kind: typeof body.kind & ('materials' | 'methods' | 'sources'); fileName?: string; onChange?: OnChange; rows: Array<Record<string, unknown>> };
+    return importCatalogTable(
+      { workspaceId: input.workspaceId, actor: input.actor, role: input.role, via: 'api', kind: catalog.kind, fileName: catalog.fileName ?? null, sha256, byteCount: input.bytes.byteLength, onChange: catalog.onChange },
+      jsonTable(catalog.kind, catalog.rows),
+    );
+  }
+  const values = body as { kind: 'measurements' | 'calculations'; fileName?: string; units?: unknown; createMissing?: boolean; rows: Array<Record<string, unknown>> };
+  if (values.createMissing) assertCreateMissingPermissions(input.role);
   const outcome = await commitImport({
+    createMissing: values.createMissing,
     workspaceId: input.workspaceId,
     actor: input.actor,
-    file: { kind: body.kind, fileName: body.fileName ?? null, sha256, byteCount: input.bytes.byteLength, via: 'api' },
-    table: jsonTable(body.kind, body.rows),
-    units: body.units as DefaultUnits | undefined,
+    file: { kind: values.kind, fileName: values.fileName ?? null, sha256, byteCount: input.bytes.byteLength, via: 'api' },
+    table: jsonTable(values.kind, values.rows),
+    units: values.units as DefaultUnits | undefined,
   });
   return recomputeAfter(input.workspaceId, input.actor, outcome);
 }

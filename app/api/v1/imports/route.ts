@@ -6,15 +6,16 @@ import type { TokenContext } from '@/lib/api/auth';
 import { apiRoute } from '@/lib/api/handler';
 import { envValue } from '@/lib/env';
 import { listRoute } from '@/lib/api/resources';
-import { importJsonBody, importCsvFile } from '@/lib/services/imports/csv-import';
+import { importJsonBody, importFile } from '@/lib/services/imports/csv-import';
 import { parseDosQuery } from '@/lib/import/dos-format';
 import { importDosFile } from '@/lib/services/imports/dos-import';
 import { importKindQuerySchema, importSummarySchema } from '@/lib/api/schemas';
 import { limitedBody, readLimitedBody } from '@/lib/stream-limit';
 
 /**
- * POST /api/v1/imports — a JSON body `{ kind, fileName?, units?, rows }`, or a
- * CSV file (`Content-Type: text/csv`, `?kind=…&fileName=…`; a phonon DOS with
+ * POST /api/v1/imports — a JSON body `{ kind, fileName?, units?, onChange?, createMissing?, rows }`, or a
+ * CSV file (`Content-Type: text/csv`, `?kind=…&fileName=…&onChange=…&createMissing=…`; kind=sources also
+ * BibTeX, RIS or CSL-JSON; catalogue kinds in lib/services/imports/catalog-import.ts; a phonon DOS with
  * `?kind=dos&temperatures=298.15,300`). 201 with the counts,
  * 422 with every row error, 409 for a file already imported, 413 over IMPORT_MAX_BYTES,
  * 429 when the workspace already runs IMPORT_CONCURRENCY_PER_WORKSPACE imports.
@@ -27,8 +28,8 @@ async function runImport(request: Request, ctx: TokenContext): Promise<Response>
   const actor = { userId: ctx.createdBy, tokenId: ctx.tokenId };
   let outcome;
   if (type === 'application/json') {
-    outcome = await importJsonBody({ workspaceId: ctx.workspaceId, actor, bytes: await readLimitedBody(request, maxBytes) });
-  } else if (type === 'text/csv') {
+    outcome = await importJsonBody({ workspaceId: ctx.workspaceId, actor, role: ctx.role, bytes: await readLimitedBody(request, maxBytes) });
+  } else if (type === 'text/csv' || type === 'application/x-bibtex' || type === 'text/plain') {
     const url = new URL(request.url);
     if (url.searchParams.get('kind') === 'dos') {
       const dos = parseDosQuery(url.searchParams);
@@ -43,19 +44,25 @@ async function runImport(request: Request, ctx: TokenContext): Promise<Response>
       });
       return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
     }
-    const query = importKindQuerySchema.safeParse({ kind: url.searchParams.get('kind') ?? undefined, fileName: url.searchParams.get('fileName') ?? undefined });
+    const param = (name: string) => url.searchParams.get(name) ?? undefined;
+    const query = importKindQuerySchema.safeParse({ kind: param('kind'), fileName: param('fileName'), onChange: param('onChange'), createMissing: param('createMissing') });
     if (!query.success) throw new AppError('bad-request', issuesText(query.error.issues));
-    outcome = await importCsvFile({
+    outcome = await importFile({
       workspaceId: ctx.workspaceId,
       actor,
+      role: ctx.role,
       via: 'api',
       kind: query.data.kind,
       fileName: query.data.fileName ?? null,
+      onChange: query.data.onChange,
+      createMissing: query.data.createMissing === 'true',
       body: limitedBody(request, maxBytes),
     });
   } else {
-    throw new AppError('bad-request', 'Send Content-Type: application/json (rows) or text/csv (a file, with ?kind=).');
+    throw new AppError('bad-request', 'Send Content-Type: application/json (rows) or text/csv (a file, with ?kind=; application/x-bibtex for sources).');
   }
+  // A catalogue import whose rows were all unchanged wrote nothing: 200 without an import.
+  if (outcome.importId === null) return Response.json(outcome, { status: 200 });
   return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
 }
 

@@ -13,11 +13,15 @@ import { undoImportSchema } from './schemas';
  */
 export const undoImportAction = workspaceAction('imports:create', undoImportSchema, async (input, ctx) => {
   const canUndoAny = roleCan(ctx.role, 'imports:undo');
-  const { retracted } = await undoImport(ctx.workspace.id, input.importId, ctx.user.id, input.reason, (batch) => {
+  const { retracted, retractedRecords = 0, restoredRecords = 0 } = await undoImport(ctx.workspace.id, input.importId, ctx.user.id, input.reason, (batch) => {
     const verdict = undoVerdict({ canUndoAny, canImport: true, userId: ctx.user.id, batch });
     return verdict.allowed ? null : verdict.reason;
   });
   revalidatePath(`/w/${ctx.workspace.slug}/imports`);
   revalidatePath(`/w/${ctx.workspace.slug}/imports/${input.importId}`);
-  return { ok: true, message: `Import undone: ${count(retracted)} ${retracted === 1 ? 'row' : 'rows'} retracted.` };
+  const records = [
+    retractedRecords ? `${count(retractedRecords)} created ${retractedRecords === 1 ? 'record' : 'records'} retracted` : null,
+    restoredRecords ? `${count(restoredRecords)} updated ${restoredRecords === 1 ? 'record' : 'records'} restored` : null,
+  ].filter(Boolean);
+  return { ok: true, message: `Import undone: ${count(retracted)} ${retracted === 1 ? 'row' : 'rows'} retracted${records.length ? `; ${records.join('; ')}` : ''}.` };
 });

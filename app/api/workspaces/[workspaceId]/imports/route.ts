@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { workspaceRoute } from '@/lib/route';
 import { envValue } from '@/lib/env';
 import { AppError, issuesText, toProblem } from '@/lib/errors';
-import { importCsvFile } from '@/lib/services/imports/csv-import';
+import { importFile } from '@/lib/services/imports/csv-import';
 import { withImportSlot } from '@/lib/api-limits';
 import type { MemberContext } from '@/lib/session';
 import { parseDosQuery } from '@/lib/import/dos-format';
@@ -30,17 +30,20 @@ async function postImport(request: Request, ctx: MemberContext): Promise<Respons
   const options = parseWizardQuery(params);
   if (!options.success) throw new AppError('bad-request', issuesText(options.error.issues));
   try {
-    const outcome = await importCsvFile({
+    const outcome = await importFile({
       workspaceId: ctx.workspace.id,
       actor: { userId: ctx.user.id, tokenId: null },
+      role: ctx.role,
       via: 'wizard',
       kind: options.data.kind,
+      onChange: options.data.onChange,
+      createMissing: options.data.createMissing,
       fileName: options.data.fileName ?? null,
       body: limitedBody(request, envValue('IMPORT_MAX_BYTES')),
       mapping: options.data.mapping,
       units: options.data.units as DefaultUnits | undefined,
     });
-    return Response.json(outcome, { status: 201 });
+    return Response.json(outcome, { status: outcome.importId === null ? 200 : 201 });
   } catch (e) {
     // Refused imports (422, 409, 413) answer with the same problem documents as the API.
     return toProblem(e);

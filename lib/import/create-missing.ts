@@ -1,0 +1,170 @@
+/**
+ * One-step pipeline pushes (createMissing): a calculation row naming a material or a
+ * method the workspace lacks creates it, from the row's catalogue columns
+ * (material_formula, material_space_group, material_atoms_in_cell, …; method_functional,
+ * method_k_grid, …), checked exactly like a catalogue import row. The first row naming a
+ * new record creates it; every later row naming it must carry the same catalogue values
+ * in the columns it fills, else that row is an error naming the conflicting column and
+ * the first row. Rows naming stored records are not compared with them.
+ * Used by the server's validation and by the wizard's preview alike.
+ */
+import type { RowError } from './errors';
+import { validateCatalogRow, type MaterialRecord, type MethodRecord } from './catalog-rows';
+import type { CellReader, ImportReferences } from './validate-row';
+import { excerpt } from './errors';
+
+type Fail = (key: string, reason: string, value?: string) => void;
+
+const MATERIAL_CELLS: Record<string, string> = {
+  formula: 'material_formula',
+  space_group: 'material_space_group',
+  atoms_in_cell: 'material_atoms_in_cell',
+  display_name: 'material_display_name',
+  external_id: 'material_external_id',
+  tags: 'material_tags',
+};
+const METHOD_CELLS: Record<string, string> = {
+  functional: 'method_functional',
+  dispersion: 'method_dispersion',
+  pseudopotential: 'method_pseudopotential',
+  cutoff_eV: 'method_cutoff_eV',
+  k_grid: 'method_k_grid',
+  q_grid: 'method_q_grid',
+  smearing: 'method_smearing',
+  approach: 'method_approach',
+  lo_to_correction: 'method_lo_to',
+};
+
+interface Pending<R> {
+  id: string;
+  row: number;
+  record: R;
+  given: ReadonlySet<string>;
+}
+
+export class MissingCatalog {
+  private readonly materials = new Map<string, Pending<MaterialRecord>>();
+  private readonly methods = new Map<string, Pending<MethodRecord>>();
+  private newMaterials: Array<MaterialRecord & { id: string }> = [];
+  private newMethods: Array<MethodRecord & { id: string }> = [];
+
+  constructor(
+    private readonly references: ImportReferences,
+    private readonly columnName: (key: string) => string,
+    /** Labels of retracted methods: reserved for good, so they cannot be created again. */
+    private readonly reservedMethodLabels: ReadonlySet<string> = new Set(),
+    private readonly newId: () => string = () => crypto.randomUUID(),
+  ) {}
+
+  handlesMaterial(name: string): boolean {
+    return this.materials.has(name) || !this.references.materials.has(name);
+  }
+
+  handlesMethod(label: string): boolean {
+    return this.methods.has(label) || !this.references.methods.has(label);
+  }
+
+  get createdMaterialCount(): number {
+    return this.materials.size;
+  }
+
+  get createdMethodCount(): number {
+    return this.methods.size;
+  }
+
+  /** The records first seen since the last call, to insert before the rows that refer to them. */
+  takeNew(): { materials: Array<MaterialRecord & { id: string }>; methods: Array<MethodRecord & { id: string }> } {
+    const out = { materials: this.newMaterials, methods: this.newMethods };
+    this.newMaterials = [];
+    this.newMethods = [];
+    return out;
+  }
+
+  material(row: number, name: string, read: CellReader, fail: Fail): { id: string; atomsPerFormulaUnit: number; atomsInCell: number | null } | null {
+    if ((read('material_formula') ?? '').trim() === '' && !this.materials.has(name)) {
+      fail('material', `Unknown material "${excerpt(name)}". To create it in this import, fill material_formula (and material_space_group, material_atoms_in_cell).`, name);
+      return null;
+    }
+    const checked = this.check(row, 'materials', { name, ...cellsOf(MATERIAL_CELLS, read) }, MATERIAL_CELLS, fail);
+    if (!checked) return null;
+    const record = checked.record as MaterialRecord;
+    const known = this.materials.get(name);
+    if (known) {
+      if (!this.consistent(known, checked.given, record, MATERIAL_CELLS, 'material', name, fail)) return null;
+      return { id: known.id, atomsPerFormulaUnit: known.record.atomsPerFormulaUnit, atomsInCell: known.record.atomsInCell };
+    }
+    const id = this.newId();
+    this.materials.set(name, { id, row, record, given: checked.given });
+    this.newMaterials.push({ ...record, id });
+    this.references.materials.set(name, { id, atomsPerFormulaUnit: record.atomsPerFormulaUnit, atomsInCell: record.atomsInCell });
+    return { id, atomsPerFormulaUnit: record.atomsPerFormulaUnit, atomsInCell: record.atomsInCell };
+  }
+
+  method(row: number, label: string, read: CellReader, fail: Fail): string | null {
+    if (this.reservedMethodLabels.has(label)) {
+      fail('method', `"${excerpt(label)}" is a retracted method of this workspace: restore it first (its label stays reserved).`, label);
+      return null;
+    }
+    if ((read('method_functional') ?? '').trim() === '' && !this.methods.has(label)) {
+      fail('method', `Unknown method "${excerpt(label)}". To create it in this import, fill method_functional (and the other method_ columns of its recipe).`, label);
+      return null;
+    }
+    const checked = this.check(row, 'methods', { label, ...cellsOf(METHOD_CELLS, read) }, METHOD_CELLS, fail);
+    if (!checked) return null;
+    const known = this.methods.get(label);
+    if (known) return this.consistent(known, checked.given, checked.record as MethodRecord, METHOD_CELLS, 'method', label, fail) ? known.id : null;
+    const id = this.newId();
+    const record = checked.record as MethodRecord;
+    this.methods.set(label, { id, row, record, given: checked.given });
+    this.newMethods.push({ ...record, id });
+    this.references.methods.set(label, id);
+    return id;
+  }
+
+  private check(row: number, kind: 'materials' | 'methods', cells: Record<string, string | undefined>, columns: Record<string, string>, fail: Fail) {
+    const errors: RowError[] = [];
+    const handleKey = kind === 'materials' ? 'name' : 'label';
+    const ownColumn = (key: string) => (key === handleKey ? (kind === 'materials' ? 'material' : 'method') : (columns[key] ?? key));
+    const checked = validateCatalogRow(kind, row, (key) => cells[key], (key) => `\u0000${ownColumn(key)}`, errors);
+    for (const e of errors) {
+      const key = e.column?.startsWith('\u0000') ? e.column.slice(1) : (kind === 'materials' ? 'material' : 'method');
+      fail(key, e.reason, e.value);
+    }
+    return checked;
+  }
+
+  private consistent<R extends object>(known: Pending<R>, given: ReadonlySet<string>, record: R, columns: Record<string, string>, what: string, handle: string, fail: Fail): boolean {
+    let ok = true;
+    const fieldToColumn = what === 'material' ? MATERIAL_FIELD_COLUMNS : METHOD_FIELD_COLUMNS;
+    for (const field of given) {
+      const column = fieldToColumn[field];
+      if (!column) continue;
+      const a = JSON.stringify((record as Record<string, unknown>)[field] ?? null);
+      const b = JSON.stringify((known.record as Record<string, unknown>)[field] ?? null);
+      if (a !== b) {
+        ok = false;
+        fail(columns[column] ?? column, `Conflicts with row ${known.row}, which creates ${what} "${excerpt(handle)}" with ${columns[column] ?? column} ${b === 'null' ? '(empty)' : excerpt(b.replace(/^"|"$/g, ''))}.`);
+      }
+    }
+    return ok;
+  }
+}
+
+const MATERIAL_FIELD_COLUMNS: Record<string, string> = { formula: 'formula', spaceGroup: 'space_group', atomsInCell: 'atoms_in_cell', displayName: 'display_name', externalId: 'external_id', tags: 'tags' };
+const METHOD_FIELD_COLUMNS: Record<string, string> = {
+  functional: 'functional',
+  dispersion: 'dispersion',
+  pseudopotential: 'pseudopotential',
+  cutoffEv: 'cutoff_eV',
+  kGrid: 'k_grid',
+  qGrid: 'q_grid',
+  smearing: 'smearing',
+  approach: 'approach',
+  nonAnalyticCorrection: 'lo_to_correction',
+};
+
+function cellsOf(columns: Record<string, string>, read: CellReader): Record<string, string | undefined> {
+  const out: Record<string, string | undefined> = {};
+  for (const [key, column] of Object.entries(columns)) out[key] = read(column);
+  return out;
+}
