@@ -253,7 +253,8 @@ export async function undoCatalogChanges(tx: Executor, workspaceId: string, impo
   const check = async (what: string, records: Array<{ id: string; name: string }>, column: 'material_id' | 'method_id' | 'source_id') => {
     if (records.length === 0) return;
     const ids = records.map((r) => r.id);
-    const [m, c] = await Promise.all([liveCount(tx, 'measurement', column, ids, importId), liveCount(tx, 'calculation', column, ids, importId)]);
+    const m = column === 'method_id' ? new Map<string, number>() : await liveCount(tx, 'measurement', column, ids, importId);
+    const c = await liveCount(tx, 'calculation', column, ids, importId);
     for (const r of records) {
       const parts = [m.get(r.id) ? `${m.get(r.id)} measurement(s)` : null, c.get(r.id) ? `${c.get(r.id)} calculation(s)` : null].filter(Boolean);
       if (parts.length) problems.push(`${what} "${r.name}" is used by ${parts.join(' and ')} of other imports or entries`);

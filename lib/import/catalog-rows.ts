@@ -172,7 +172,8 @@ function materialRow(row: number, read: CellReader, columnName: (key: string) =>
       crystalSystem: derived.crystalSystem,
       atomsInCell: m.atomsInCell ?? null,
       externalId: m.externalId ?? null,
-      tags: m.tags,
+      // Stored tags have no order: compare and store them sorted.
+      tags: [...m.tags].sort(),
     },
   };
 }
@@ -256,7 +257,8 @@ export function shownValue(value: unknown): string {
   if (value === null || value === undefined || (Array.isArray(value) && value.length === 0)) return '(empty)';
   if (Array.isArray(value)) {
     if (value.every((v) => typeof v === 'number')) return value.join('x');
-    return value.map((v) => (typeof v === 'string' ? v : [v.family, v.given].filter(Boolean).join(', ') || v.literal)).join('; ');
+    if (value.every((v) => typeof v === 'string')) return value.join(', ');
+    return value.map((v) => [v.family, v.given].filter(Boolean).join(', ') || v.literal).join('; ');
   }
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   return excerpt(String(value));

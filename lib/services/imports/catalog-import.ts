@@ -97,7 +97,13 @@ export async function importCatalogTable(input: CatalogImportInput, table: Impor
       else rowErrors.forEach(add);
     }
   }
-  if (errorCount > 0) throw refusal(table.format, errors, errorCount);
+  if (errorCount > 0) {
+    // Duplicate identities within the file are reported beside the cell errors.
+    const duplicates = planCatalogImport(input.kind, rows, [], (key) => table.columnName(key)).errors;
+    duplicates.forEach(add);
+    errors.sort((a, b) => a.row - b.row);
+    throw refusal(table.format, errors, errorCount);
+  }
   return commitRows(input, rows, rowCount, table.format, (key) => table.columnName(key));
 }
 
