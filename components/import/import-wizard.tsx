@@ -1,7 +1,8 @@
 'use client';
 import Link from 'next/link';
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { columnsOf, type ImportableKind } from '@/lib/import/columns';
+import { columnsOf, type TableKind } from '@/lib/import/columns';
+import { isCatalogKind } from '@/lib/import/catalog-columns';
 import type { ColumnMapping } from '@/lib/import/header';
 import type { PreviewRow, ReferenceLists } from '@/lib/import/preview';
 import type { RowError } from '@/lib/import/errors';
@@ -30,15 +31,37 @@ type Outcome = {
   warnings?: ModeSetWarning[];
   warningCount?: number;
 };
+type CatalogOutcome = {
+  importId: string | null;
+  kind: 'materials' | 'methods' | 'sources';
+  rowCount: number;
+  createdCount: number;
+  updatedCount: number;
+  unchangedCount: number;
+  unchanged: Array<{ row: number; handle: string }>;
+};
 type ModeSetWarning = { row: number; message: string };
-type CommitState = UploadState<Outcome>;
+type CommitState = UploadState<Outcome | CatalogOutcome>;
 
-type WizardKind = ImportableKind | 'dos';
-const KIND_LABEL: Record<WizardKind, string> = { measurements: 'Measurements (experiment)', calculations: 'Calculations (computed)', dos: 'Phonon DOS (computes entropies)' };
+type WizardKind = TableKind | 'dos';
+const KIND_LABEL: Record<WizardKind, string> = {
+  measurements: 'Measurements (experiment)',
+  calculations: 'Calculations (computed)',
+  dos: 'Phonon DOS (computes entropies)',
+  materials: 'Materials',
+  methods: 'Methods',
+  sources: 'Sources (CSV or BibTeX)',
+};
+const WIZARD_KINDS = ['measurements', 'calculations', 'dos', 'materials', 'methods', 'sources'] as const;
+/** A reference file (BibTeX, RIS, CSL-JSON) of sources is checked on the server only. */
+const REFERENCE_FILE = /\.(bib|bibtex|ris|json)$/i;
 
 export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug: string }) {
   const [kind, setKind] = useState<WizardKind>('measurements');
-  const tableKind: ImportableKind = kind === 'dos' ? 'measurements' : kind;
+  const tableKind: TableKind = kind === 'dos' ? 'measurements' : kind;
+  const catalog = isCatalogKind(kind);
+  const [updateChanged, setUpdateChanged] = useState(false);
+  const [createMissing, setCreateMissing] = useState(false);
   const [file, setFile] = useState<File | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping | undefined>(undefined);
   const [units, setUnits] = useState<DefaultUnits>({});
@@ -60,7 +83,12 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
     };
   }, [workspaceId]);
 
-  const request = useMemo(() => (kind !== 'dos' && file && references ? { file, kind: tableKind, mapping, units, references } : null), [file, kind, tableKind, mapping, units, references]);
+  const referenceFile = kind === 'sources' && file !== null && REFERENCE_FILE.test(file.name);
+  const missingFlag = kind === 'calculations' && createMissing;
+  const request = useMemo(
+    () => (kind !== 'dos' && !referenceFile && file && references ? { file, kind: tableKind, mapping, units, references, createMissing: missingFlag } : null),
+    [file, kind, tableKind, mapping, units, references, referenceFile, missingFlag],
+  );
   const preview = usePreviewWorker(request);
   const done = preview.status === 'done' ? preview.result : null;
   // while a changed mapping is re-checked, or refused (two columns on one header), the last result stays on
@@ -69,20 +97,30 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   if (done && lastDone?.result !== done && file) setLastDone({ file, result: done });
   const result = done ?? ((preview.status === 'working' || preview.status === 'refused') && mapping && lastDone?.file === file ? lastDone.result : null);
   const columns = columnsOf(tableKind);
-  const noUnitColumn = result !== null && !result.mapping.unit;
+  const noUnitColumn = result !== null && !catalog && !result.mapping.unit;
   const canCommit = done !== null && done.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
 
   const reset = (next: Partial<{ kind: WizardKind; file: File | null }>) => {
-    if (next.kind) setKind(next.kind);
+    if (next.kind) {
+      setKind(next.kind);
+      setUpdateChanged(false);
+    }
     if (next.file !== undefined) setFile(next.file);
     setMapping(undefined);
     setCommit({ status: 'idle' });
   };
 
   async function send() {
-    if (!file || !result) return;
+    if (!file || (!result && !referenceFile)) return;
     setCommit({ status: 'sending' });
-    const query = wizardQuery({ kind: tableKind, fileName: file.name, mapping: result.mapping, units: noUnitColumn ? units : undefined });
+    const query = wizardQuery({
+      kind: tableKind,
+      fileName: file.name,
+      mapping: result && !referenceFile ? result.mapping : undefined,
+      units: noUnitColumn ? units : undefined,
+      onChange: catalog && updateChanged ? 'update' : undefined,
+      createMissing: missingFlag || undefined,
+    });
     setCommit(await uploadImport<Outcome>(workspaceId, query, file));
   }
 
@@ -90,9 +128,9 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
     <div className="space-y-5">
       <Panel title="1 · What are you importing?">
         <div className="flex flex-wrap items-end gap-4">
-          <fieldset className="flex gap-4 text-sm">
+          <fieldset className="flex flex-wrap gap-4 text-sm">
             <legend className="sr-only">Kind of import</legend>
-            {(['measurements', 'calculations', 'dos'] as const).map((k) => (
+            {WIZARD_KINDS.map((k) => (
               <label key={k} className="flex items-center gap-1.5">
                 <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => reset({ kind: k })} disabled={commit.status === 'sending'} />
                 {KIND_LABEL[k]}
@@ -103,6 +141,25 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
             Download the {kind === 'dos' ? 'DOS' : kind} template
           </a>
         </div>
+        {catalog && (
+          <div className="mt-3 space-y-1 text-sm">
+            <p className="max-w-3xl text-ink-muted">
+              Rows identical to stored {kind} are listed as unchanged and nothing is written for them. A row whose stored record has other values is refused, unless you
+              choose to update those records.
+              {kind === 'sources' && ' A BibTeX, RIS or CSL-JSON file (.bib, .ris, .json) is read as references.'}
+            </p>
+            <label className="flex items-center gap-1.5">
+              <input type="checkbox" checked={updateChanged} onChange={(e) => setUpdateChanged(e.target.checked)} disabled={commit.status === 'sending'} />
+              Update changed records (curator or owner; each update is audited and undone with the import)
+            </label>
+          </div>
+        )}
+        {kind === 'calculations' && (
+          <label className="mt-3 flex items-center gap-1.5 text-sm">
+            <input type="checkbox" checked={createMissing} onChange={(e) => setCreateMissing(e.target.checked)} disabled={commit.status === 'sending'} />
+            Create missing materials and methods from the rows’ material_… and method_… columns
+          </label>
+        )}
       </Panel>
 
       {kind === 'dos' ? (
@@ -132,7 +189,19 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
             </div>
           </Panel>
 
-          {result && (
+          {referenceFile && (
+            <Panel title="3 · Check and commit">
+              <div className="space-y-3">
+                <p className="text-sm text-ink-muted">A reference file is checked entry by entry on the server; any problem refuses it as a whole, with the entry and line.</p>
+                <Button type="button" onClick={send} disabled={commit.status === 'sending' || commit.status === 'done'}>
+                  {commit.status === 'sending' ? 'Importing…' : 'Import the references'}
+                </Button>
+                <CommitResult state={commit} slug={slug} />
+              </div>
+            </Panel>
+          )}
+
+          {result && !referenceFile && (
             <Panel title="3 · Columns and units">
               <div className="space-y-4">
                 <p className="text-sm text-ink-muted">
@@ -167,7 +236,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
             </Panel>
           )}
 
-          {result && (
+          {result && !referenceFile && (
             <Panel title="4 · Preview and commit">
               <div className="space-y-4">
                 <p className="text-sm">
@@ -279,7 +348,22 @@ function CommitResult({ state, slug }: { state: CommitState; slug: string }) {
 }
 
 function CommitOutcome({ state, slug }: { state: CommitState; slug: string }) {
-  if (state.status === 'done') {
+  if (state.status === 'done' && 'createdCount' in state.outcome) {
+    const o = state.outcome;
+    return (
+      <Notice tone="good">
+        {o.importId === null ? (
+          <>Nothing to write: all {count(o.rowCount)} rows are identical to stored {o.kind} (unchanged).</>
+        ) : (
+          <>
+            Imported {count(o.rowCount)} rows: {count(o.createdCount)} {o.kind} created, {count(o.updatedCount)} updated, {count(o.unchangedCount)} unchanged.{' '}
+            <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link> · <Link href={`/w/${slug}/${o.kind}`}>Open the {o.kind}</Link>
+          </>
+        )}
+      </Notice>
+    );
+  }
+  if (state.status === 'done' && 'insertedCount' in state.outcome) {
     const o = state.outcome;
     return (
       <>

@@ -15,7 +15,8 @@ export async function uploadImport<Outcome>(workspaceId: string, query: string, 
   try {
     const res = await fetch(`/api/workspaces/${workspaceId}/imports?${query}`, { method: 'POST', body: file, headers: { 'content-type': 'text/csv' } });
     const body = await res.json();
-    if (res.status === 201) return { status: 'done', outcome: body as Outcome };
+    // 200: a catalogue import whose rows were all unchanged (nothing written).
+    if (res.status === 201 || res.status === 200) return { status: 'done', outcome: body as Outcome };
     return { status: 'refused', message: body.detail ?? `HTTP ${res.status}`, errors: body.errors, errorCount: body.errorCount, firstImportId: body.firstImportId };
   } catch (e) {
     return { status: 'refused', message: `The upload failed: ${(e as Error).message}` };

@@ -4,7 +4,7 @@
  * the value columns stay as they were.
  */
 import { SOURCE_KINDS } from '@/lib/record-kinds';
-import type { ColumnDef } from './columns';
+import type { ColumnDef } from './column-def';
 
 export const CATALOG_KINDS = ['materials', 'methods', 'sources'] as const;
 export type CatalogKind = (typeof CATALOG_KINDS)[number];

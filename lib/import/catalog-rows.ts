@@ -21,7 +21,7 @@ import { storedSource } from '@/lib/citations/stored';
 import { formulaUnitsInCell, parseFormula } from '@/lib/science/formula';
 import type { CatalogKind } from './catalog-columns';
 import { excerpt, type RowError } from './errors';
-import type { CellReader } from './validate-row';
+import type { CellReader } from './column-def';
 
 export interface MaterialRecord {
   name: string;

@@ -13,14 +13,8 @@ export type TableKind = ImportableKind | CatalogKind;
 export const IMPORT_QUANTITIES = ['frequency', 'entropy'] as const;
 export type ImportQuantity = (typeof IMPORT_QUANTITIES)[number];
 
-export interface ColumnDef {
-  /** Our column name, exactly as in the template header. */
-  key: string;
-  required: boolean;
-  /** Other header spellings the auto-mapping recognises (compared after normalisation). */
-  aliases: readonly string[];
-  description: string;
-}
+export type { ColumnDef } from './column-def';
+import type { ColumnDef } from './column-def';
 
 const col = (key: string, required: boolean, description: string, aliases: string[] = []): ColumnDef => ({ key, required, aliases, description });
 

@@ -10,8 +10,14 @@
  */
 import type { RowError } from './errors';
 import { validateCatalogRow, type MaterialRecord, type MethodRecord } from './catalog-rows';
-import type { CellReader, ImportReferences } from './validate-row';
+import type { CellReader } from './column-def';
 import { excerpt } from './errors';
+
+/** The handles a calculation import resolves (validate-row's ImportReferences, of which this is a part). */
+interface ImportReferences {
+  materials: Map<string, { id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null }>;
+  methods: Map<string, string>;
+}
 
 type Fail = (key: string, reason: string, value?: string) => void;
 

@@ -1,5 +1,8 @@
 import Papa from 'papaparse';
-import { isImportableKind, type ImportableKind } from './columns';
+import { isImportableKind, type TableKind } from './columns';
+import { isCatalogKind } from './catalog-columns';
+import { planCatalogImport, validateCatalogRow, type CatalogRow, type MaterialRecord, type MethodRecord, type SourceRow } from './catalog-rows';
+import { MissingCatalog } from './create-missing';
 import { isBlankRecord } from './csv-reader';
 import { detectDelimiter, delimiterName, type Delimiter } from './delimiter';
 import { excerpt, longCellIn, MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
@@ -25,7 +28,9 @@ export function referencesFrom(lists: ReferenceLists): ImportReferences {
 }
 
 export interface PreviewRequest {
-  kind: ImportableKind;
+  kind: TableKind;
+  /** Calculations: new materials and methods come from the rows' catalogue columns. */
+  createMissing?: boolean;
   mapping?: ColumnMapping;
   units?: DefaultUnits;
   references: ReferenceLists;
@@ -59,6 +64,20 @@ export interface PreviewRow {
   stored: { label: string | null; value: string } | null;
 }
 
+/** What a catalogue row will store, in the two preview columns: its handle and the derived summary. */
+function storedOfCatalog(kind: TableKind, row: CatalogRow): PreviewRow['stored'] {
+  if (kind === 'materials') {
+    const m = row.record as MaterialRecord;
+    return { label: m.name, value: `${m.reducedFormula}${m.spaceGroup ? ` · SG ${m.spaceGroup} (${m.crystalSystem})` : ''}${m.atomsInCell ? ` · Z = ${m.atomsInCell / (m.atomsPerFormulaUnit || 1)}` : ''}` };
+  }
+  if (kind === 'methods') {
+    const m = row.record as MethodRecord;
+    return { label: m.label, value: [m.functional, m.kGrid ? `k ${m.kGrid.join('×')}` : null, m.cutoffEv ? `${m.cutoffEv} eV` : null].filter(Boolean).join(' · ') };
+  }
+  const s = row.record as SourceRow;
+  return { label: s.citeKey, value: [s.doi, s.year].filter(Boolean).join(' · ') || s.kind };
+}
+
 /** A valid row's label and value as the server will store them. */
 function storedOf(valid: ValidRow): PreviewRow['stored'] {
   return { label: valid.irrepNormalized, value: storedValue({ quantity: valid.quantity, value: valid.value, valueText: valid.valueText, unit: valid.unit }) };
@@ -73,7 +92,10 @@ const CHUNK_CHARS = 1 << 20;
  * checks everything again on commit). `onProgress` gets the fraction parsed.
  */
 export function previewCsv(text: string, request: PreviewRequest, onProgress: (fraction: number) => void = () => undefined): PreviewResult {
-  if (!isImportableKind(request.kind)) throw new Error(`unknown kind ${String(request.kind)}`);
+  if (!isImportableKind(request.kind) && !isCatalogKind(request.kind)) throw new Error(`unknown kind ${String(request.kind)}`);
+  const catalogKind = isCatalogKind(request.kind) ? request.kind : null;
+  const catalogRows: CatalogRow[] = [];
+  let missing: MissingCatalog | undefined;
   if (text.trim() === '') throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
   const delimiter = detectDelimiter(text);
   const references = referencesFrom(request.references);
@@ -108,6 +130,8 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           headers = fields;
           mapping = request.mapping ?? autoMapColumns(request.kind, fields);
           header = resolveHeader(request.kind, fields, mapping);
+          if (catalogKind) for (const ignored of header.ignored) addError({ row: 1, column: excerpt(ignored), reason: `"${excerpt(ignored)}" is not a column of ${catalogKind}: remove it or rename it to one of the template's columns.` });
+          if (request.createMissing && request.kind === 'calculations') missing = new MissingCatalog(references, (key) => header!.nameByKey.get(key) ?? key);
           recordNumber = 1;
           return;
         }
@@ -126,8 +150,25 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           addError({ row, column: null, reason: `This row has ${fields.length} cells; the header has ${headers.length} (${delimiterName(delimiter)}-separated).` });
         else {
           const rowErrors: RowError[] = [];
-          const valid = validateRow(row, (key) => { const idx = h.indexByKey.get(key); return idx === undefined ? undefined : fields[idx]; }, { kind: request.kind, references, units: request.units, columnName: (key) => h.nameByKey.get(key) ?? key }, rowErrors);
-          if (valid) {
+          const read = (key: string) => { const idx = h.indexByKey.get(key); return idx === undefined ? undefined : fields[idx]; };
+          const columnName = (key: string) => h.nameByKey.get(key) ?? key;
+          if (catalogKind) {
+            const checked = validateCatalogRow(catalogKind, row, read, columnName, rowErrors);
+            if (checked) {
+              validCount++;
+              ok = true;
+              catalogRows.push(checked);
+              stored = storedOfCatalog(catalogKind, checked);
+            }
+          }
+          const valid = catalogKind ? null : validateRow(row, read, { kind: request.kind as 'measurements' | 'calculations', references, units: request.units, columnName, missing }, rowErrors);
+          if (catalogKind) {
+            if (!ok) {
+              errorCount += Math.max(1, rowErrors.length);
+              errors.push(...rowErrors.slice(0, Math.max(0, MAX_REPORTED_ERRORS - errors.length)));
+              for (const e of rowErrors) if (e.column && !badColumns.includes(e.column)) badColumns.push(e.column);
+            }
+          } else if (valid) {
             validCount++;
             ok = true;
             tally.add(row, valid);
@@ -150,6 +191,20 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
   const resolved = header as ReturnType<typeof resolveHeader>;
   if (resolved.errors.length) throw importRefusal('The header row has problems.', resolved.errors);
   if (rowCount === 0) throw importRefusal('The file has a header but no data rows.', [{ row: 0, column: null, reason: 'The file has a header but no data rows.' }]);
+  if (catalogKind) {
+    // Identities twice in the file; matching against stored records happens on the server.
+    const resolvedHeader = resolved;
+    for (const e of planCatalogImport(catalogKind, catalogRows, [], (key) => resolvedHeader.nameByKey.get(key) ?? key).errors) {
+      addError(e);
+      validCount--;
+      const p = preview.find((r) => r.row === e.row);
+      if (p) {
+        p.ok = false;
+        p.stored = null;
+        if (e.column && !p.badColumns.includes(e.column)) p.badColumns.push(e.column);
+      }
+    }
+  }
   const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
   return { headers, delimiter, delimiterName: delimiterName(delimiter), mapping, ignored: resolved.ignored, rowCount, validCount, errorCount, errors, preview, warnings, warningCount };
 }

@@ -1,4 +1,4 @@
-import { columnsOf, type ImportableKind } from './columns';
+import { templateColumnsOf, type TableKind } from './columns';
 import { toCsv } from '@/lib/csv';
 
 /**
@@ -6,7 +6,7 @@ import { toCsv } from '@/lib/csv';
  * (sources named in the notes cell, see ../shared/reference/check-values.md);
  * the computed values are invented to show the format and say so.
  */
-const EXAMPLES: Record<ImportableKind, Array<Record<string, string>>> = {
+const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
   measurements: [
     {
       material: 'GaN-wz',
@@ -84,17 +84,32 @@ const EXAMPLES: Record<ImportableKind, Array<Record<string, string>>> = {
       notes: 'example row: invented value',
     },
   ],
+  // Catalogue examples: well-known structures (space groups and atoms per primitive cell
+  // as commonly tabulated); the external identifiers are invented and say so.
+  materials: [
+    { name: 'GaN-wz', formula: 'GaN', display_name: 'GaN (wurtzite)', space_group: '186', atoms_in_cell: '4', external_id: 'example-0001 (invented)', tags: 'nitride, semiconductor' },
+    { name: 'NaCl-rs', formula: 'NaCl', display_name: 'NaCl (rocksalt)', space_group: '225', atoms_in_cell: '2', external_id: '', tags: 'halide' },
+    { name: 'SrTiO3-cub', formula: 'SrTiO3', display_name: 'SrTiO3 (cubic perovskite)', space_group: '221', atoms_in_cell: '5', external_id: '', tags: 'oxide, perovskite' },
+  ],
+  methods: [
+    { label: 'PBEsol-PAW-600', functional: 'PBEsol', dispersion: '', pseudopotential: 'PAW (example family)', cutoff_eV: '600', k_grid: '8x8x8', q_grid: '4x4x4', smearing: 'Gaussian 0.01 eV', approach: 'perturbation', lo_to_correction: 'yes', notes: 'example row: invented recipe' },
+    { label: 'LDA-NC-finite', functional: 'LDA', pseudopotential: 'norm-conserving (example)', cutoff_eV: '1000', k_grid: '6x6x6', q_grid: '2x2x2', approach: 'finite-displacement', lo_to_correction: 'no', notes: 'example row: invented recipe' },
+  ],
+  sources: [
+    { cite_key: 'azuhata1995', kind: 'journal-article', title: 'Polarized Raman spectra in GaN', authors: 'Azuhata, T.; Sota, T.; Suzuki, K.; Nakamura, S.', year: '1995', venue: 'Journal of Physics: Condensed Matter', volume: '7', pages: 'L129–L133' },
+    { cite_key: 'inhouse-pbesol-2026', kind: 'in-house-notebook', notebook_ref: 'NB-2026-014 (invented)', note: 'example row: invented notebook' },
+  ],
 };
 
 /** The CSV template of a kind: our header and a few example rows. */
-export function templateCsv(kind: ImportableKind): string {
-  const keys = columnsOf(kind).map((c) => c.key);
+export function templateCsv(kind: TableKind): string {
+  const keys = templateColumnsOf(kind).map((c) => c.key);
   return toCsv(
     keys,
     EXAMPLES[kind].map((row) => keys.map((k) => row[k] ?? '')),
   );
 }
 
-export function templateFileName(kind: ImportableKind): string {
+export function templateFileName(kind: TableKind): string {
   return `${kind}-template.csv`;
 }

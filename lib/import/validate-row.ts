@@ -61,8 +61,8 @@ export interface RowContext {
   missing?: MissingCatalog;
 }
 
-/** Reads one cell of the current row by column key; undefined when the column is absent. */
-export type CellReader = (key: string) => string | undefined;
+export type { CellReader } from './column-def';
+import type { CellReader } from './column-def';
 
 const enumKey = (text: string) =>
   text

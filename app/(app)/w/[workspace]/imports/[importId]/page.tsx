@@ -5,6 +5,8 @@ import { requirePageMember } from '@/lib/session';
 import { roleCan } from '@/lib/permissions';
 import { getImport, listImportHistory } from '@/db/queries/imports';
 import { listCalculations, listMeasurements } from '@/db/queries/values';
+import { listCreatedRecords } from '@/db/queries/catalog-import';
+import { isCatalogKind } from '@/lib/import/catalog-columns';
 import { Panel } from '@/components/ui/panel';
 import { count, storedValue, unitSymbol } from '@/lib/format';
 import { UNDO_RULE, undoVerdict } from '@/lib/import/undo-rule';
@@ -28,10 +30,17 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
   const batch = await getImport(ctx.workspace.id, importId);
   if (!batch) notFound();
   const filter = { page: 1, size: SAMPLE_ROWS, importId: batch.id, retracted: true };
-  const [values, history] = await Promise.all([
-    batch.kind === 'measurements' ? listMeasurements(ctx.workspace.id, filter) : listCalculations(ctx.workspace.id, filter),
+  const catalog = isCatalogKind(batch.kind);
+  const [values, history, created] = await Promise.all([
+    catalog ? { rows: [], total: 0 } : batch.kind === 'measurements' ? listMeasurements(ctx.workspace.id, filter) : listCalculations(ctx.workspace.id, filter),
     listImportHistory(ctx.workspace.id, batch.id),
+    listCreatedRecords(ctx.workspace.id, batch.id),
   ]);
+  const createdRecords = [
+    ...created.materials.map((r) => ({ ...r, what: 'material', href: `/w/${ctx.workspace.slug}/materials/${r.id}` })),
+    ...created.methods.map((r) => ({ ...r, what: 'method', href: `/w/${ctx.workspace.slug}/methods/${r.id}` })),
+    ...created.sources.map((r) => ({ ...r, what: 'source', href: `/w/${ctx.workspace.slug}/sources/${r.id}` })),
+  ];
   const verdict = undoVerdict({ canUndoAny: roleCan(ctx.role, 'imports:undo'), canImport: roleCan(ctx.role, 'imports:create'), userId: ctx.user.id, batch });
 
   const facts: Array<[string, React.ReactNode]> = [
@@ -42,8 +51,8 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
     ['Bytes', count(batch.byteCount)],
     ['SHA-256', <code key="sha" className="break-all font-mono text-xs">{batch.sha256}</code>],
     ['Rows in the file', count(batch.rowCount)],
-    ['Inserted', count(batch.insertedCount)],
-    ['Identical to existing rows (skipped)', count(batch.duplicateCount)],
+    [catalog ? 'Records created or updated' : 'Inserted', count(batch.insertedCount)],
+    [catalog ? 'Identical to stored records (unchanged)' : 'Identical to existing rows (skipped)', count(batch.duplicateCount)],
     ['Status', batch.status === 'undone' ? `undone ${batch.undoneAt ? when.format(batch.undoneAt) : ''} by ${batch.undoneByName ?? '—'}: “${batch.undoReason}”` : 'committed'],
   ];
 
@@ -98,7 +107,35 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
           </Panel>
         </div>
       </div>
-      <Panel title={`Rows (${count(values.total)}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
+      {createdRecords.length > 0 && (
+        <Panel title={`Records this import created (${count(createdRecords.length)}${createdRecords.length >= 200 ? ', first 200 of each kind' : ''})`}>
+          <ScrollRegion label="Records this import created">
+            <table className="w-full text-sm" data-testid="import-created-records">
+              <thead className="text-left text-xs text-ink-muted">
+                <tr>
+                  <th className="pb-2 font-medium">Kind</th>
+                  <th className="pb-2 font-medium">Handle</th>
+                  <th className="pb-2 font-medium">Detail</th>
+                  <th className="pb-2 font-medium">Status</th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-rule">
+                {createdRecords.map((r) => (
+                  <tr key={r.id} className={r.retractedAt ? 'text-ink-muted line-through decoration-ink-faint' : ''}>
+                    <td className="py-1.5 pr-3">{r.what}</td>
+                    <td className="py-1.5 pr-3">
+                      <Link href={r.href}>{r.handle}</Link>
+                    </td>
+                    <td className="py-1.5 pr-3">{r.detail ?? '—'}</td>
+                    <td className="py-1.5">{r.retractedAt ? 'retracted' : 'live'}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </ScrollRegion>
+        </Panel>
+      )}
+      {!catalog && <Panel title={`Rows (${count(values.total)}${values.total > SAMPLE_ROWS ? `, first ${SAMPLE_ROWS}` : ''})`}>
         <ScrollRegion label="Rows of this import">
           <table className="w-full text-sm" data-testid="import-rows">
             <thead className="text-left text-xs text-ink-muted">
@@ -125,7 +162,7 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
             </tbody>
           </table>
         </ScrollRegion>
-      </Panel>
+      </Panel>}
     </div>
   );
 }

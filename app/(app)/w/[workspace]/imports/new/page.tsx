@@ -15,8 +15,9 @@ export default async function NewImportPage({ params }: { params: Promise<{ work
         </p>
         <h1>New import</h1>
         <p className="max-w-3xl text-sm text-ink-muted">
-          Every row needs a material, a source and (for calculations) a method that already exist in this workspace. The file is checked in your browser, then
-          again on the server; it is imported completely or not at all. Only one value to add? Use the single-entry form for a{' '}
+          Every measurement or calculation row needs a material, a source and (for calculations) a method that already exist in this workspace, or, for
+          calculations, the choice to create missing materials and methods from the row’s catalogue columns. Materials, methods and sources themselves can be
+          imported in bulk too. The file is checked in your browser, then again on the server; it is imported completely or not at all. Only one value to add? Use the single-entry form for a{' '}
           <Link href={`/w/${ctx.workspace.slug}/measurements/new`}>measurement</Link> or a <Link href={`/w/${ctx.workspace.slug}/calculations/new`}>calculation</Link>.
         </p>
       </header>

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { AppError } from '@/lib/errors';
 import { workspaceRoute } from '@/lib/route';
 import { isImportableKind } from '@/lib/import/columns';
+import { isCatalogKind } from '@/lib/import/catalog-columns';
 import { templateCsv, templateFileName } from '@/lib/import/templates';
 import { DOS_TEMPLATE_FILE_NAME, dosTemplateCsv } from '@/lib/import/dos-template';
 
@@ -13,7 +14,7 @@ export const GET = workspaceRoute('imports:read', z.object({ workspaceId: z.stri
       headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${DOS_TEMPLATE_FILE_NAME}"` },
     });
   }
-  if (!isImportableKind(kind)) throw new AppError('not-found', 'Templates exist for measurements, calculations and dos.');
+  if (!isImportableKind(kind) && !isCatalogKind(kind)) throw new AppError('not-found', 'Templates exist for measurements, calculations, dos, materials, methods and sources.');
   return new Response(templateCsv(kind), {
     headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${templateFileName(kind)}"` },
   });
