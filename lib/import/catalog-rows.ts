@@ -14,7 +14,10 @@
  * value. Two rows of one file with the same identity are refused.
  */
 import type { z } from 'zod';
-import { deriveMaterial, materialInputSchema } from '@/lib/catalog/material-schema';
+import { materialInputSchema } from '@/lib/catalog/material-schema';
+import { requiredText } from '@/lib/catalog/fields';
+import { crystalSystem } from '@/lib/science/symmetry';
+import { ScienceInputError } from '@/lib/science/errors';
 import { methodInputSchema } from '@/lib/catalog/method-schema';
 import { sourceInputSchema, type SourceInput } from '@/lib/catalog/source-schema';
 import { storedSource } from '@/lib/citations/stored';
@@ -131,26 +134,37 @@ function pushIssues(row: number, kind: CatalogKind, issues: readonly z.core.$Zod
   }
 }
 
+/** The material form's schema with the formula taken as text: the row parses it once, for the check and the derived fields alike. */
+const materialRowSchema = materialInputSchema.extend({ formula: requiredText('A formula', 200) });
+
 function materialRow(row: number, read: CellReader, columnName: (key: string) => string, errors: RowError[]): CatalogRow<'materials'> | null {
   const { input, given } = readInput('materials', read);
-  const parsed = materialInputSchema.safeParse(input);
+  const parsed = materialRowSchema.safeParse(input);
+  let formula: ReturnType<typeof parseFormula> | null = null;
+  const formulaText = parsed.success ? parsed.data.formula : typeof input.formula === 'string' ? input.formula : null;
+  if (formulaText) {
+    try {
+      formula = parseFormula(formulaText);
+    } catch (e) {
+      if (!(e instanceof ScienceInputError)) throw e;
+      errors.push({ row, column: columnName('formula'), reason: e.message.replace(/^formula: /, 'Formula '), value: excerpt(formulaText) });
+    }
+  }
   if (!parsed.success) {
     pushIssues(row, 'materials', parsed.error.issues, input, columnName, errors);
     return null;
   }
+  if (!formula) return null;
   const m = parsed.data;
-  const derived = deriveMaterial(m);
-  if (m.atomsInCell !== undefined) {
-    const perUnit = parseFormula(m.formula).atomsPerReducedFormulaUnit;
-    if (formulaUnitsInCell(m.atomsInCell, perUnit) === null) {
-      errors.push({
-        row,
-        column: columnName('atoms_in_cell'),
-        reason: `${m.atomsInCell} atoms contradict the formula ${m.formula}: a primitive cell holds a whole number of formula units of ${perUnit} atoms (${derived.reducedFormula}), so 1×, 2×, … ${perUnit}.`,
-        value: excerpt(String(input.atomsInCell)),
-      });
-      return null;
-    }
+  if (m.atomsInCell !== undefined && formulaUnitsInCell(m.atomsInCell, formula.atomsPerReducedFormulaUnit) === null) {
+    const perUnit = formula.atomsPerReducedFormulaUnit;
+    errors.push({
+      row,
+      column: columnName('atoms_in_cell'),
+      reason: `${m.atomsInCell} atoms contradict the formula ${m.formula}: a primitive cell holds a whole number of formula units of ${perUnit} atoms (${formula.reduced}), so 1×, 2×, … ${perUnit}.`,
+      value: excerpt(String(input.atomsInCell)),
+    });
+    return null;
   }
   if (given.has('formula')) {
     given.add('reducedFormula');
@@ -165,11 +179,12 @@ function materialRow(row: number, read: CellReader, columnName: (key: string) =>
       name: m.name,
       displayName: m.displayName ?? null,
       formula: m.formula,
-      reducedFormula: derived.reducedFormula,
-      atomsPerFormulaUnit: derived.atomsPerFormulaUnit,
-      elementCounts: derived.elementCounts,
+      // as deriveMaterial (lib/catalog/material-schema.ts) derives them for the form
+      reducedFormula: formula.reduced,
+      atomsPerFormulaUnit: formula.atomsPerFormulaUnit,
+      elementCounts: formula.counts,
       spaceGroup: m.spaceGroup ?? null,
-      crystalSystem: derived.crystalSystem,
+      crystalSystem: m.spaceGroup ? crystalSystem(m.spaceGroup) : null,
       atomsInCell: m.atomsInCell ?? null,
       externalId: m.externalId ?? null,
       // Stored tags have no order: compare and store them sorted.
