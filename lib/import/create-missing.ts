@@ -91,10 +91,15 @@ export class MissingCatalog {
       fail('material', `Unknown material "${excerpt(name)}". To create it in this import, fill material_formula (and material_space_group, material_atoms_in_cell).`, name);
       return null;
     }
-    const checked = this.check(row, 'materials', { name, ...cellsOf(MATERIAL_CELLS, read) }, MATERIAL_CELLS, fail);
-    if (!checked) return null;
-    const record = checked.record as MaterialRecord;
     const known = this.materials.get(name);
+    const cells = cellsOf(MATERIAL_CELLS, read);
+    // A later row naming a new material need not repeat its formula; the cells it does fill must agree.
+    const inherited = known !== undefined && (cells.formula ?? '').trim() === '';
+    if (inherited) cells.formula = known.record.formula;
+    const checked = this.check(row, 'materials', { name, ...cells }, MATERIAL_CELLS, fail);
+    if (!checked) return null;
+    if (inherited) (checked.given as Set<string>).delete('formula');
+    const record = checked.record as MaterialRecord;
     if (known) {
       if (!this.consistent(known, checked.given, record, MATERIAL_CELLS, 'material', name, fail)) return null;
       return { id: known.id, atomsPerFormulaUnit: known.record.atomsPerFormulaUnit, atomsInCell: known.record.atomsInCell };
@@ -115,9 +120,13 @@ export class MissingCatalog {
       fail('method', `Unknown method "${excerpt(label)}". To create it in this import, fill method_functional (and the other method_ columns of its recipe).`, label);
       return null;
     }
-    const checked = this.check(row, 'methods', { label, ...cellsOf(METHOD_CELLS, read) }, METHOD_CELLS, fail);
-    if (!checked) return null;
     const known = this.methods.get(label);
+    const cells = cellsOf(METHOD_CELLS, read);
+    const inherited = known !== undefined && (cells.functional ?? '').trim() === '';
+    if (inherited) cells.functional = known.record.functional;
+    const checked = this.check(row, 'methods', { label, ...cells }, METHOD_CELLS, fail);
+    if (!checked) return null;
+    if (inherited) (checked.given as Set<string>).delete('functional');
     if (known) return this.consistent(known, checked.given, checked.record as MethodRecord, METHOD_CELLS, 'method', label, fail) ? known.id : null;
     const id = this.newId();
     const record = checked.record as MethodRecord;

@@ -1,0 +1,97 @@
+import { describe, expect, it } from 'vitest';
+import { formulaUnitsInCell } from '@/lib/science/formula';
+import { changedRowErrors, planCatalogImport, validateCatalogRow, type CatalogRow, type Stored } from '@/lib/import/catalog-rows';
+import { MissingCatalog } from '@/lib/import/create-missing';
+import type { RowError } from '@/lib/import/errors';
+
+const reader = (cells: Record<string, string>) => (key: string) => cells[key];
+const same = (key: string) => key;
+
+function material(row: number, cells: Record<string, string>) {
+  const errors: RowError[] = [];
+  return { checked: validateCatalogRow('materials', row, reader(cells), same, errors) as CatalogRow<'materials'> | null, errors };
+}
+
+describe('formulaUnitsInCell (common practice: a cell holds a whole number of formula units)', () => {
+  it('counts Z for wurtzite GaN (4 atoms), rocksalt NaCl (2) and cubic SrTiO3 (5), and refuses counts that are no multiple', () => {
+    expect(formulaUnitsInCell(4, 2)).toBe(2);
+    expect(formulaUnitsInCell(2, 2)).toBe(1);
+    expect(formulaUnitsInCell(5, 5)).toBe(1);
+    expect(formulaUnitsInCell(3, 2)).toBeNull();
+    expect(formulaUnitsInCell(1, 2)).toBeNull();
+    expect(formulaUnitsInCell(0, 1)).toBeNull();
+  });
+  it('does not judge formulas with fractional occupancies (sites, not atoms)', () => {
+    expect(formulaUnitsInCell(7, 2.33)).toBeNaN();
+  });
+});
+
+describe('validateCatalogRow (materials)', () => {
+  it('derives the reduced formula, atoms per formula unit and crystal system; tags are sorted and unique', () => {
+    const { checked, errors } = material(2, { name: 'GaN-wz', formula: 'Ga2N2', space_group: '186', atoms_in_cell: '4', tags: 'Semiconductor, nitride, semiconductor' });
+    expect(errors).toEqual([]);
+    expect(checked?.record).toMatchObject({ reducedFormula: 'GaN', atomsPerFormulaUnit: 4, crystalSystem: 'hexagonal', atomsInCell: 4, tags: ['nitride', 'semiconductor'] });
+    expect([...checked!.given]).toEqual(expect.arrayContaining(['name', 'formula', 'spaceGroup', 'atomsInCell', 'tags', 'reducedFormula', 'crystalSystem']));
+    expect(checked!.given.has('externalId')).toBe(false);
+  });
+  it('names the column of each bad cell', () => {
+    const { checked, errors } = material(3, { name: 'bad name!', formula: 'Zz3', space_group: '0', atoms_in_cell: 'four' });
+    expect(checked).toBeNull();
+    expect(errors.map((e) => e.column).sort()).toEqual(['atoms_in_cell', 'formula', 'name', 'space_group']);
+    expect(errors.every((e) => e.row === 3)).toBe(true);
+  });
+});
+
+describe('planCatalogImport (materials)', () => {
+  const stored: Array<Stored<'materials'>> = [
+    { id: 'm1', retracted: false, name: 'GaN-wz', displayName: null, formula: 'GaN', reducedFormula: 'GaN', atomsPerFormulaUnit: 2, elementCounts: { Ga: 1, N: 1 }, spaceGroup: 186, crystalSystem: 'hexagonal', atomsInCell: 4, externalId: 'x-1', tags: ['nitride'] },
+    { id: 'm2', retracted: true, name: 'Old-1', displayName: null, formula: 'MgO', reducedFormula: 'MgO', atomsPerFormulaUnit: 2, elementCounts: { Mg: 1, O: 1 }, spaceGroup: 225, crystalSystem: 'cubic', atomsInCell: 2, externalId: null, tags: [] },
+  ];
+  const rows = (list: Array<Record<string, string>>) => list.map((cells, i) => material(i + 2, cells).checked!);
+
+  it('sorts rows into created, unchanged and changed, and reports in-file duplicates and taken names', () => {
+    const plan = planCatalogImport(
+      'materials',
+      rows([
+        { name: 'GaN-wz', formula: 'GaN', space_group: '186' },
+        { name: 'GaN-renamed', formula: 'GaN', external_id: 'x-1' },
+        { name: 'GaN-wz', formula: 'GaN', space_group: '216' },
+        { name: 'AlN-wz', formula: 'AlN', space_group: '186', atoms_in_cell: '4' },
+        { name: 'AlN-wz', formula: 'AlN', space_group: '186', atoms_in_cell: '4' },
+        { name: 'Old-1', formula: 'MgO', space_group: '225' },
+      ]),
+      stored,
+      same,
+    );
+    expect(plan.unchanged).toEqual([{ row: 2, id: 'm1', handle: 'GaN-wz' }]);
+    expect(plan.changed.map((c) => [c.row, c.id, c.changes.map((x) => x.column)])).toEqual([[3, 'm1', ['name']]]);
+    expect(plan.creates.map((c) => c.row)).toEqual([5, 7]);
+    expect(plan.errors.map((e) => [e.row, e.column])).toEqual([
+      [4, 'name'],
+      [6, 'name'],
+    ]);
+    const messages = changedRowErrors('materials', plan.changed);
+    expect(messages[0]).toMatchObject({ row: 3, column: 'name', value: 'GaN-renamed' });
+    expect(messages[0].reason).toContain('stored GaN-wz, this file GaN-renamed');
+  });
+});
+
+describe('MissingCatalog (createMissing)', () => {
+  it('creates a material once, resolves later rows to it, and flags a later row whose catalogue cells disagree', () => {
+    const references = { materials: new Map(), sources: new Map(), methods: new Map() };
+    let n = 0;
+    const missing = new MissingCatalog(references, same, new Set(['Retired-method']), () => `new-${++n}`);
+    const errors: Array<[string, string]> = [];
+    const fail = (key: string, reason: string) => errors.push([key, reason]);
+    const cells = { material_formula: 'NaCl', material_space_group: '225', material_atoms_in_cell: '2' };
+    expect(missing.material(2, 'NaCl-rs', reader(cells), fail)).toMatchObject({ id: 'new-1', atomsPerFormulaUnit: 2, atomsInCell: 2 });
+    expect(missing.material(3, 'NaCl-rs', reader({}), fail)?.id).toBe('new-1');
+    expect(missing.material(4, 'NaCl-rs', reader({ ...cells, material_space_group: '221' }), fail)).toBeNull();
+    expect(errors).toEqual([['material_space_group', expect.stringContaining('Conflicts with row 2')]]);
+    expect(missing.method(5, 'Retired-method', reader({ method_functional: 'PBE' }), fail)).toBeNull();
+    expect(missing.method(6, 'Fresh', reader({}), fail)).toBeNull();
+    expect(errors.slice(1).map((e) => e[0])).toEqual(['method', 'method']);
+    expect(missing.takeNew().materials.map((m) => m.id)).toEqual(['new-1']);
+    expect(references.materials.get('NaCl-rs')?.id).toBe('new-1');
+  });
+});
