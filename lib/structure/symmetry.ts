@@ -5,7 +5,8 @@
  * The package is built for the web (wasm-bindgen `--target web`): its default loader fetches the .wasm
  * beside its own URL, which Node's fetch cannot do for file: URLs. So the bytes are read here and handed to
  * `initSync`. In Next.js the package is listed in `serverExternalPackages` (next.config.mjs), so it is
- * loaded from node_modules at run time and not bundled; the .wasm file is found through Node's resolver.
+ * loaded from node_modules at run time and not bundled (the dynamic import below); the .wasm file is read
+ * from beside the package's main file.
  */
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -18,7 +19,7 @@ import { atomicNumber } from '@/lib/science/structure';
  * Structure files carry coordinates to 4–6 decimals (a rounding of 0.3333 for 1/3 in a 5 Å cell is
  * 1.7·10⁻⁴ Å), and relaxed DFT cells break symmetry by 10⁻⁴–10⁻³ Å; 0.01 Å sits well above both and well
  * below real distortions (0.05 Å and more). It is the default of pymatgen's SpacegroupAnalyzer — from memory.
- * A looser tolerance finds a higher group in a slightly distorted cell; see the unit tests.
+ * A looser tolerance finds a higher group in a slightly distorted cell; see tests/unit/structure/derive.test.ts.
  */
 export const DEFAULT_SYMPREC = 0.01;
 
@@ -28,7 +29,11 @@ export type SymmetryResult =
 
 interface MoyoModule {
   initSync(module: { module: BufferSource }): unknown;
-  analyze_cell(cellJson: string, symprec: number, setting: string): {
+  analyze_cell(
+    cellJson: string,
+    symprec: number,
+    setting: string,
+  ): {
     number: number;
     hall_number: number;
     hm_symbol: string;
@@ -36,16 +41,21 @@ interface MoyoModule {
   };
 }
 
+const PACKAGE = '@spglib/moyo-wasm';
+const WASM_FILE = 'moyo_wasm_bg.wasm';
+
 let loading: Promise<MoyoModule | null> | null = null;
 let loadError: string | null = null;
 
+/**
+ * Where moyo_wasm_bg.wasm lies: beside the package's main file, found by Node's resolver from the app root
+ * (process.cwd(), where `npm run start`, `next` and vitest run). Two things a bundler must not see: a request
+ * for the .wasm itself (Turbopack would compile it into the bundle and fail), and `createRequire(import.meta.url)`
+ * (Turbopack replaces its `resolve()` with a module id). A resolver made from a run-time path is left alone.
+ */
 function wasmPath(): string {
-  try {
-    return createRequire(import.meta.url).resolve('@spglib/moyo-wasm/moyo_wasm_bg.wasm');
-  } catch {
-    // Inside a bundle import.meta.url may not point into the project; the package sits under the app root.
-    return path.join(process.cwd(), 'node_modules', '@spglib', 'moyo-wasm', 'moyo_wasm_bg.wasm');
-  }
+  const main = createRequire(path.join(process.cwd(), 'package.json')).resolve(PACKAGE);
+  return path.join(path.dirname(main), WASM_FILE);
 }
 
 async function loadMoyo(): Promise<MoyoModule | null> {
@@ -68,9 +78,9 @@ export function symmetryUnavailableReason(): string | null {
 }
 
 /**
- * Space group (ITA number 1–230, Hermann–Mauguin symbol) and the number of atoms in the primitive cell.
- * Returns null when the WebAssembly module cannot be loaded in this environment (the reason is in
- * symmetryUnavailableReason()); `{ ok: false }` when moyo refuses the cell (e.g. atoms on top of each other).
+ * Space group (ITA number 1–230, Hermann–Mauguin symbol) and the number of atoms in the primitive cell,
+ * at distance tolerance `symprec` (Å). Returns null when the WebAssembly module cannot be loaded in this
+ * environment (the reason is in symmetryUnavailableReason()); `{ ok: false }` when moyo refuses the cell.
  */
 export async function findSymmetry(cell: Cell, symprec: number = DEFAULT_SYMPREC): Promise<SymmetryResult | null> {
   if (!(symprec > 0)) throw new Error(`symprec must be a positive distance in Å, got ${symprec}`);
@@ -83,7 +93,9 @@ export async function findSymmetry(cell: Cell, symprec: number = DEFAULT_SYMPREC
   };
   try {
     const data = moyo.analyze_cell(JSON.stringify(input), symprec, 'Standard');
-    if (!Number.isInteger(data.number) || data.number < 1 || data.number > 230) return { ok: false, reason: `The symmetry search returned space group ${data.number}, outside 1–230.` };
+    if (!Number.isInteger(data.number) || data.number < 1 || data.number > 230) {
+      return { ok: false, reason: `The symmetry search returned space group ${data.number}, outside 1–230.` };
+    }
     return { ok: true, spaceGroup: data.number, hmSymbol: data.hm_symbol, hallNumber: data.hall_number, atomsInPrimitiveCell: data.prim_std_cell.numbers.length, symprec };
   } catch (e) {
     const message = e instanceof Error ? e.message : String(e);
