@@ -3,7 +3,7 @@
  * cell, space group. The catalogue import compares these with the typed values.
  */
 import { cellFormula, parseStructure, type Cell, type StructureFormat } from '@/lib/science/structure';
-import { DEFAULT_SYMPREC, findSymmetry } from './symmetry';
+import { DEFAULT_SYMPREC, findSymmetry, MAX_SYMMETRY_ATOMS, symmetryUnavailableReason } from './symmetry';
 
 export type { StructureFormat } from '@/lib/science/structure';
 export type { Cell } from '@/lib/science/structure';
@@ -17,11 +17,13 @@ export type DerivedStructure = {
   reducedFormula: string;
   /** Atoms in the cell as given (for a CIF: after applying its symmetry operations). */
   atomsInConventionalInput: number;
-  /** Atoms in the primitive cell found by the symmetry search; null when symmetry is unavailable. */
+  /** Atoms in the primitive cell found by the symmetry search; null when it was not run (see symmetryNote). */
   atomsInPrimitiveCell: number | null;
-  /** ITA space-group number 1–230 at DEFAULT_SYMPREC; null when symmetry is unavailable. */
+  /** ITA space-group number 1–230 at DEFAULT_SYMPREC; null when the search was not run (see symmetryNote). */
   spaceGroup: number | null;
   cell: Cell;
+  /** Why spaceGroup and atomsInPrimitiveCell are null: a cell over MAX_SYMMETRY_ATOMS, or the library failed to load. */
+  symmetryNote?: string;
 };
 
 export type StructureFailure = { ok: false; reason: string; line?: number };
@@ -37,16 +39,12 @@ export async function deriveStructure(text: string, options: DeriveOptions = {})
   if (!parsed.ok) return { ok: false, reason: parsed.reason, ...(parsed.line ? { line: parsed.line } : {}) };
   const { cell } = parsed;
   const { formula, reducedFormula } = cellFormula(cell.species);
+  const base = { ok: true as const, format: parsed.format, formula, reducedFormula, atomsInConventionalInput: cell.species.length, cell };
+  if (cell.species.length > MAX_SYMMETRY_ATOMS) {
+    return { ...base, atomsInPrimitiveCell: null, spaceGroup: null, symmetryNote: `Space group not derived: the cell has ${cell.species.length} atoms, more than the ${MAX_SYMMETRY_ATOMS} the symmetry search takes.` };
+  }
   const symmetry = await findSymmetry(cell, options.symprec ?? DEFAULT_SYMPREC);
-  if (symmetry && !symmetry.ok) return { ok: false, reason: symmetry.reason };
-  return {
-    ok: true,
-    format: parsed.format,
-    formula,
-    reducedFormula,
-    atomsInConventionalInput: cell.species.length,
-    atomsInPrimitiveCell: symmetry ? symmetry.atomsInPrimitiveCell : null,
-    spaceGroup: symmetry ? symmetry.spaceGroup : null,
-    cell,
-  };
+  if (!symmetry) return { ...base, atomsInPrimitiveCell: null, spaceGroup: null, symmetryNote: `Space group not derived: the symmetry library did not load (${symmetryUnavailableReason() ?? 'unknown reason'}).` };
+  if (!symmetry.ok) return { ok: false, reason: symmetry.reason };
+  return { ...base, atomsInPrimitiveCell: symmetry.atomsInPrimitiveCell, spaceGroup: symmetry.spaceGroup };
 }

@@ -216,3 +216,33 @@ export function cellFormula(species: readonly string[]): { formula: string; redu
   const parsed = parseFormula(formula);
   return { formula, reducedFormula: parsed.reduced, counts: parsed.counts };
 }
+
+/**
+ * The first pair of atoms (0-based indices, in input order) closer than `tolerance` Å over the periodic images,
+ * or null. Grid-bucketed like mergeCoincident, so about linear in the number of atoms.
+ */
+export function findCoincident(lattice: Matrix3, fractional: readonly Vector3[], tolerance = SAME_POSITION_TOLERANCE): [number, number] | null {
+  const inv = inverse(lattice);
+  const recip = [0, 1, 2].map((i) => Math.hypot(inv[0][i], inv[1][i], inv[2][i]));
+  const bins = recip.map((r) => Math.max(1, Math.min(1000, Math.floor(1 / (tolerance * r * 1.0001)))));
+  const grid = new Map<string, number[]>();
+  const wrapped = fractional.map((f) => f.map(wrapCoordinate) as Vector3);
+  for (let n = 0; n < wrapped.length; n++) {
+    const b = wrapped[n].map((v, axis) => Math.min(bins[axis] - 1, Math.floor(v * bins[axis])));
+    for (let di = -1; di <= 1; di++) {
+      for (let dj = -1; dj <= 1; dj++) {
+        for (let dk = -1; dk <= 1; dk++) {
+          const k = `${(b[0] + di + bins[0]) % bins[0]},${(b[1] + dj + bins[1]) % bins[1]},${(b[2] + dk + bins[2]) % bins[2]}`;
+          for (const m of grid.get(k) ?? []) {
+            if (periodicDistance(lattice, wrapped[n], wrapped[m]) < tolerance) return [m, n];
+          }
+        }
+      }
+    }
+    const own = `${b[0]},${b[1]},${b[2]}`;
+    const list = grid.get(own);
+    if (list) list.push(n);
+    else grid.set(own, [n]);
+  }
+  return null;
+}

@@ -12,7 +12,7 @@
  * Without any operations the sites are taken as the full cell (P1), unless a space-group symbol other than
  * P 1 is given, which is refused (the file then holds only the asymmetric unit and no way to expand it).
  */
-import { fail, latticeFromParameters, mergeCoincident, StructureInputError, validateCell, elementFromLabel, type Cell, type CellResult, type Vector3, SAME_POSITION_TOLERANCE } from './cell';
+import { fail, MAX_STRUCTURE_ATOMS, latticeFromParameters, mergeCoincident, StructureInputError, validateCell, elementFromLabel, type Cell, type CellResult, type Vector3, SAME_POSITION_TOLERANCE } from './cell';
 
 interface Token {
   value: string;
@@ -249,7 +249,9 @@ function readCif(text: string): Cell {
     sitePositions.push(xyz);
   }
 
+  if (sitePositions.length > MAX_STRUCTURE_ATOMS) fail(`The file lists ${sitePositions.length.toLocaleString('en')} atom sites; at most ${MAX_STRUCTURE_ATOMS.toLocaleString('en')} atoms are accepted.`, sites.line);
   const operations = readOperations(block);
+  if (operations.length > 192 * 8) fail(`The file lists ${operations.length} symmetry operations; a space group has at most 192 in its conventional cell.`);
   const allF: Vector3[] = [];
   const allS: string[] = [];
   for (let s = 0; s < sitePositions.length; s++) {

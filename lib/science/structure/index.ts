@@ -14,6 +14,7 @@ export {
   elementFromLabel,
   latticeFromParameters,
   mergeCoincident,
+  findCoincident,
   periodicDistance,
   toCartesian,
   toFractional,

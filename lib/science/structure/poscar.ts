@@ -18,7 +18,7 @@
  * count ("Na Cl"). Otherwise it is refused, since the file itself does not say which atoms it holds.
  */
 import { isElementSymbol } from '../elements';
-import { fail, MAX_STRUCTURE_ATOMS, StructureInputError, toFractional, type Cell, type CellResult, type Matrix3, type Vector3, validateCell, cellVolume, MIN_CELL_VOLUME } from './cell';
+import { fail, findCoincident, periodicDistance, SAME_POSITION_TOLERANCE, MAX_STRUCTURE_ATOMS, StructureInputError, toFractional, type Cell, type CellResult, type Matrix3, type Vector3, validateCell, cellVolume, MIN_CELL_VOLUME } from './cell';
 
 export interface PoscarOptions {
   /** Element symbols, one per count, for the old (VASP 4) layout without an element line. */
@@ -168,6 +168,12 @@ function readPoscar(text: string, options: PoscarOptions): Cell {
     // A degenerate lattice is a fault of lines 3–5.
     if (e instanceof StructureInputError && /degenerate/.test(e.message) && !e.line) throw new StructureInputError(e.message, 3);
     throw e;
+  }
+  const pair = findCoincident(lattice, fractional);
+  if (pair) {
+    const [i, j] = pair;
+    const d = periodicDistance(lattice, fractional[i], fractional[j]);
+    fail(`Lines ${next + i + 1} and ${next + j + 1}: atoms ${i + 1} (${atomSpecies[i]}) and ${j + 1} (${atomSpecies[j]}) are ${d.toFixed(4)} Å apart, closer than ${SAME_POSITION_TOLERANCE} Å: two atoms on one position.`, next + j + 1);
   }
   return cell;
 }

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { deriveStructure, type DerivedStructure } from '@/lib/structure/derive';
-import { DEFAULT_SYMPREC, findSymmetry, symmetryUnavailableReason } from '@/lib/structure/symmetry';
+import { DEFAULT_SYMPREC, findSymmetry, MAX_SYMMETRY_ATOMS, symmetryUnavailableReason } from '@/lib/structure/symmetry';
 import { parsePoscar, type Cell } from '@/lib/science/structure';
 
 const file = (name: string) => readFileSync(new URL(`../../../data/structures/${name}`, import.meta.url), 'utf8');
@@ -66,6 +66,23 @@ describe('deriveStructure: space group and primitive cell through moyo (WebAssem
     };
     const r = await derived(poscarText(supercell, 'NaCl 2x1x1 supercell (test)'));
     expect(r).toMatchObject({ formula: 'Na8Cl8', reducedFormula: 'NaCl', atomsInConventionalInput: 16, atomsInPrimitiveCell: 2, spaceGroup: 225 });
+  });
+
+  it('a cell over MAX_SYMMETRY_ATOMS keeps formula and atom count, and says why there is no space group', async () => {
+    const cell = (parsePoscar(file('NaCl-rocksalt.POSCAR')) as { ok: true; cell: Cell }).cell;
+    const n = 3; // 3×3×4 conventional cells: 288 atoms
+    const big: Cell = { lattice: [cell.lattice[0].map((v) => n * v), cell.lattice[1].map((v) => n * v), cell.lattice[2].map((v) => 4 * v)] as Cell['lattice'], fractional: [], species: [] };
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) for (let k = 0; k < 4; k++) {
+      cell.fractional.forEach((f, m) => {
+        big.fractional.push([(f[0] + i) / n, (f[1] + j) / n, (f[2] + k) / 4]);
+        big.species.push(cell.species[m]);
+      });
+    }
+    expect(big.species.length).toBeGreaterThan(MAX_SYMMETRY_ATOMS);
+    const r = await derived(poscarText(big, 'NaCl 3x3x4 supercell (test)'));
+    expect(r).toMatchObject({ reducedFormula: 'NaCl', formula: 'Na144Cl144', atomsInConventionalInput: 288, spaceGroup: null, atomsInPrimitiveCell: null });
+    expect(r.symmetryNote).toMatch(/288 atoms, more than the 250/);
+    expect(await findSymmetry(big)).toMatchObject({ ok: false, reason: expect.stringContaining('at most 250 atoms') as unknown });
   });
 
   it('a slightly distorted cell: the tolerance (symprec) decides whether the distortion counts', async () => {

@@ -125,6 +125,20 @@ describe('POSCAR', () => {
     expect(parsePoscar(lines.join('\n'))).toEqual({ ok: false, reason: 'Line 11: expected 3 numbers for the position of atom 3, found 2.', line: 11 });
   });
 
+  it('refuses two atoms on one position (closer than 0.01 Å, across the periodic boundary too), naming both lines', () => {
+    const lines = NACL_DIRECT.split('\n');
+    lines[13] = '  0.9999990000  0.5000000000  0.5000000000'; // line 14, Cl, 0.000006 Å from the Na of line 10 (0, 1/2, 1/2)
+    expect(parsePoscar(lines.join('\n'))).toEqual({
+      ok: false,
+      reason: 'Lines 10 and 14: atoms 2 (Na) and 6 (Cl) are 0.0000 Å apart, closer than 0.01 Å: two atoms on one position.',
+      line: 14,
+    });
+    lines[13] = '  0.0010000000  0.5000000000  0.5000000000'; // 0.0056 Å away: still refused
+    expect(parsePoscar(lines.join('\n'))).toMatchObject({ ok: false, line: 14 });
+    lines[13] = '  0.0020000000  0.5000000000  0.5000000000'; // 0.0113 Å away: two distinct (if odd) positions
+    expect(parsePoscar(lines.join('\n')).ok).toBe(true);
+  });
+
   it('refuses positions that end early, and counts that do not match the elements', () => {
     const short = NACL_DIRECT.split('\n').slice(0, 14).join('\n');
     expect(parsePoscar(short)).toMatchObject({ ok: false, line: 15, reason: expect.stringContaining('atom 7 of 8') as unknown });
