@@ -1,4 +1,7 @@
 import { z } from 'zod';
+import { materialInputSchema } from '@/lib/catalog/material-schema';
+import { methodInputSchema } from '@/lib/catalog/method-schema';
+import { sourceInputSchema } from '@/lib/catalog/source-schema';
 import {
   benchmarkSchema,
   benchmarkStatusSchema,
@@ -31,6 +34,12 @@ function jsonSchema(schema: z.ZodType, io: 'input' | 'output'): JsonSchema {
   const out = z.toJSONSchema(schema, { target: 'draft-2020-12', io, unrepresentable: 'any' }) as JsonSchema;
   delete out.$schema;
   return out;
+}
+
+/** A PATCH body: the input's fields, none required, null allowed to clear an optional one. */
+function patchOf(input: JsonSchema, title: string): JsonSchema {
+  const { required: _required, ...rest } = input;
+  return { ...rest, title, description: 'Only the fields to change; the merged record must still satisfy the create schema.' };
 }
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
@@ -172,6 +181,41 @@ function benchmarkPaths() {
 }
 const valueFilterParameters = ['material', 'source', 'import'].map((name) => ({ name, in: 'query', required: false, schema: { type: 'string' }, description: `Only rows of this ${name} id.` }));
 
+/** POST /{plural} and PATCH /{plural}/{id} of a catalogue record, added to readPaths' entries. */
+function writeOperations(plural: string, tag: string, item: string) {
+  const Item = `${item[0].toUpperCase()}${item.slice(1)}`;
+  return {
+    post: {
+      tags: [tag],
+      summary: `Create one ${item}`,
+      description: `The fields of the web form, validated by the same schema. Bulk: POST /imports?kind=${plural}. A taken ${
+        { material: 'name', method: 'label', source: 'cite key or DOI' }[item]
+      } is 409 with the field named; invalid fields are 422 with \`fields\` [{ path, message }].`,
+      parameters: [idempotencyKeyParameter],
+      requestBody: { required: true, content: { 'application/json': { schema: ref(`${Item}Input`) } } },
+      responses: {
+        '201': { description: `Created (Location: /api/v1/${plural}/{id})`, content: { 'application/json': { schema: ref(Item) } } },
+        ...problems(400, 401, 403, 409, 422),
+      },
+    },
+    patch: {
+      tags: [tag],
+      summary: `Change some fields of one ${item}`,
+      description: 'Send only the fields to change (null clears an optional one); they are laid over the stored record and the whole is validated again. A retracted record is 409.',
+      parameters: idParameter,
+      requestBody: { required: true, content: { 'application/json': { schema: ref(`${Item}Patch`) } } },
+      responses: { '200': { description: `The ${item} as saved`, content: { 'application/json': { schema: ref(Item) } } }, ...problems(400, 401, 403, 404, 409, 422) },
+    },
+  };
+}
+
+function withWrites(paths: Record<string, Record<string, unknown>>, plural: string, tag: string, item: string) {
+  const ops = writeOperations(plural, tag, item);
+  paths[`/${plural}`].post = ops.post;
+  paths[`/${plural}/{id}`].patch = ops.patch;
+  return paths;
+}
+
 function readPaths(plural: string, tag: string, item: string, summary: string, extraListParameters: object[] = []) {
   return {
     [`/${plural}`]: {
@@ -211,6 +255,12 @@ export function buildOpenApiDocument(serverUrl: string): JsonSchema {
     MeasurementPage: jsonSchema(pageOf(measurementSchema, 'MeasurementPage'), 'output'),
     Calculation: jsonSchema(calculationSchema, 'output'),
     CalculationPage: jsonSchema(pageOf(calculationSchema, 'CalculationPage'), 'output'),
+    MaterialInput: jsonSchema(materialInputSchema.meta({ title: 'MaterialInput' }), 'input'),
+    MaterialPatch: patchOf(jsonSchema(materialInputSchema, 'input'), 'MaterialPatch'),
+    MethodInput: jsonSchema(methodInputSchema.meta({ title: 'MethodInput' }), 'input'),
+    MethodPatch: patchOf(jsonSchema(methodInputSchema, 'input'), 'MethodPatch'),
+    SourceInput: jsonSchema(sourceInputSchema.meta({ title: 'SourceInput' }), 'input'),
+    SourcePatch: patchOf(jsonSchema(sourceInputSchema, 'input'), 'SourcePatch'),
     BenchmarkSummaryPage: jsonSchema(pageOf(benchmarkSummarySchema, 'BenchmarkSummaryPage'), 'output'),
     Benchmark: jsonSchema(benchmarkSchema, 'output'),
     BenchmarkStatus: jsonSchema(benchmarkStatusSchema, 'output'),
@@ -291,9 +341,9 @@ export function buildOpenApiDocument(serverUrl: string): JsonSchema {
         },
       },
       ...benchmarkPaths(),
-      ...readPaths('materials', 'Materials', 'material', 'MaterialSummary'),
-      ...readPaths('sources', 'Sources', 'source', 'SourceSummary'),
-      ...readPaths('methods', 'Methods', 'method', 'MethodSummary'),
+      ...withWrites(readPaths('materials', 'Materials', 'material', 'MaterialSummary'), 'materials', 'Materials', 'material'),
+      ...withWrites(readPaths('sources', 'Sources', 'source', 'SourceSummary'), 'sources', 'Sources', 'source'),
+      ...withWrites(readPaths('methods', 'Methods', 'method', 'MethodSummary'), 'methods', 'Methods', 'method'),
       ...readPaths('measurements', 'Measurements', 'measurement', 'Measurement', valueFilterParameters),
       ...readPaths('calculations', 'Calculations', 'calculation', 'Calculation', [
         ...valueFilterParameters,

@@ -76,6 +76,12 @@ export const problemSchema = z
     errorCount: z.int().optional().meta({ description: 'On 422: how many errors the body has in all.' }),
     errors: z.array(rowErrorSchema).optional().meta({ description: 'On 422: the first 1,000 errors; a cell is echoed up to 40 characters.' }),
     firstImportId: z.string().optional().meta({ description: 'On 409: the import that already holds this file.' }),
+    field: z.string().optional().meta({ description: 'On 409 of a catalogue write: the field whose value is taken (name, label, citeKey, doi).' }),
+    fields: z
+      .array(z.object({ path: z.string(), message: z.string() }))
+      .optional()
+      .meta({ description: 'On 422 of a catalogue write: every field issue, with its path ("tags.0", "kGrid").' }),
+    idempotencyKey: z.string().optional().meta({ description: 'On 409/422 from the Idempotency-Key check: the key.' }),
   })
   .meta({ title: 'Problem', description: 'RFC 9457 problem details (application/problem+json).' });
 
