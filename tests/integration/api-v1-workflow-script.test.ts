@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFile } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
@@ -49,6 +49,11 @@ afterAll(async () => {
 });
 
 describe('the README workflow script', () => {
+  it('is shown in the README verbatim', () => {
+    const readme = readFileSync(resolve(__dirname, '../../README.md'), 'utf8');
+    expect(readme).toContain('```bash\n' + readFileSync(SCRIPT, 'utf8') + '```');
+  });
+
   it('passes after a good import, replays a retried run, then fails after a bad import', async () => {
     // Three of four materials, every computed peak 4 cm⁻¹ off: MAE 4 on 6 common pairs, coverage 6/8.
     const good = calculationsCsv(['Inv-A', 'Inv-B', 'Inv-C'], (_n, irrep) => (irrep === 'A1g' ? 4 : -4));
