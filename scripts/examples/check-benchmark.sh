@@ -28,7 +28,7 @@ api_get() {
 
 # 1. Push the import. The Idempotency-Key is the file's hash: a retried run of this script replays the stored
 #    answer instead of importing twice (and a changed file gets a new key).
-key="check-benchmark-$(sha256sum "$file" | cut -c1-64)"
+key="check-benchmark-$( (sha256sum "$file" 2>/dev/null || shasum -a 256 "$file") | cut -c1-64)"
 if ! import=$(curl -sS --fail-with-body -X POST "${auth[@]}" \
   -H "Content-Type: text/csv" -H "Idempotency-Key: ${key}" \
   --data-binary @"$file" "${api}/imports?kind=calculations&fileName=$(basename "$file")"); then
