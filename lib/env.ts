@@ -44,6 +44,12 @@ const schema = dbEnvSchema.extend({
   API_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   API_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(600),
   IMPORT_CONCURRENCY_PER_WORKSPACE: z.coerce.number().int().positive().default(2),
+  /** How long a POST's Idempotency-Key and its stored response are kept and replayed (lib/services/idempotency.ts). */
+  IDEMPOTENCY_WINDOW_HOURS: z.coerce
+    .number({ message: 'IDEMPOTENCY_WINDOW_HOURS must be a number of hours.' })
+    .positive('IDEMPOTENCY_WINDOW_HOURS must be more than 0.')
+    .max(24 * 30, 'IDEMPOTENCY_WINDOW_HOURS must be at most 720 (30 days).')
+    .default(24),
 });
 
 export const ENV_SCHEMA = schema;
