@@ -44,6 +44,12 @@ const schema = dbEnvSchema.extend({
   API_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   API_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(600),
   IMPORT_CONCURRENCY_PER_WORKSPACE: z.coerce.number().int().positive().default(2),
+  /** Key for the webhook signing secrets at rest; unset: derived from BETTER_AUTH_SECRET (lib/webhooks/secret-box.ts). */
+  WEBHOOK_SECRET_KEY: z.string().min(32, 'WEBHOOK_SECRET_KEY must be at least 32 characters').optional(),
+  WEBHOOK_TIMEOUT_MS: z.coerce.number({ message: 'WEBHOOK_TIMEOUT_MS must be a number of milliseconds.' }).int().positive().max(120_000).default(10_000),
+  WEBHOOK_MAX_ATTEMPTS: z.coerce.number().int().positive().default(8),
+  /** Read live (envValue): http:// and loopback webhook targets outside development and tests (e.g. a production-mode test server). */
+  WEBHOOK_ALLOW_LOOPBACK: z.enum(['', '0', '1']).default(''),
 });
 
 export const ENV_SCHEMA = schema;
@@ -75,6 +81,11 @@ export function envValue<K extends keyof Env>(name: K): Env[K] {
   const parsed = field.safeParse(raw);
   if (!parsed.success) throw new Error(`${parsed.error.issues[0]?.message ?? `${name} is invalid.`} Got "${raw}". See .env.example.`);
   return parsed.data as Env[K];
+}
+
+/** Loopback webhook targets (and plain http to them): in development and tests, or with WEBHOOK_ALLOW_LOOPBACK=1. */
+export function webhookLoopbackAllowed(): boolean {
+  return envValue('NODE_ENV') !== 'production' || envValue('WEBHOOK_ALLOW_LOOPBACK') === '1';
 }
 
 type MailboxSettings = Pick<Env, 'NODE_ENV' | 'MAILBOX_ENABLED' | 'UNSAFE_MAILBOX_IN_PRODUCTION'>;
