@@ -23,9 +23,16 @@ export function generateWebhookSecret(): string {
   return `whsec_${randomBytes(32).toString('base64url')}`;
 }
 
-/** Lower-case hex HMAC-SHA256 of `${timestamp}.${body}`. The secret's text (prefix included) is the key, as UTF-8. */
+/** Lower-case hex HMAC-SHA256 of a message; a string key is used as its UTF-8 bytes. */
+export function hmacSha256Hex(key: string | Buffer, ...message: Array<string | Buffer>): string {
+  const mac = createHmac('sha256', key);
+  for (const part of message) mac.update(part);
+  return mac.digest('hex');
+}
+
+/** HMAC-SHA256 of `${timestamp}.${body}`. The secret's text (prefix included) is the key, as UTF-8. */
 export function webhookSignature(secret: string, timestamp: number | string, body: string | Buffer): string {
-  return createHmac('sha256', secret).update(`${timestamp}.`).update(body).digest('hex');
+  return hmacSha256Hex(secret, `${timestamp}.`, body);
 }
 
 /** The headers of one delivery (Content-Type aside). */

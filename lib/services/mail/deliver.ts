@@ -98,6 +98,7 @@ export interface WebhookDeliveryConfig {
   leaseMs?: number;
   maxResponseBytes?: number;
   resolve?: Resolver;
+  /** The outbox's clock (claims, back-off). Signatures always carry the wall-clock time a receiver compares with. */
   now?: () => Date;
 }
 
@@ -110,7 +111,7 @@ export async function sendOneWebhook(row: MailOutboxRow, config: WebhookDelivery
   if (secret === null) return { kind: 'permanent', error: 'the signing secret cannot be read with the current key (WEBHOOK_SECRET_KEY changed?): rotate it' };
   return sendWebhook(
     { id: row.id, url: row.toAddress, body: row.textBody, secret, attempt: row.attempts },
-    { timeoutMs: config.timeoutMs, allowLoopback: config.allowLoopback, allowPrivate: context.allowPrivate, maxResponseBytes: config.maxResponseBytes, resolve: config.resolve, now: config.now },
+    { timeoutMs: config.timeoutMs, allowLoopback: config.allowLoopback, allowPrivate: context.allowPrivate, maxResponseBytes: config.maxResponseBytes, resolve: config.resolve },
   );
 }
 
