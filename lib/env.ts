@@ -101,8 +101,11 @@ export function mailboxEnabled(e: MailboxSettings = env()): boolean {
 }
 
 /** Warnings printed at start-up about settings that are unsafe on a server others can reach. */
-export function startupWarnings(e: MailboxSettings = env()): string[] {
+export function startupWarnings(e: MailboxSettings & Partial<Pick<Env, 'WEBHOOK_ALLOW_LOOPBACK'>> = env()): string[] {
   const warnings: string[] = [];
+  if (e.NODE_ENV === 'production' && e.WEBHOOK_ALLOW_LOOPBACK === '1') {
+    warnings.push('WEBHOOK_ALLOW_LOOPBACK=1: webhooks may be sent over plain http to this machine (127.0.0.0/8, ::1, localhost). Use it for a local test server only.');
+  }
   if (e.NODE_ENV === 'production' && mailboxEnabled(e)) {
     warnings.push(
       'UNSAFE_MAILBOX_IN_PRODUCTION=1: /dev/mailbox shows every e-mail, password-reset links included, to loopback clients. ' +

@@ -40,6 +40,13 @@ const config = (over: Partial<WebhookDeliveryConfig> = {}): WebhookDeliveryConfi
   ...over,
 });
 
+/** The secret an action showed once (its state's data). */
+function shownSecret(state: unknown): string {
+  const value = (state as { data?: { secret?: unknown } } | undefined)?.data?.secret;
+  if (typeof value !== 'string') throw new Error('no secret in the action state');
+  return value;
+}
+
 const webhookRows = () => db.select().from(mailOutbox).where(eq(mailOutbox.channel, 'webhook'));
 
 /** Delivery passes, moving the outbox clock past every back-off, until nothing is pending or sending. */
@@ -108,7 +115,7 @@ describe('setting a webhook on a watch', () => {
   it('makes the signing secret on the first URL and shows it once; it is stored encrypted and never read back for display', async () => {
     const res = await callAction(saveWatchWebhookAction, { workspaceId: s.workspaceId, watchId, webhookUrl: hookUrl() });
     expect(res.state).toMatchObject({ ok: true });
-    secret = ((res.state as { data?: { secret?: string } }).data?.secret)!;
+    secret = shownSecret(res.state);
     expect(secret).toMatch(/^whsec_/);
     receiver.setSecret(secret);
     const [w] = await db.select().from(watch).where(eq(watch.id, watchId));
@@ -254,7 +261,7 @@ describe('delivering alerts', () => {
 
   it('a rotated secret signs from then on; the old one no longer verifies', async () => {
     const res = await callAction(rotateWatchWebhookSecretAction, { workspaceId: s.workspaceId, watchId });
-    const next = ((res.state as { data?: { secret?: string } }).data?.secret)!;
+    const next = shownSecret(res.state);
     expect(next).toMatch(/^whsec_/);
     expect(next).not.toBe(secret);
     // the receiver still holds the old secret: refused (401, final)
