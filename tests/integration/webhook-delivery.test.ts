@@ -13,6 +13,7 @@ import { listMyWatches } from '@/db/queries/watches';
 import { deliverDueMail, deliverDueWebhooks, sendOneWebhook, type WebhookDeliveryConfig } from '@/lib/services/mail/deliver';
 import { webhookSecretKey } from '@/lib/services/mail/worker';
 import { whenAlertsIdle } from '@/lib/services/alerts/scheduler';
+import { sendDueDigests } from '@/lib/services/alerts/announce';
 import { startFakeReceiver, type FakeReceiver } from '@/lib/webhooks/fake-receiver';
 import { startFakeResend, type FakeResend } from '@/lib/mail/fake-resend-server';
 import { rotateWatchWebhookSecretAction, saveWatchWebhookAction, updateWatchAction, watchAction } from '@/app/(app)/w/[workspace]/watches/actions';
@@ -338,5 +339,24 @@ describe('a slow receiver', () => {
     receiver.setDelayMs(0);
     await drain();
     expect(receiver.processed.filter((e) => e.id === id)).toHaveLength(1);
+  });
+});
+
+describe('digests', () => {
+  it('a digest watch posts one benchmark.digest per day beside its digest mail', async () => {
+    expect((await callAction(updateWatchAction, { workspaceId: s.workspaceId, watchId, mode: 'digest', maeCm1: '0.0001', maeRelativePercent: '0.0001' })).state).toMatchObject({ ok: true });
+    expect((await s.importMode(18)).created).toBe(true);
+    await whenAlertsIdle();
+    const tomorrow = new Date(Date.now() + 86_400_000);
+    const day = new Date(Date.UTC(tomorrow.getUTCFullYear(), tomorrow.getUTCMonth(), tomorrow.getUTCDate()) - 86_400_000).toISOString().slice(0, 10);
+    expect((await sendDueDigests(tomorrow)).digests).toBe(1);
+    expect((await sendDueDigests(tomorrow)).digests).toBe(0);
+    const rows = (await webhookRows()).filter((r) => r.kind === 'benchmark.digest');
+    expect(rows).toHaveLength(1);
+    expect(rows[0].dedupeKey).toBe(`webhook:digest:${watchId}:${day}`);
+    await drain();
+    const got = receiver.processed.find((e) => e.id === rows[0].id);
+    expect(got).toBeDefined();
+    expect(JSON.parse(got!.body)).toMatchObject({ id: rows[0].id, type: 'benchmark.digest', day, watch: { id: watchId, mode: 'digest' } });
   });
 });

@@ -45,7 +45,8 @@ class PolicyRefusal extends Error {}
 export function retryAfterMs(value: string | undefined, now: Date): number | undefined {
   if (!value) return undefined;
   const text = value.trim();
-  const ms = /^\d+$/.test(text) ? Number(text) * 1000 : Date.parse(text) - now.getTime();
+  // an HTTP date names its day and month in letters; anything else that is not whole seconds is unreadable
+  const ms = /^\d+$/.test(text) ? Number(text) * 1000 : /^[A-Za-z]{3},? /.test(text) ? Date.parse(text) - now.getTime() : NaN;
   if (!Number.isFinite(ms)) return undefined;
   return Math.min(Math.max(0, ms), MAX_RETRY_AFTER_MS);
 }
