@@ -103,6 +103,8 @@ describe('setting a webhook on a watch', () => {
       ['https://[::ffff:192.168.0.1]/', /IPv4-mapped/],
       ['https://0.0.0.0/', /unspecified/],
       ['not a url', /Not a URL/],
+      // resolved when saved: .invalid never resolves (RFC 6761 §6.4)
+      ['https://hooks.ledger-test.invalid/x', /does not resolve/],
     ] as const) {
       const res = await callAction(saveWatchWebhookAction, { workspaceId: s.workspaceId, watchId, webhookUrl: url });
       expect(res.state?.ok, url).toBe(false);
