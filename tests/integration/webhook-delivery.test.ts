@@ -4,6 +4,8 @@
  * and dedupes by Ledger-Webhook-Id. Through injected faults every alert event is
  * processed exactly once and delivered at least once.
  */
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
@@ -341,6 +343,42 @@ describe('a slow receiver', () => {
     receiver.setDelayMs(0);
     await drain();
     expect(receiver.processed.filter((e) => e.id === id)).toHaveLength(1);
+  });
+});
+
+describe('an endless answer', () => {
+  it('reads at most 4 KiB of it: an error body that never ends is cut, and the attempt ends before the time-out', async () => {
+    let written = 0;
+    const flood = createServer((req, res) => {
+      req.resume();
+      res.writeHead(503, { 'content-type': 'text/plain' });
+      const chunk = 'x'.repeat(64 * 1024);
+      const pump = () => {
+        while (!res.destroyed) {
+          written += chunk.length;
+          if (!res.write(chunk)) break;
+        }
+        if (!res.destroyed) res.once('drain', pump);
+      };
+      pump();
+    });
+    await new Promise<void>((r) => flood.listen(0, '127.0.0.1', r));
+    try {
+      const id = await enqueueProbe(`http://127.0.0.1:${(flood.address() as AddressInfo).port}/hook`, 'flood');
+      const t0 = Date.now();
+      await deliverDueWebhooks(config({ timeoutMs: 5_000 }));
+      const tookMs = Date.now() - t0;
+      const row = (await webhookRows()).find((r) => r.id === id)!;
+      expect(row.status).toBe('pending');
+      expect(row.lastError).toMatch(/^503 x+$/);
+      expect(row.lastError!.length).toBeLessThanOrEqual(304);
+      expect(tookMs).toBeLessThan(5_000);
+      await db.update(mailOutbox).set({ status: 'failed' }).where(eq(mailOutbox.id, id));
+    } finally {
+      flood.closeAllConnections();
+      await new Promise((r) => flood.close(r));
+    }
+    expect(written).toBeGreaterThan(0);
   });
 });
 
