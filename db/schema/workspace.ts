@@ -15,6 +15,8 @@ export const workspaceSettings = sqliteTable('workspace_settings', {
   imaginaryCm1: real().notNull().default(10),
   bornNeutrality: real().notNull().default(0.1),
   lstRelative: real().notNull().default(0.05),
+  /** Webhooks may target private networks (RFC 1918, link-local, CGNAT, unique-local): an owner's choice. */
+  allowPrivateWebhookTargets: integer({ mode: 'boolean' }).notNull().default(false),
   updatedAt: timestamp(),
   updatedBy: text().references(() => user.id),
 });
