@@ -12,7 +12,9 @@ function hstsHeader(raw) {
 const nextConfig = {
   reactStrictMode: true,
   // The native SQLite binding and our per-connection PRAGMA hook must see the same module instance.
-  serverExternalPackages: ['@libsql/client', 'libsql'],
+  // moyo-wasm (space groups, lib/structure/symmetry.ts) is a web-target WebAssembly build: bundled, Turbopack
+  // turns its .wasm into a module it cannot resolve; loaded from node_modules, our loader reads the bytes itself.
+  serverExternalPackages: ['@libsql/client', 'libsql', '@spglib/moyo-wasm'],
   poweredByHeader: false,
   typedRoutes: false,
   async headers() {

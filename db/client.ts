@@ -2,7 +2,7 @@ import 'server-only';
 import { drizzle } from 'drizzle-orm/libsql';
 import type { Client } from '@libsql/client';
 import { dbEnv } from '@/lib/db-env';
-import { connect } from './connection';
+import { connect, type ConnectOptions } from './connection';
 import * as schema from './schema';
 
 export type Db = ReturnType<typeof createDb>;
@@ -15,10 +15,10 @@ export function createDb(client: Client) {
 
 const globalForDb = globalThis as unknown as { ledgerClient?: Client; ledgerDb?: Db };
 
-function databaseUrl(): { url: string; authToken?: string } {
+function databaseUrl(): ConnectOptions {
   // The db-only schema, so scripts that only touch the database need no auth settings.
-  const { DATABASE_URL, DATABASE_AUTH_TOKEN } = dbEnv();
-  return { url: DATABASE_URL, authToken: DATABASE_AUTH_TOKEN };
+  const { DATABASE_URL, DATABASE_AUTH_TOKEN, DATABASE_BUSY_TIMEOUT_MS, DATABASE_BUSY_RETRY_MS } = dbEnv();
+  return { url: DATABASE_URL, authToken: DATABASE_AUTH_TOKEN, busyTimeoutMs: DATABASE_BUSY_TIMEOUT_MS, busyRetryMs: DATABASE_BUSY_RETRY_MS };
 }
 
 /** The process-wide client (kept on globalThis so dev reloads do not open a second one). */

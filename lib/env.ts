@@ -44,6 +44,18 @@ const schema = dbEnvSchema.extend({
   API_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   API_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(600),
   IMPORT_CONCURRENCY_PER_WORKSPACE: z.coerce.number().int().positive().default(2),
+  /** How long a POST's Idempotency-Key and its stored response are kept and replayed (lib/services/idempotency.ts). */
+  IDEMPOTENCY_WINDOW_HOURS: z.coerce
+    .number({ message: 'IDEMPOTENCY_WINDOW_HOURS must be a number of hours.' })
+    .positive('IDEMPOTENCY_WINDOW_HOURS must be more than 0.')
+    .max(24 * 30, 'IDEMPOTENCY_WINDOW_HOURS must be at most 720 (30 days).')
+    .default(24),
+  /** Key for the webhook signing secrets at rest; unset: derived from BETTER_AUTH_SECRET (lib/webhooks/secret-box.ts). */
+  WEBHOOK_SECRET_KEY: z.string().min(32, 'WEBHOOK_SECRET_KEY must be at least 32 characters').optional(),
+  WEBHOOK_TIMEOUT_MS: z.coerce.number({ message: 'WEBHOOK_TIMEOUT_MS must be a number of milliseconds.' }).int().positive().max(120_000).default(10_000),
+  WEBHOOK_MAX_ATTEMPTS: z.coerce.number().int().positive().default(8),
+  /** Read live (envValue): http:// and loopback webhook targets outside development and tests (e.g. a production-mode test server). */
+  WEBHOOK_ALLOW_LOOPBACK: z.enum(['', '0', '1']).default(''),
 });
 
 export const ENV_SCHEMA = schema;
@@ -77,6 +89,11 @@ export function envValue<K extends keyof Env>(name: K): Env[K] {
   return parsed.data as Env[K];
 }
 
+/** Loopback webhook targets (and plain http to them): in development and tests, or with WEBHOOK_ALLOW_LOOPBACK=1. */
+export function webhookLoopbackAllowed(): boolean {
+  return envValue('NODE_ENV') !== 'production' || envValue('WEBHOOK_ALLOW_LOOPBACK') === '1';
+}
+
 type MailboxSettings = Pick<Env, 'NODE_ENV' | 'MAILBOX_ENABLED' | 'UNSAFE_MAILBOX_IN_PRODUCTION'>;
 
 /**
@@ -90,8 +107,11 @@ export function mailboxEnabled(e: MailboxSettings = env()): boolean {
 }
 
 /** Warnings printed at start-up about settings that are unsafe on a server others can reach. */
-export function startupWarnings(e: MailboxSettings = env()): string[] {
+export function startupWarnings(e: MailboxSettings & Partial<Pick<Env, 'WEBHOOK_ALLOW_LOOPBACK'>> = env()): string[] {
   const warnings: string[] = [];
+  if (e.NODE_ENV === 'production' && e.WEBHOOK_ALLOW_LOOPBACK === '1') {
+    warnings.push('WEBHOOK_ALLOW_LOOPBACK=1: webhooks may be sent over plain http to this machine (127.0.0.0/8, ::1, localhost). Use it for a local test server only.');
+  }
   if (e.NODE_ENV === 'production' && mailboxEnabled(e)) {
     warnings.push(
       'UNSAFE_MAILBOX_IN_PRODUCTION=1: /dev/mailbox shows every e-mail, password-reset links included, to loopback clients. ' +

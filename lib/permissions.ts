@@ -20,7 +20,8 @@ export const statements = {
   decks: ['create', 'read', 'update', 'delete'],
   members: ['read', 'invite', 'update-role', 'remove'],
   tokens: ['create', 'read', 'revoke'],
-  settings: ['read', 'update'],
+  /** network: which hosts webhooks may reach (private-network targets), an owner's decision. */
+  settings: ['read', 'update', 'network'],
 } as const;
 
 export const ac = createAccessControl(statements);
@@ -47,7 +48,7 @@ export const roles = {
     decks: ['create', 'read', 'update', 'delete'],
     members: ['read', 'invite', 'update-role', 'remove'],
     tokens: ['create', 'read', 'revoke'],
-    settings: ['read', 'update'],
+    settings: ['read', 'update', 'network'],
   }),
   curator: ac.newRole({
     invitation: ['create', 'cancel'],

@@ -6,7 +6,7 @@ import { db } from '@/db/client';
 import { auditLog, decision, importBatch, mailOutbox, method, pairPin, revision, user, watch, type NewMail } from '@/db/schema';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 import type { RevisionCause } from '@/lib/benchmark/revision-record';
-import { enqueueMail } from './mail';
+import { enqueueMail, enqueueWebhook, type NewWebhookDelivery } from './mail';
 
 export interface AlertRevision {
   id: string;
@@ -92,12 +92,14 @@ export async function revisionSteps(workspaceId: string, benchmarkId: string, af
 
 /**
  * In one transaction: move the watch's baseline from `fromRevisionId` to
- * `toRevisionId` and write the mail to the outbox. If the baseline moved
- * meanwhile (another pass announced it, or the watch stopped) nothing is written.
+ * `toRevisionId` and write the mail (and the webhook delivery, when the watch
+ * has a URL) to the outbox. If the baseline moved meanwhile (another pass
+ * announced it, or the watch stopped) nothing is written.
  */
 export async function recordAlert(
   mail: NewMail,
   input: { workspaceId: string; watchId: string; fromRevisionId: string | null; toRevisionId: string },
+  webhook?: NewWebhookDelivery,
 ): Promise<boolean> {
   return db.transaction(async (tx) => {
     const moved = await tx
@@ -114,6 +116,7 @@ export async function recordAlert(
       .returning({ id: watch.id });
     if (moved.length === 0) return false;
     await enqueueMail(mail, input.workspaceId, tx);
+    if (webhook) await enqueueWebhook(webhook, input.workspaceId, tx);
     return true;
   });
 }
@@ -125,6 +128,10 @@ export function alertDedupeKey(watchId: string, revisionId: string): string {
 export function digestDedupeKey(watchId: string, day: string): string {
   return `digest:${watchId}:${day}`;
 }
+/** The webhook delivery beside a mail: `webhook:` + the mail's dedupe key. */
+export function webhookDedupeKey(mailDedupeKey: string): string {
+  return `webhook:${mailDedupeKey}`;
+}
 
 /** What was sent for one watch, and when (from the outbox), newest first. */
 export async function listAlertLog(workspaceId: string, watchId: string, limit = 50) {
@@ -133,6 +140,7 @@ export async function listAlertLog(workspaceId: string, watchId: string, limit =
     .select({
       id: mailOutbox.id,
       kind: mailOutbox.kind,
+      channel: mailOutbox.channel,
       subject: mailOutbox.subject,
       status: mailOutbox.status,
       attempts: mailOutbox.attempts,
@@ -146,6 +154,8 @@ export async function listAlertLog(workspaceId: string, watchId: string, limit =
         or(
           like(mailOutbox.dedupeKey, sql`${`alert:${escaped}:%`} escape '\\'`),
           like(mailOutbox.dedupeKey, sql`${`digest:${escaped}:%`} escape '\\'`),
+          like(mailOutbox.dedupeKey, sql`${`webhook:alert:${escaped}:%`} escape '\\'`),
+          like(mailOutbox.dedupeKey, sql`${`webhook:digest:${escaped}:%`} escape '\\'`),
         ),
       ),
     )

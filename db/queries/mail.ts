@@ -1,7 +1,23 @@
 import 'server-only';
 import { and, asc, eq, inArray, lte, or, sql, desc } from 'drizzle-orm';
 import { db, type Executor } from '@/db/client';
-import { mailOutbox, type MailOutboxRow, type NewMail } from '@/db/schema/mail';
+import { mailOutbox, type MailOutboxRow, type NewMail, type OUTBOX_CHANNELS } from '@/db/schema/mail';
+
+export type OutboxChannel = (typeof OUTBOX_CHANNELS)[number];
+
+/** A webhook delivery as the alert service composes it; the outbox gives it its id (the Ledger-Webhook-Id). */
+export interface NewWebhookDelivery {
+  /** Chosen before the body is written, so the body can carry it too. */
+  id: string;
+  kind: string;
+  url: string;
+  watchId: string;
+  /** One line for the deliveries list. */
+  summary: string;
+  /** The exact JSON body that is signed and sent. */
+  body: string;
+  dedupeKey: string;
+}
 
 
 /** Writes one e-mail to the outbox; a repeated dedupeKey is ignored (the first one stands). */
@@ -12,18 +28,45 @@ export async function enqueueMail(mail: NewMail, workspaceId: string | null = nu
     .onConflictDoNothing({ target: mailOutbox.dedupeKey });
 }
 
+/** Writes one webhook delivery to the outbox (in the caller's transaction); a repeated dedupeKey is ignored. */
+export async function enqueueWebhook(delivery: NewWebhookDelivery, workspaceId: string, executor: Executor = db): Promise<void> {
+  await executor
+    .insert(mailOutbox)
+    .values({
+      id: delivery.id,
+      workspaceId,
+      channel: 'webhook',
+      kind: delivery.kind,
+      toAddress: delivery.url,
+      subject: delivery.summary,
+      textBody: delivery.body,
+      htmlBody: '',
+      watchId: delivery.watchId,
+      dedupeKey: delivery.dedupeKey,
+    })
+    .onConflictDoNothing({ target: mailOutbox.dedupeKey });
+}
+
 /**
- * Claims up to `limit` due messages for one delivery pass: pending ones whose
+ * Claims up to `limit` due e-mails for one delivery pass: pending ones whose
  * time has come, and "sending" ones whose lease ran out (the worker died mid-send).
  */
 export async function claimDueMail(now: Date, leaseMs: number, limit: number, executor: Executor = db): Promise<MailOutboxRow[]> {
+  return claimDue('email', now, leaseMs, limit, executor);
+}
+
+/** claimDueMail for one channel: each channel has its own pass, so a slow webhook receiver never holds up e-mail. */
+export async function claimDue(channel: OutboxChannel, now: Date, leaseMs: number, limit: number, executor: Executor = db): Promise<MailOutboxRow[]> {
   const due = await executor
     .select({ id: mailOutbox.id })
     .from(mailOutbox)
     .where(
-      or(
-        and(eq(mailOutbox.status, 'pending'), lte(mailOutbox.nextAttemptAt, now)),
-        and(eq(mailOutbox.status, 'sending'), lte(mailOutbox.lockedUntil, now)),
+      and(
+        eq(mailOutbox.channel, channel),
+        or(
+          and(eq(mailOutbox.status, 'pending'), lte(mailOutbox.nextAttemptAt, now)),
+          and(eq(mailOutbox.status, 'sending'), lte(mailOutbox.lockedUntil, now)),
+        ),
       ),
     )
     .orderBy(asc(mailOutbox.nextAttemptAt))
@@ -74,7 +117,30 @@ export async function listOutbox(workspaceId: string, limit = 50, executor: Exec
       sentAt: mailOutbox.sentAt,
     })
     .from(mailOutbox)
-    .where(eq(mailOutbox.workspaceId, workspaceId))
+    .where(and(eq(mailOutbox.workspaceId, workspaceId), eq(mailOutbox.channel, 'email')))
+    .orderBy(desc(mailOutbox.createdAt))
+    .limit(limit);
+}
+
+/** The webhook deliveries of a workspace, newest first, for Settings → Webhooks (the body is not read). */
+export async function listWebhookDeliveries(workspaceId: string, limit = 50, executor: Executor = db) {
+  return executor
+    .select({
+      id: mailOutbox.id,
+      kind: mailOutbox.kind,
+      url: mailOutbox.toAddress,
+      summary: mailOutbox.subject,
+      watchId: mailOutbox.watchId,
+      status: mailOutbox.status,
+      attempts: mailOutbox.attempts,
+      lastError: mailOutbox.lastError,
+      response: mailOutbox.providerMessageId,
+      nextAttemptAt: mailOutbox.nextAttemptAt,
+      createdAt: mailOutbox.createdAt,
+      sentAt: mailOutbox.sentAt,
+    })
+    .from(mailOutbox)
+    .where(and(eq(mailOutbox.workspaceId, workspaceId), eq(mailOutbox.channel, 'webhook')))
     .orderBy(desc(mailOutbox.createdAt))
     .limit(limit);
 }

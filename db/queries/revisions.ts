@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, asc, desc, eq, inArray, max, sql } from 'drizzle-orm';
-import { db } from '@/db/client';
+import { db, getClient } from '@/db/client';
 import { flag, importBatch, material, revision, source, user } from '@/db/schema';
 import { shortCitation } from '@/lib/citations/short-citation';
 import { AppError } from '@/lib/errors';
@@ -230,4 +230,64 @@ export async function materialNames(workspaceId: string, ids: string[]): Promise
     for (const r of rows) out.set(r.id, r.name);
   }
   return out;
+}
+
+/** A page of a benchmark's ready revisions, newest first (heads and causes only), and how many there are. */
+export async function listRevisionPage(workspaceId: string, benchmarkId: string, page: { page: number; size: number }) {
+  const where = and(eq(revision.workspaceId, workspaceId), eq(revision.benchmarkId, benchmarkId), eq(revision.status, 'ready'));
+  const rows = await db
+    .select({ id: revision.id, number: revision.number, fingerprint: revision.fingerprint, createdAt: revision.createdAt, cause: revision.cause })
+    .from(revision)
+    .where(where)
+    .orderBy(desc(revision.number))
+    .limit(page.size)
+    .offset((page.page - 1) * page.size);
+  const [{ total }] = await db.select({ total: sql<number>`count(*)` }).from(revision).where(where);
+  return { rows: rows.map((r) => ({ ...r, cause: (r.cause as RevisionCause | null) ?? null })), total: Number(total) };
+}
+
+/**
+ * How many rows of an import a revision was computed from (its stored row ids), and how many rows the import
+ * holds: what tells a workflow that a revision includes its import. Null when the import is not this workspace's.
+ */
+export async function importRowsInRevision(workspaceId: string, importId: string, revisionId: string | null) {
+  const [batch] = await db
+    .select({ id: importBatch.id, kind: importBatch.kind, status: importBatch.status, createdAt: importBatch.createdAt, insertedCount: importBatch.insertedCount })
+    .from(importBatch)
+    .where(and(eq(importBatch.workspaceId, workspaceId), eq(importBatch.id, importId)));
+  if (!batch) return null;
+  if (!revisionId) return { ...batch, inRevision: 0 };
+  const { rows } = await getClient().execute({
+    sql: `SELECT
+            (SELECT count(*) FROM calculation c WHERE c.workspace_id = ?1 AND c.import_id = ?2
+               AND c.id IN (SELECT value FROM json_each((SELECT row_ids FROM revision WHERE id = ?3 AND workspace_id = ?1), '$.calculations')))
+          + (SELECT count(*) FROM measurement m WHERE m.workspace_id = ?1 AND m.import_id = ?2
+               AND m.id IN (SELECT value FROM json_each((SELECT row_ids FROM revision WHERE id = ?3 AND workspace_id = ?1), '$.measurements'))) AS n`,
+    args: [workspaceId, importId, revisionId],
+  });
+  return { ...batch, inRevision: Number(rows[0]?.n ?? 0) };
+}
+
+/** A page of the flags a revision raised (outliers and quality checks), optionally of one method or kind. */
+export async function listRevisionFlags(
+  workspaceId: string,
+  revisionId: string,
+  filter: { methodId?: string; kind?: 'outlier' | 'quality' },
+  page: { page: number; size: number },
+) {
+  const where = and(
+    eq(flag.workspaceId, workspaceId),
+    eq(flag.revisionId, revisionId),
+    filter.methodId ? eq(flag.methodId, filter.methodId) : undefined,
+    filter.kind ? eq(flag.kind, filter.kind) : undefined,
+  );
+  const rows = await db
+    .select({ id: flag.id, kind: flag.kind, code: flag.code, methodId: flag.methodId, measurementId: flag.measurementId, subjectKey: flag.subjectKey, details: flag.details })
+    .from(flag)
+    .where(where)
+    .orderBy(asc(flag.kind), asc(flag.subjectKey), asc(flag.code))
+    .limit(page.size)
+    .offset((page.page - 1) * page.size);
+  const [{ total }] = await db.select({ total: sql<number>`count(*)` }).from(flag).where(where);
+  return { rows, total: Number(total) };
 }

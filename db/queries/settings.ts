@@ -76,3 +76,32 @@ export async function getMethodGrids(workspaceId: string, methodIds: string[]) {
     .where(and(eq(method.workspaceId, workspaceId), inArray(method.id, methodIds)));
   return new Map(rows.map((r) => [r.id, { kGrid: r.kGrid, qGrid: r.qGrid }]));
 }
+
+/** Whether this workspace's webhooks may target private networks (false when no settings row exists yet). */
+export async function privateWebhookTargetsAllowed(workspaceId: string): Promise<boolean> {
+  const [row] = await db
+    .select({ allow: workspaceSettings.allowPrivateWebhookTargets })
+    .from(workspaceSettings)
+    .where(eq(workspaceSettings.workspaceId, workspaceId))
+    .limit(1);
+  return row?.allow ?? false;
+}
+
+/** An owner's choice (the caller checks the role), audited; the quality thresholds of the row are left as they are. */
+export async function setPrivateWebhookTargets(workspaceId: string, actor: Actor, allow: boolean): Promise<{ changed: boolean }> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select().from(workspaceSettings).where(eq(workspaceSettings.workspaceId, workspaceId)).limit(1);
+    const before = row?.allowPrivateWebhookTargets ?? false;
+    if (before === allow) return { changed: false };
+    const values = { allowPrivateWebhookTargets: allow, updatedAt: new Date(), updatedBy: actor.userId };
+    await tx
+      .insert(workspaceSettings)
+      .values({ workspaceId, ...values })
+      .onConflictDoUpdate({ target: workspaceSettings.workspaceId, set: values });
+    await writeAudit(
+      { workspaceId, actor, action: 'update', entityType: 'workspace-settings', entityId: workspaceId, before: { allowPrivateWebhookTargets: before }, after: { allowPrivateWebhookTargets: allow } },
+      tx,
+    );
+    return { changed: true };
+  });
+}

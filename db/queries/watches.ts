@@ -1,7 +1,7 @@
 import 'server-only';
 import { and, asc, desc, eq, isNull } from 'drizzle-orm';
 import { db, type Executor } from '@/db/client';
-import { benchmark, member, organization, revision, user, watch } from '@/db/schema';
+import { benchmark, member, organization, revision, user, watch, workspaceSettings } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import type { WatchThresholds } from '@/lib/alerts/thresholds';
 import { writeAudit } from './audit';
@@ -101,6 +101,64 @@ export async function updateWatchSettings(workspaceId: string, watchId: string, 
   });
 }
 
+/** One's own watch, for the webhook form: the URL and when the secret was made (never the secret). */
+export async function getMyWatchWebhook(workspaceId: string, watchId: string, userId: string) {
+  const w = await requireOwnWatch(db, workspaceId, watchId, userId);
+  return { id: w.id, webhookUrl: w.webhookUrl, hasSecret: w.webhookSecret !== null, webhookSecretCreatedAt: w.webhookSecretCreatedAt, unsubscribedAt: w.unsubscribedAt };
+}
+
+/**
+ * Sets, changes or removes (url null) the webhook of one's own watch. A new
+ * sealed secret replaces the stored one when given (first URL, or a rotation);
+ * removing the URL drops the secret too. The audit row never holds the secret.
+ */
+export async function updateWatchWebhook(
+  workspaceId: string,
+  watchId: string,
+  userId: string,
+  change: { url: string | null; sealedSecret?: string },
+): Promise<void> {
+  await db.transaction(async (tx) => {
+    const w = await requireOwnWatch(tx, workspaceId, watchId, userId);
+    const now = new Date();
+    const set =
+      change.url === null
+        ? { webhookUrl: null, webhookSecret: null, webhookSecretCreatedAt: null }
+        : change.sealedSecret
+          ? { webhookUrl: change.url, webhookSecret: change.sealedSecret, webhookSecretCreatedAt: now }
+          : { webhookUrl: change.url };
+    await tx.update(watch).set(set).where(eq(watch.id, watchId));
+    await writeAudit(
+      {
+        workspaceId,
+        actor: { userId },
+        action: change.url === null ? 'remove-webhook' : change.sealedSecret && w.webhookSecret ? 'rotate-webhook-secret' : 'update-webhook',
+        entityType: 'watch',
+        entityId: watchId,
+        before: { webhookUrl: w.webhookUrl, secretCreatedAt: w.webhookSecretCreatedAt },
+        after: { webhookUrl: set.webhookUrl, secretCreatedAt: 'webhookSecretCreatedAt' in set ? set.webhookSecretCreatedAt : w.webhookSecretCreatedAt },
+      },
+      tx,
+    );
+  });
+}
+
+/**
+ * What the outbox worker needs to sign and send one webhook delivery: the
+ * watch's sealed secret and whether its workspace allows private targets.
+ * Null when the watch is gone or belongs to another workspace.
+ */
+export async function webhookSendContext(workspaceId: string, watchId: string) {
+  const rows = await db
+    .select({ id: watch.id, webhookSecret: watch.webhookSecret, allowPrivate: workspaceSettings.allowPrivateWebhookTargets })
+    .from(watch)
+    .leftJoin(workspaceSettings, eq(workspaceSettings.workspaceId, watch.workspaceId))
+    .where(and(eq(watch.workspaceId, workspaceId), eq(watch.id, watchId)))
+    .limit(1);
+  const row = rows[0];
+  return row ? { watchId: row.id, sealedSecret: row.webhookSecret, allowPrivate: row.allowPrivate ?? false } : null;
+}
+
 /** The watches of one user in one workspace, active first, with the benchmark's name and defaults. */
 export async function listMyWatches(workspaceId: string, userId: string) {
   return db
@@ -116,6 +174,8 @@ export async function listMyWatches(workspaceId: string, userId: string) {
       createdAt: watch.createdAt,
       unsubscribedAt: watch.unsubscribedAt,
       baselineNumber: revision.number,
+      webhookUrl: watch.webhookUrl,
+      webhookSecretCreatedAt: watch.webhookSecretCreatedAt,
     })
     .from(watch)
     .innerJoin(benchmark, eq(benchmark.id, watch.benchmarkId))
@@ -138,6 +198,7 @@ export interface ActiveWatch {
   mode: WatchMode;
   thresholds: unknown;
   lastAnnouncedRevisionId: string | null;
+  webhookUrl: string | null;
 }
 
 const activeColumns = {
@@ -154,6 +215,7 @@ const activeColumns = {
   mode: watch.mode,
   thresholds: watch.thresholds,
   lastAnnouncedRevisionId: watch.lastAnnouncedRevisionId,
+  webhookUrl: watch.webhookUrl,
 };
 
 /** Watches that still receive mail: not unsubscribed, the watcher still a member, the benchmark live. */

@@ -141,6 +141,11 @@ export const watch = sqliteTable(
     lastAnnouncedRevisionId: text().references(() => revision.id),
     createdAt: createdAt(),
     unsubscribedAt: timestamp(),
+    /** Also deliver each alert to this URL (checked by lib/webhooks/url-policy.ts), signed with the secret below. */
+    webhookUrl: text(),
+    /** The signing secret, encrypted (lib/webhooks/secret-box.ts); shown to the watcher once, when made. */
+    webhookSecret: text(),
+    webhookSecretCreatedAt: timestamp(),
   },
   (t) => [uniqueIndex('watch_uq').on(t.benchmarkId, t.userId)],
 );

@@ -1,4 +1,4 @@
-import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { organization, user } from './auth';
 import { createdAt, id, timestamp } from './columns';
 import { TOKEN_ROLES } from '@/lib/record-kinds';
@@ -15,6 +15,8 @@ export const workspaceSettings = sqliteTable('workspace_settings', {
   imaginaryCm1: real().notNull().default(10),
   bornNeutrality: real().notNull().default(0.1),
   lstRelative: real().notNull().default(0.05),
+  /** Webhooks may target private networks (RFC 1918, link-local, CGNAT, unique-local): an owner's choice. */
+  allowPrivateWebhookTargets: integer({ mode: 'boolean' }).notNull().default(false),
   updatedAt: timestamp(),
   updatedBy: text().references(() => user.id),
 });
@@ -42,6 +44,37 @@ export const apiToken = sqliteTable(
     revokedBy: text().references(() => user.id),
   },
   (t) => [index('api_token_workspace_idx').on(t.workspaceId)],
+);
+
+/**
+ * A POST's Idempotency-Key under /api/v1 (lib/services/idempotency.ts): one row per workspace × token × key,
+ * claimed before the request runs (status null while it runs) and holding the response once it ran,
+ * so a retry gets the same answer. Rows past expiresAt are deleted.
+ */
+export const idempotencyKey = sqliteTable(
+  'idempotency_key',
+  {
+    id: id(),
+    workspaceId: text()
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    tokenId: text()
+      .notNull()
+      .references(() => apiToken.id, { onDelete: 'cascade' }),
+    key: text().notNull(),
+    method: text().notNull(),
+    path: text().notNull(),
+    /** SHA-256 (hex) of the query string and the body bytes. */
+    requestHash: text().notNull(),
+    /** Null while the first request runs. */
+    status: integer(),
+    responseBody: text(),
+    responseHeaders: text({ mode: 'json' }).$type<Record<string, string>>(),
+    createdAt: createdAt(),
+    completedAt: timestamp(),
+    expiresAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [uniqueIndex('idempotency_key_uq').on(t.workspaceId, t.tokenId, t.key), index('idempotency_key_expires_idx').on(t.expiresAt)],
 );
 
 /** Every create, edit, retraction, import and decision, written in the same transaction as the change. */

@@ -112,6 +112,12 @@ export const problemSchema = z
     errorCount: z.int().optional().meta({ description: 'On 422: how many errors the body has in all.' }),
     errors: z.array(rowErrorSchema).optional().meta({ description: 'On 422: the first 1,000 errors; a cell is echoed up to 40 characters.' }),
     firstImportId: z.string().optional().meta({ description: 'On 409: the import that already holds this file.' }),
+    field: z.string().optional().meta({ description: 'On 409 of a catalogue write: the field whose value is taken (name, label, citeKey, doi).' }),
+    fields: z
+      .array(z.object({ path: z.string(), message: z.string() }))
+      .optional()
+      .meta({ description: 'On 422 of a catalogue write: every field issue, with its path ("tags.0", "kGrid").' }),
+    idempotencyKey: z.string().optional().meta({ description: 'On 409/422 from the Idempotency-Key check: the key.' }),
   })
   .meta({ title: 'Problem', description: 'RFC 9457 problem details (application/problem+json).' });
 
@@ -272,3 +278,229 @@ export const importSummarySchema = z
     createdAt: timestamp,
   })
   .meta({ title: 'ImportSummary' });
+
+// ---- Benchmarks (reads for a workflow's own checks) ----
+
+export const benchmarkSummarySchema = z
+  .object({
+    id: z.string(),
+    name: z.string(),
+    purpose: nullableText,
+    quantity: z.string(),
+    createdAt: timestamp,
+    revisionNumber: z.int().nullable().meta({ description: 'The latest stored revision; null before the first.' }),
+    revisionAt: timestamp.nullable(),
+    methodCount: z.int(),
+    pairCount: z.int(),
+    outlierCount: z.int(),
+    qualityFlagCount: z.int(),
+  })
+  .meta({ title: 'BenchmarkSummary' });
+
+const storedStatisticsSchema = z
+  .object({
+    meanAbsoluteError: z.number(),
+    rootMeanSquareError: z.number(),
+    meanSignedError: z.number().meta({ description: 'The bias: mean of calculated − measured.' }),
+    standardDeviation: z.number(),
+    medianAbsoluteError: z.number(),
+    p95AbsoluteError: z.number(),
+    maxAbsoluteError: z.number(),
+    maxAbsoluteErrorPair: z.string(),
+    meanAbsolutePercentageError: z.number(),
+    meanAbsoluteRelativeError: z.number().optional(),
+    scaleFactor: z.number(),
+    rmseAfterScaling: z.number(),
+  })
+  .loose()
+  .meta({ title: 'ErrorStatistics', description: 'A method’s statistics on its own included pairs, as the benchmark page shows them (bootstrap intervals and other members as stored).' });
+
+const commonStatisticsSchema = z
+  .object({ n: z.int(), meanAbsoluteError: z.number(), rootMeanSquareError: z.number(), meanSignedError: z.number() })
+  .meta({ title: 'CommonGroundStatistics', description: 'The method’s errors on the common pairs of the ranked methods.' });
+
+export const methodStatisticsSchema = z
+  .object({
+    methodId: z.string(),
+    label: z.string(),
+    n: z.int().meta({ description: 'Included pairs of this method.' }),
+    excluded: z.int(),
+    outliers: z.int(),
+    qualityFlags: z.int(),
+    unpairedMeasurements: z.int(),
+    statistics: storedStatisticsSchema.nullable().meta({ description: 'Null below 3 included pairs (only N is shown).' }),
+    rank: z.int().nullable(),
+    paired: z.int().optional(),
+    coverage: z.number().nullable().optional().meta({ description: 'Paired measured values / measured values in scope.' }),
+    unranked: z.string().nullable().optional().meta({ description: 'Why the method is listed but not ranked.' }),
+    common: commonStatisticsSchema.nullable().optional(),
+  })
+  .meta({ title: 'MethodStatistics' });
+
+const rankingSchema = z
+  .object({ commonN: z.int(), minN: z.int(), minCoverage: z.number(), rankedMethods: z.int(), note: z.string().nullable() })
+  .meta({ title: 'Ranking', description: 'How the common ground was formed: commonN measured values shared by every ranked method.' });
+
+export const revisionHeadSchema = z
+  .object({
+    number: z.int(),
+    fingerprint: z.string().meta({ description: 'SHA-256 of exactly the rows, rules, decisions and pins the revision used.' }),
+    createdAt: timestamp,
+    isLatest: z.boolean(),
+  })
+  .meta({ title: 'RevisionHead' });
+
+const revisionCauseSchema = z
+  .object({
+    reported: z.array(z.object({ trigger: z.string(), importId: z.string().optional() }).loose()),
+    rows: z.object({ measurementsAdded: z.int(), measurementsRemoved: z.int(), calculationsAdded: z.int(), calculationsRemoved: z.int() }),
+    imports: z.array(z.object({ id: z.string(), rows: z.int() })).meta({ description: 'Imports whose rows entered the scope with this revision.' }),
+  })
+  .loose()
+  .nullable()
+  .meta({ title: 'RevisionCause' });
+
+export const revisionListItemSchema = z
+  .object({ number: z.int(), fingerprint: z.string(), createdAt: timestamp, cause: revisionCauseSchema })
+  .meta({ title: 'RevisionListItem' });
+
+export const revisionSchema = z
+  .object({
+    benchmarkId: z.string(),
+    number: z.int(),
+    fingerprint: z.string(),
+    createdAt: timestamp,
+    isLatest: z.boolean(),
+    cause: revisionCauseSchema,
+    unit: z.string(),
+    quantity: z.string(),
+    methods: z.array(methodStatisticsSchema),
+    ranking: rankingSchema.nullable(),
+    counts: z.object({ measurements: z.int(), calculations: z.int(), materials: z.int(), methods: z.int(), measuredInScope: z.int().optional() }),
+    pairCount: z.int(),
+    qualityCount: z.int(),
+    empty: z.string().nullable(),
+  })
+  .meta({ title: 'Revision' });
+
+export const benchmarkSchema = z
+  .object({
+    id: z.string(),
+    name: z.string(),
+    purpose: nullableText,
+    quantity: z.string(),
+    scope: z.record(z.string(), z.unknown()).meta({ description: 'Which materials, methods, sources and conditions the benchmark reads.' }),
+    rules: z.record(z.string(), z.unknown()).meta({ description: 'Pairing, outlier and ranking rules (ranking.minN, ranking.minCoverage).' }),
+    createdAt: timestamp,
+    latestRevision: z
+      .object({ number: z.int(), fingerprint: z.string(), createdAt: timestamp, unit: z.string(), ranking: rankingSchema.nullable(), methods: z.array(methodStatisticsSchema) })
+      .nullable(),
+  })
+  .meta({ title: 'Benchmark' });
+
+export const methodStatisticsResponseSchema = z
+  .object({ benchmarkId: z.string(), revision: revisionHeadSchema, unit: z.string(), ranking: rankingSchema.nullable(), method: methodStatisticsSchema })
+  .meta({ title: 'MethodStatisticsResponse' });
+
+export const pairSchema = z
+  .object({
+    key: z.string(),
+    methodId: z.string(),
+    materialId: z.string(),
+    measurementIds: z.array(z.string()),
+    calculationIds: z.array(z.string()),
+    measured: z.number(),
+    calculated: z.number(),
+    error: z.number().meta({ description: 'calculated − measured, in the revision’s unit.' }),
+    relativeError: z.number(),
+    label: z.string().nullable(),
+    temperatureK: z.number().nullable(),
+    basis: z.enum(['label', 'frequency', 'pinned', 'temperature']),
+    ambiguous: z.boolean(),
+    excluded: z.string().nullable().meta({ description: 'Reason of the decision that excludes it.' }),
+    outlier: z.string().nullable(),
+  })
+  .meta({ title: 'Pair' });
+
+export const pairPageSchema = pageOf(pairSchema, 'PairPage').extend({ revision: z.int(), unit: z.string() }).meta({ title: 'PairPage' });
+
+export const flagSchema = z
+  .object({
+    id: z.string(),
+    kind: z.enum(['outlier', 'quality']),
+    code: z.string(),
+    methodId: z.string().nullable(),
+    measurementId: z.string().nullable(),
+    subjectKey: z.string(),
+    details: z.unknown(),
+  })
+  .meta({ title: 'Flag' });
+
+export const flagPageSchema = pageOf(flagSchema, 'FlagPage').extend({ revision: z.int() }).meta({ title: 'FlagPage' });
+
+export const benchmarkStatusSchema = z
+  .object({
+    benchmarkId: z.string(),
+    state: z.enum(['idle', 'queued', 'running', 'failed']).meta({
+      description: 'idle: every change committed before this answer is in the latest revision. failed: the last recomputation failed (error says why).',
+    }),
+    computing: z.boolean(),
+    error: z.string().nullable(),
+    latestRevision: z.object({ number: z.int(), fingerprint: z.string(), createdAt: timestamp }).nullable(),
+    import: z
+      .object({
+        id: z.string(),
+        status: z.enum(['committed', 'undone']),
+        settled: z.boolean().meta({ description: 'True when the recomputation after this import has finished: latestRevision is the revision that includes it.' }),
+        revision: z.int().nullable().meta({ description: 'Once settled: the revision that reflects the import (the latest).' }),
+        rowsInRevision: z.int().meta({ description: 'Rows of the import that the latest revision was computed from (0: none is in this benchmark’s scope).' }),
+        importedRows: z.int(),
+      })
+      .optional()
+      .meta({ description: 'With ?import=<importId>: whether the latest revision includes that import.' }),
+  })
+  .meta({ title: 'BenchmarkStatus' });
+
+export const statusQuerySchema = z.object({ import: z.string().min(1).max(100).optional() });
+
+const finiteNumber = (name: string) =>
+  z.coerce.number({ message: `${name} must be a number.` }).refine(Number.isFinite, `${name} must be a finite number.`);
+
+export const verdictQuerySchema = z.object({
+  maxMae: finiteNumber('maxMae').pipe(z.number().min(0, 'maxMae must not be negative.')),
+  minCoverage: finiteNumber('minCoverage').pipe(z.number().min(0, 'minCoverage must be between 0 and 1.').max(1, 'minCoverage must be between 0 and 1.')).default(0),
+  revision: z.coerce.number({ message: 'revision must be a positive integer.' }).int('revision must be a positive integer.').positive('revision must be a positive integer.').optional(),
+});
+
+export const verdictSchema = z
+  .object({
+    verdict: z.enum(['pass', 'fail']),
+    reasons: z.array(z.string()).meta({ description: 'Why it failed; empty on pass.' }),
+    warnings: z.array(z.string()).meta({ description: 'Small N, a newer revision pending.' }),
+    benchmark: z.object({ id: z.string(), name: z.string(), quantity: z.string() }),
+    method: z.object({ id: z.string(), label: z.string() }),
+    thresholds: z.object({ maxMae: z.number(), minCoverage: z.number(), unit: z.string() }),
+    unit: z.string(),
+    numbers: z.object({
+      meanAbsoluteError: z.number().nullable().meta({ description: 'On the common pairs (the ranking’s), in `unit`.' }),
+      rootMeanSquareError: z.number().nullable(),
+      meanSignedError: z.number().nullable(),
+      n: z.int().meta({ description: 'Common pairs the MAE rests on.' }),
+      coverage: z.number().nullable(),
+      paired: z.int().nullable(),
+      measuredInScope: z.int().nullable(),
+    }),
+    ground: z.object({
+      kind: z.enum(['common', 'none']),
+      commonN: z.int(),
+      rankedMethods: z.int(),
+      rank: z.int().nullable(),
+      description: z.string().meta({ description: 'How the common ground was formed.' }),
+    }),
+    own: z.object({ n: z.int(), meanAbsoluteError: z.number().nullable(), excluded: z.int(), outliers: z.int(), qualityFlags: z.int() }).nullable().meta({
+      description: 'The method’s statistics on all its own included pairs (for information; the verdict uses the common ground).',
+    }),
+    revision: revisionHeadSchema,
+    recomputation: z.object({ state: z.enum(['idle', 'queued', 'running', 'failed']), pending: z.boolean().meta({ description: 'A newer revision is being computed; this verdict is of `revision`.' }) }),
+  })
+  .meta({ title: 'Verdict' });

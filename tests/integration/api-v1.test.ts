@@ -17,6 +17,7 @@ import * as openapiRoute from '@/app/api/v1/openapi.json/route';
 import { callAction } from '../support/actions';
 import { createWorkspaceWith, signInAs } from '../support/users';
 import { seedCatalogue } from './import-fixtures';
+import { apiRouteFiles, openApiPathOf } from '../support/api-server';
 
 type Handler = (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
 const BASE = 'http://localhost:3999/api/v1';
@@ -243,5 +244,29 @@ describe('GET /api/v1/openapi.json', () => {
     const rowProps = doc.components.schemas.ImportRequest.oneOf[0].properties.rows.items;
     expect(rowProps.additionalProperties).toBe(false);
     expect(Object.keys(rowProps.properties)).toContain('laser_nm');
+  });
+
+  it('lists every route file under app/api/v1 with each method it exports, and the Idempotency-Key on every POST', async () => {
+    const doc = await (await openapiRoute.GET(new Request(`${BASE}/openapi.json`))).json();
+    const files = apiRouteFiles();
+    expect(files.length).toBeGreaterThan(20);
+    const missing: string[] = [];
+    for (const file of files) {
+      const path = openApiPathOf(file);
+      const mod = (await import(file)) as Record<string, unknown>;
+      for (const method of ['GET', 'POST', 'PATCH', 'PUT', 'DELETE'].filter((m) => typeof mod[m] === 'function')) {
+        const op = doc.paths[path]?.[method.toLowerCase()];
+        if (!op) {
+          missing.push(`${method} ${path}`);
+          continue;
+        }
+        if (method === 'POST') expect(op.parameters.map((p: { name: string }) => p.name), path).toContain('Idempotency-Key');
+      }
+    }
+    expect(missing).toEqual([]);
+    // Every $ref points at a component that exists.
+    const refs = [...JSON.stringify(doc).matchAll(/"#\/components\/schemas\/([A-Za-z]+)"/g)].map((m) => m[1]);
+    for (const name of new Set(refs)) expect(doc.components.schemas, name).toHaveProperty(name);
+    expect(doc.components.schemas.Verdict.properties.verdict.enum).toEqual(['pass', 'fail']);
   });
 });

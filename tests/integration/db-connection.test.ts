@@ -25,7 +25,7 @@ async function pragmas(run: (sql: string) => Promise<{ rows: Array<Record<string
 }
 
 // synchronous: FULL = 2 (SQLite documentation, PRAGMA synchronous)
-const EXPECTED = { journal: 'wal', synchronous: 2, foreignKeys: 1, busyTimeout: 5000 };
+const EXPECTED = { journal: 'wal', synchronous: 2, foreignKeys: 1, busyTimeout: 100 }; // DEFAULT_BUSY_TIMEOUT_MS: short, since SQLite's wait blocks the event loop
 
 describe('database connections', () => {
   it('applies WAL, synchronous=FULL, foreign_keys and busy_timeout on the first connection', async () => {

@@ -10,13 +10,16 @@ import {
   latestRevisionSnapshot,
   recordAlert,
   revisionSnapshot,
+  webhookDedupeKey,
   revisionSteps,
   type AlertRevision,
   type RevisionStep,
 } from '@/db/queries/alerts';
 import { activeDigestWatches, activeWatchesOf, type ActiveWatch } from '@/db/queries/watches';
 import { alertMail, digestMail, type AlertContent } from '@/lib/alerts/alert-mail';
-import { attributeCauses, causeLine, summariseCauses } from '@/lib/alerts/causes';
+import { attributeCauses, causeLine, summariseCauses, type AlertCause } from '@/lib/alerts/causes';
+import { alertPayload, type AlertEventType } from '@/lib/webhooks/alert-payload';
+import type { NewWebhookDelivery } from '@/db/queries/mail';
 import { describeReason, summarizeShift, type ShiftSummary } from '@/lib/alerts/shift-summary';
 import { effectiveThresholds, readWatchThresholds } from '@/lib/alerts/thresholds';
 import { signUnsubscribeToken } from '@/lib/alerts/unsubscribe-token';
@@ -38,7 +41,7 @@ async function describeCauses(w: ActiveWatch, baseline: AlertRevision | null, ta
   const lookups = await causeLookups(w.workspaceId, w.benchmarkId, ids, { from: baseline?.createdAt ?? null, to: target.createdAt });
   const { headline, causes } = attributeCauses(baseline?.statistics.methods ?? null, steps, lookups);
   const { listed, rest } = summariseCauses(causes);
-  return { lines: listed.map((c) => causeLine(c, headline)), rest };
+  return { lines: listed.map((c) => causeLine(c, headline)), rest, listed };
 }
 
 interface Prepared {
@@ -47,6 +50,7 @@ interface Prepared {
   summary: ShiftSummary;
   content: Omit<AlertContent, 'dedupeKey'>;
   steps: RevisionStep[];
+  listedCauses: AlertCause[];
 }
 
 /** Compares a watch's baseline with `target`; null when nothing crosses the watch's thresholds. */
@@ -71,6 +75,7 @@ async function prepare(w: ActiveWatch, target: AlertRevision): Promise<Prepared 
     target,
     summary,
     steps,
+    listedCauses: causes.listed,
     content: {
       to: w.email,
       recipientName: w.name,
@@ -82,10 +87,34 @@ async function prepare(w: ActiveWatch, target: AlertRevision): Promise<Prepared 
       summary,
       materialNames: Object.fromEntries(names),
       imports: [],
-      causes,
+      causes: { lines: causes.lines, rest: causes.rest },
       unsubscribeToken: signUnsubscribeToken(w.id, e.BETTER_AUTH_SECRET),
     },
   };
+}
+
+/** The webhook delivery beside the alert mail, when the watch has a URL: the same change as JSON (lib/webhooks/alert-payload.ts). */
+function webhookFor(w: ActiveWatch, ready: Prepared, type: AlertEventType, mailDedupeKey: string, day?: string): NewWebhookDelivery | undefined {
+  if (!w.webhookUrl) return undefined;
+  const id = crypto.randomUUID();
+  const c = ready.content;
+  const payload = alertPayload({
+    id,
+    type,
+    createdAt: new Date(),
+    baseUrl: c.baseUrl,
+    workspace: { id: w.workspaceId, slug: w.workspaceSlug, name: w.workspaceName },
+    watch: { id: w.id, mode: w.mode },
+    benchmark: c.benchmark,
+    fromRevision: ready.baseline ? { id: ready.baseline.id, number: ready.baseline.number } : null,
+    toRevision: { id: ready.target.id, number: ready.target.number, createdAt: ready.target.createdAt },
+    summary: ready.summary,
+    materialNames: c.materialNames,
+    causes: { listed: ready.listedCauses, rest: c.causes?.rest ?? null },
+    day,
+  });
+  const summary = `${type === 'benchmark.digest' ? `Digest ${day}` : 'Shift'}: ${c.benchmark.name}, revision ${c.fromRevision ?? '—'} → ${c.toRevision.number}`;
+  return { id, kind: type, url: w.webhookUrl, watchId: w.id, summary, body: JSON.stringify(payload), dedupeKey: webhookDedupeKey(mailDedupeKey) };
 }
 
 /**
@@ -104,8 +133,10 @@ export async function announceBenchmark(workspaceId: string, benchmarkId: string
     try {
       const ready = await prepare(w, target);
       if (!ready) continue;
-      const mail = alertMail({ ...ready.content, dedupeKey: alertDedupeKey(w.id, target.id) });
-      if (await recordAlert(mail, { workspaceId, watchId: w.id, fromRevisionId: ready.baseline?.id ?? null, toRevisionId: target.id })) alerts++;
+      const dedupeKey = alertDedupeKey(w.id, target.id);
+      const mail = alertMail({ ...ready.content, dedupeKey });
+      const webhook = webhookFor(w, ready, 'benchmark.shifted', dedupeKey);
+      if (await recordAlert(mail, { workspaceId, watchId: w.id, fromRevisionId: ready.baseline?.id ?? null, toRevisionId: target.id }, webhook)) alerts++;
     } catch (error) {
       // One watcher's failure must not keep the others from their alert.
       console.error(`[alerts] watch ${w.id}: could not announce revision ${target.number}`, error);
@@ -155,13 +186,15 @@ export async function sendDueDigests(now: Date = new Date()): Promise<{ digests:
       const ready = await prepare(w, target);
       if (!ready) continue;
       const thresholds = effectiveThresholds(readAlertThresholds(w.benchmarkThresholds, target.statistics.quantity), readWatchThresholds(w.thresholds));
+      const dedupeKey = digestDedupeKey(w.id, day);
       const mail = digestMail({
         ...ready.content,
-        dedupeKey: digestDedupeKey(w.id, day),
+        dedupeKey,
         day,
         revisions: stepLines(ready.steps, ready.baseline, thresholds, ready.summary.unit),
       });
-      if (await recordAlert(mail, { workspaceId: w.workspaceId, watchId: w.id, fromRevisionId: ready.baseline?.id ?? null, toRevisionId: target.id })) digests++;
+      const webhook = webhookFor(w, ready, 'benchmark.digest', dedupeKey, day);
+      if (await recordAlert(mail, { workspaceId: w.workspaceId, watchId: w.id, fromRevisionId: ready.baseline?.id ?? null, toRevisionId: target.id }, webhook)) digests++;
     } catch (error) {
       console.error(`[alerts] watch ${w.id}: could not send the digest of ${day}`, error);
     }

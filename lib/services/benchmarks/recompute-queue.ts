@@ -30,10 +30,16 @@ interface Job {
   since: number;
 }
 
-const store = globalThis as unknown as { ledgerRecomputeJobs?: Map<string, Job>; ledgerRecomputeListings?: Map<string, number> };
+const store = globalThis as unknown as {
+  ledgerRecomputeJobs?: Map<string, Job>;
+  ledgerRecomputeListings?: Map<string, number>;
+  ledgerRecomputeFailures?: Map<string, { message: string; at: number }>;
+};
 const jobs = (store.ledgerRecomputeJobs ??= new Map<string, Job>());
 /** Workspaces whose benchmark list is being read before their jobs are queued. */
 const listings = (store.ledgerRecomputeListings ??= new Map<string, number>());
+/** The last recomputation of a benchmark failed (until one succeeds): what the API status reports. */
+const failures = (store.ledgerRecomputeFailures ??= new Map<string, { message: string; at: number }>());
 
 function debounceMs(): number {
   return envValue('RECOMPUTE_DEBOUNCE_MS');
@@ -51,9 +57,11 @@ function start(job: Job): void {
   job.running = recomputeBenchmark(job.workspaceId, job.benchmarkId, causes.length ? causes : [{ trigger: 'data-change' }])
     .then(() => {
       job.lastError = null;
+      failures.delete(key(job.workspaceId, job.benchmarkId));
     })
     .catch((error: unknown) => {
       job.lastError = error instanceof Error ? error.message : String(error);
+      failures.set(key(job.workspaceId, job.benchmarkId), { message: job.lastError, at: Date.now() });
       console.error(`benchmark ${job.benchmarkId}: recomputation failed`, error);
     })
     .finally(() => {
@@ -104,6 +112,19 @@ export function recomputeState(workspaceId: string, benchmarkId: string): Recomp
   const job = jobs.get(key(workspaceId, benchmarkId));
   if (!job) return 'idle';
   return job.running ? 'running' : 'queued';
+}
+
+/**
+ * The state a workflow waits on: like recomputeState, but 'queued' also while the workspace's benchmark list is
+ * being read to queue them (the moment right after an import), and 'failed' when the last run of an idle
+ * benchmark failed. Idle means every change committed before this call has been computed.
+ */
+export function recomputeStatus(workspaceId: string, benchmarkId: string): { state: RecomputeState | 'failed'; error: string | null } {
+  const state = recomputeState(workspaceId, benchmarkId);
+  if (state !== 'idle') return { state, error: null };
+  if (listings.has(workspaceId)) return { state: 'queued', error: null };
+  const failure = failures.get(key(workspaceId, benchmarkId));
+  return failure ? { state: 'failed', error: failure.message } : { state: 'idle', error: null };
 }
 
 /** The queue at a glance, for GET /api/health. */

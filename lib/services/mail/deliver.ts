@@ -1,7 +1,12 @@
 import 'server-only';
 import { Resend } from 'resend';
 import type { MailOutboxRow } from '@/db/schema/mail';
-import { claimDueMail, markMailFailed, markMailRetry, markMailSent } from '@/db/queries/mail';
+import { claimDue, claimDueMail, markMailFailed, markMailRetry, markMailSent } from '@/db/queries/mail';
+import { webhookSendContext } from '@/db/queries/watches';
+import { openSecret } from '@/lib/webhooks/secret-box';
+import { sendWebhook, type Resolver, type SendOutcome } from './webhook-send';
+
+export type { SendOutcome };
 
 export interface DeliveryConfig {
   apiKey: string;
@@ -15,8 +20,6 @@ export interface DeliveryConfig {
   batchSize?: number;
   now?: () => Date;
 }
-
-export type SendOutcome = { kind: 'sent'; providerId: string } | { kind: 'retry'; error: string } | { kind: 'permanent'; error: string };
 
 const RETRYABLE = new Set([408, 409, 425, 429]);
 
@@ -58,24 +61,76 @@ export interface DeliveryReport {
   failed: number;
 }
 
-/** One delivery pass over the due messages of the outbox. */
+/** Records what one attempt came to: sent, another try after the back-off (or the receiver's Retry-After, if longer), or failed for good. */
+async function settle(row: MailOutboxRow, outcome: SendOutcome, maxAttempts: number, now: () => Date, report: DeliveryReport): Promise<void> {
+  if (outcome.kind === 'sent') {
+    await markMailSent(row.id, outcome.providerId, now());
+    report.sent++;
+  } else if (outcome.kind === 'permanent' || row.attempts >= maxAttempts) {
+    await markMailFailed(row.id, outcome.error);
+    report.failed++;
+  } else {
+    const wait = Math.max(backoffMs(row.attempts), outcome.retryAfterMs ?? 0);
+    await markMailRetry(row.id, outcome.error, new Date(now().getTime() + wait));
+    report.retried++;
+  }
+}
+
+/** One delivery pass over the due e-mails of the outbox. */
 export async function deliverDueMail(config: DeliveryConfig): Promise<DeliveryReport> {
   const now = config.now ?? (() => new Date());
   const leaseMs = config.leaseMs ?? config.timeoutMs * 2 + 5_000;
   const report: DeliveryReport = { sent: 0, retried: 0, failed: 0 };
   const claimed = await claimDueMail(now(), leaseMs, config.batchSize ?? 20);
-  for (const row of claimed) {
-    const outcome = await sendOne(row, config);
-    if (outcome.kind === 'sent') {
-      await markMailSent(row.id, outcome.providerId, now());
-      report.sent++;
-    } else if (outcome.kind === 'permanent' || row.attempts >= config.maxAttempts) {
-      await markMailFailed(row.id, outcome.error);
-      report.failed++;
-    } else {
-      await markMailRetry(row.id, outcome.error, new Date(now().getTime() + backoffMs(row.attempts)));
-      report.retried++;
-    }
-  }
+  for (const row of claimed) await settle(row, await sendOne(row, config), config.maxAttempts, now, report);
+  return report;
+}
+
+export interface WebhookDeliveryConfig {
+  timeoutMs: number;
+  maxAttempts: number;
+  /** Loopback (and plain http to it) allowed: development, tests, WEBHOOK_ALLOW_LOOPBACK=1. */
+  allowLoopback: boolean;
+  /** Opens the stored signing secrets (lib/webhooks/secret-box.ts). */
+  secretKey: Buffer;
+  /** Deliveries sent at once; a pass claims no more than this, so nothing claimed waits behind a slow receiver. */
+  concurrency?: number;
+  leaseMs?: number;
+  maxResponseBytes?: number;
+  resolve?: Resolver;
+  /** The outbox's clock (claims, back-off). Signatures always carry the wall-clock time a receiver compares with. */
+  now?: () => Date;
+}
+
+/** One attempt of one claimed webhook row: its watch's secret, its workspace's network setting, then the request. */
+export async function sendOneWebhook(row: MailOutboxRow, config: WebhookDeliveryConfig): Promise<SendOutcome> {
+  if (!row.workspaceId || !row.watchId) return { kind: 'permanent', error: 'not a webhook delivery of a watch' };
+  const context = await webhookSendContext(row.workspaceId, row.watchId);
+  if (!context?.sealedSecret) return { kind: 'permanent', error: 'the watch no longer has a webhook (it was removed)' };
+  const secret = openSecret(context.sealedSecret, config.secretKey, context.watchId);
+  if (secret === null) return { kind: 'permanent', error: 'the signing secret cannot be read with the current key (WEBHOOK_SECRET_KEY changed?): rotate it' };
+  return sendWebhook(
+    { id: row.id, url: row.toAddress, body: row.textBody, secret, attempt: row.attempts },
+    { timeoutMs: config.timeoutMs, allowLoopback: config.allowLoopback, allowPrivate: context.allowPrivate, maxResponseBytes: config.maxResponseBytes, resolve: config.resolve },
+  );
+}
+
+/** One delivery pass over the due webhook deliveries, `concurrency` at a time. */
+export async function deliverDueWebhooks(config: WebhookDeliveryConfig): Promise<DeliveryReport> {
+  const now = config.now ?? (() => new Date());
+  const leaseMs = config.leaseMs ?? config.timeoutMs * 2 + 5_000;
+  const report: DeliveryReport = { sent: 0, retried: 0, failed: 0 };
+  const claimed = await claimDue('webhook', now(), leaseMs, config.concurrency ?? 4);
+  await Promise.all(
+    claimed.map(async (row) => {
+      let outcome: SendOutcome;
+      try {
+        outcome = await sendOneWebhook(row, config);
+      } catch (e) {
+        outcome = { kind: 'retry', error: e instanceof Error ? e.message : String(e) };
+      }
+      await settle(row, outcome, config.maxAttempts, now, report);
+    }),
+  );
   return report;
 }

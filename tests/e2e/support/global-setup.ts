@@ -50,6 +50,10 @@ export default async function setup(project: TestProject) {
     // benchmarks wait this long after a change before recomputing: longer than the page's status poll (1.5 s),
     // so the "Recomputing…" state is always seen by at least one poll
     RECOMPUTE_DEBOUNCE_MS: '3000',
+    // the webhook test's receiver listens on loopback, which production mode refuses without this;
+    // and a short time-out, so its 30 s-slow receiver is cut off quickly
+    WEBHOOK_ALLOW_LOOPBACK: '1',
+    WEBHOOK_TIMEOUT_MS: '3000',
     // the browser signs in and up many times within a minute
     AUTH_RATE_LIMIT_MAX: '1000',
     AUTH_ACCOUNT_RATE_LIMIT_MAX: '1000',

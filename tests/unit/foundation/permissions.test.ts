@@ -38,6 +38,9 @@ describe('workspace roles', () => {
     ['curator', 'members:update-role', false],
     ['owner', 'members:update-role', true],
     ['owner', 'members:remove', true],
+    ['owner', 'settings:network', true],
+    ['curator', 'settings:network', false],
+    ['curator', 'settings:update', true],
   ] as const)('%s → %s is %s', (role, permission, expected) => {
     expect(roleCan(role, permission)).toBe(expected);
   });

@@ -14,6 +14,9 @@ export default async function SettingsLayout({ children, params }: { children: R
           <Link href={`${base}/mail`} className="-mb-px border-b-2 border-transparent pb-2 hover:border-accent">
             Mail delivery
           </Link>
+          <Link href={`${base}/webhooks`} className="-mb-px border-b-2 border-transparent pb-2 hover:border-accent">
+            Webhooks
+          </Link>
           <Link href={`${base}/tokens`} className="-mb-px border-b-2 border-transparent pb-2 hover:border-accent">
             API tokens
           </Link>

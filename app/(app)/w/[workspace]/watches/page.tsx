@@ -9,6 +9,7 @@ import { listAlertLog } from '@/db/queries/alerts';
 import { EmptyState, Panel } from '@/components/ui/panel';
 import { WatchSettingsForm } from '@/app/(app)/w/[workspace]/watches/_components/watch-settings-form';
 import { UnwatchButton } from '@/app/(app)/w/[workspace]/watches/_components/unwatch-button';
+import { WebhookForm } from '@/app/(app)/w/[workspace]/watches/_components/webhook-form';
 
 export const metadata: Metadata = { title: 'My watches' };
 
@@ -28,7 +29,7 @@ export default async function WatchesPage({ params }: { params: Promise<{ worksp
         <h1>My watches</h1>
         <p className="text-sm text-ink-muted">
           Benchmarks you follow. When new data shift one beyond your thresholds, you get an e-mail (or a daily digest), compared with the last revision you were
-          told about.
+          told about, and a signed POST to your webhook URL if you give one.
         </p>
       </header>
       {watches.length === 0 ? (
@@ -73,6 +74,7 @@ export default async function WatchesPage({ params }: { params: Promise<{ worksp
                     unit={unitOf(w.benchmarkQuantity as 'frequency' | 'entropy')}
                   />
                 )}
+                {stopped ? null : <WebhookForm workspaceId={ctx.workspace.id} watch={{ id: w.id, url: w.webhookUrl, secretCreatedAt: w.webhookSecretCreatedAt }} />}
               </div>
               <div>
                 <h3 className="mb-2 text-[13px] font-medium">Alert log</h3>
@@ -91,7 +93,10 @@ export default async function WatchesPage({ params }: { params: Promise<{ worksp
                       {log.map((m) => (
                         <tr key={m.id} className="border-t border-rule/70 align-top">
                           <td className="num py-1 pr-2 whitespace-nowrap">{when(m.createdAt)}</td>
-                          <td className="py-1 pr-2">{m.subject}</td>
+                          <td className="py-1 pr-2">
+                            {m.channel === 'webhook' ? <span className="mr-1 rounded bg-accent-soft px-1 text-xs text-accent-strong">webhook</span> : null}
+                            {m.subject}
+                          </td>
                           <td className="py-1 whitespace-nowrap">
                             {STATUS[m.status] ?? m.status}
                             {m.sentAt ? ` ${when(m.sentAt)}` : ''}

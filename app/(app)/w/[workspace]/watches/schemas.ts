@@ -37,3 +37,8 @@ export function thresholdsFromForm(f: z.infer<typeof watchSettingsSchema>): Watc
   if (f.nRelativePercent !== undefined) out.nRelative = f.nRelativePercent / 100;
   return out;
 }
+
+/** The webhook form: a URL, or blank to remove the webhook. The URL policy is applied by the service (lib/webhooks/url-policy.ts). */
+export const watchWebhookSchema = watchIdSchema.extend({
+  webhookUrl: z.string('Give a URL, or leave it blank to remove the webhook.').max(2000, 'A webhook URL has at most 2000 characters.').default(''),
+});

@@ -75,7 +75,7 @@ export function AddToDeck({
   }, [open, loaded]);
 
   return (
-    <div className="relative inline-block text-left">
+    <div className="relative inline-block text-left print:hidden">
       <button ref={trigger} type="button" className={buttonClass('secondary', 'px-2 py-0.5 text-xs')} aria-expanded={open} aria-controls={`${id}-dialog`} onClick={() => {
           const button = trigger.current?.getBoundingClientRect();
           const page = trigger.current?.closest('main')?.getBoundingClientRect();
