@@ -62,6 +62,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   const catalog = isCatalogKind(kind);
   const [updateChanged, setUpdateChanged] = useState(false);
   const [createMissing, setCreateMissing] = useState(false);
+  const [prefer, setPrefer] = useState<'' | 'typed' | 'structure'>('');
   const [file, setFile] = useState<File | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping | undefined>(undefined);
   const [units, setUnits] = useState<DefaultUnits>({});
@@ -119,6 +120,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
       mapping: result && !referenceFile ? result.mapping : undefined,
       units: noUnitColumn ? units : undefined,
       onChange: catalog && updateChanged ? 'update' : undefined,
+      prefer: kind === 'materials' && prefer ? prefer : undefined,
       createMissing: missingFlag || undefined,
     });
     setCommit(await uploadImport<Outcome>(workspaceId, query, file));
@@ -152,6 +154,16 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
               <input type="checkbox" checked={updateChanged} onChange={(e) => setUpdateChanged(e.target.checked)} disabled={commit.status === 'sending'} />
               Update changed records (curator or owner; each update is audited and undone with the import)
             </label>
+            {kind === 'materials' && (
+              <label className="flex flex-wrap items-center gap-1.5">
+                Where a row’s structure (POSCAR or CIF in a <code>structure</code> column) disagrees with its typed formula, atoms or space group:
+                <select className={inputClass} value={prefer} onChange={(e) => setPrefer(e.target.value as typeof prefer)} disabled={commit.status === 'sending'}>
+                  <option value="">refuse the row and show both</option>
+                  <option value="typed">keep the typed values</option>
+                  <option value="structure">take the structure’s values</option>
+                </select>
+              </label>
+            )}
           </div>
         )}
         {kind === 'calculations' && (

@@ -54,7 +54,13 @@ export const importRequestSchema = z
       createMissing: createMissingSchema,
       rows: z.array(calculationRowSchema).min(1).max(MAX_JSON_ROWS),
     }),
-    z.object({ kind: z.literal('materials'), fileName: z.string().max(255).optional(), onChange: onChangeSchema, rows: z.array(materialImportRowSchema).min(1).max(MAX_JSON_ROWS) }),
+    z.object({
+      kind: z.literal('materials'),
+      fileName: z.string().max(255).optional(),
+      onChange: onChangeSchema,
+      prefer: z.enum(['typed', 'structure']).optional().meta({ description: 'Rows with a structure: which value wins where it disagrees with a typed cell (else the row is refused with both).' }),
+      rows: z.array(materialImportRowSchema).min(1).max(MAX_JSON_ROWS),
+    }),
     z.object({ kind: z.literal('methods'), fileName: z.string().max(255).optional(), onChange: onChangeSchema, rows: z.array(methodImportRowSchema).min(1).max(MAX_JSON_ROWS) }),
     z.object({ kind: z.literal('sources'), fileName: z.string().max(255).optional(), onChange: onChangeSchema, rows: z.array(sourceImportRowSchema).min(1).max(MAX_JSON_ROWS) }),
   ])
@@ -64,6 +70,7 @@ export const importKindQuerySchema = z.object({
   kind: z.enum(['measurements', 'calculations', 'materials', 'methods', 'sources'], 'Give ?kind=measurements, calculations, materials, methods or sources.'),
   fileName: z.string().max(255).optional(),
   onChange: z.enum(['refuse', 'update'], 'onChange is refuse or update.').optional(),
+  prefer: z.enum(['typed', 'structure'], 'prefer is typed or structure.').optional(),
   createMissing: z.enum(['true', 'false'], 'createMissing is true or false.').optional(),
 });
 

@@ -23,6 +23,8 @@ export const MATERIAL_IMPORT_COLUMNS: readonly ColumnDef[] = [
   col('atoms_in_cell', false, 'Atoms in the primitive cell: a whole multiple of the atoms per (reduced) formula unit.', ['atoms', 'natoms', 'n_atoms', 'atoms_in_primitive_cell', 'nsites']),
   col('external_id', false, 'Free external structure identifier (e.g. a database entry id); matches a stored material first.', ['externalid', 'structure_id', 'ext_id']),
   col('tags', false, 'Material classes separated by commas, e.g. "nitride, semiconductor".', ['tag', 'classes', 'class']),
+  col('structure', false, 'POSCAR/CONTCAR or CIF text (quoted, line breaks kept): formula, atoms in the primitive cell and space group are derived from it and fill empty cells.', ['poscar', 'cif']),
+  col('prefer', false, 'Where the structure disagrees with a typed cell: typed | structure (else the file-wide choice; without one the row is refused with both values).'),
 ];
 
 export const METHOD_IMPORT_COLUMNS: readonly ColumnDef[] = [

@@ -152,7 +152,13 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           const rowErrors: RowError[] = [];
           const read = (key: string) => { const idx = h.indexByKey.get(key); return idx === undefined ? undefined : fields[idx]; };
           const columnName = (key: string) => h.nameByKey.get(key) ?? key;
-          if (catalogKind) {
+          const structureText = catalogKind === 'materials' ? (read('structure') ?? '').trim() : '';
+          if (structureText !== '') {
+            // Formula, atoms and space group come from the structure's symmetry search, which runs on the server.
+            validCount++;
+            ok = true;
+            stored = { label: (read('name') ?? '').trim() || null, value: 'from the structure: checked on the server' };
+          } else if (catalogKind) {
             const checked = validateCatalogRow(catalogKind, row, read, columnName, rowErrors);
             if (checked) {
               validCount++;
@@ -163,7 +169,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           }
           const valid = catalogKind ? null : validateRow(row, read, { kind: request.kind as 'measurements' | 'calculations', references, units: request.units, columnName, missing }, rowErrors);
           if (catalogKind) {
-            if (!ok) {
+            if (!ok && structureText === '') {
               errorCount += Math.max(1, rowErrors.length);
               errors.push(...rowErrors.slice(0, Math.max(0, MAX_REPORTED_ERRORS - errors.length)));
               for (const e of rowErrors) if (e.column && !badColumns.includes(e.column)) badColumns.push(e.column);

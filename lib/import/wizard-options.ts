@@ -8,6 +8,8 @@ export const wizardOptionsSchema = z.object({
   kind: z.enum([...IMPORTABLE_KINDS, ...CATALOG_KINDS], 'Choose measurements, calculations, materials, methods or sources.'),
   /** Catalogue kinds: update stored records a row changes (curator or owner), instead of refusing the file. */
   onChange: z.enum(['refuse', 'update']).optional(),
+  /** Materials with a structure column: typed or structure values where they disagree. */
+  prefer: z.enum(['typed', 'structure']).optional(),
   /** Calculations: create missing materials and methods from the rows' catalogue columns. */
   createMissing: z.boolean().optional(),
   fileName: z.string().max(255).optional(),
@@ -29,6 +31,7 @@ export function wizardQuery(options: WizardOptions): string {
   if (options.mapping) q.set('mapping', JSON.stringify(options.mapping));
   if (options.units) q.set('units', JSON.stringify(options.units));
   if (options.onChange) q.set('onChange', options.onChange);
+  if (options.prefer) q.set('prefer', options.prefer);
   if (options.createMissing) q.set('createMissing', 'true');
   return q.toString();
 }
@@ -50,6 +53,7 @@ export function parseWizardQuery(params: URLSearchParams) {
     mapping: json('mapping'),
     units: json('units'),
     onChange: params.get('onChange') ?? undefined,
+    prefer: params.get('prefer') ?? undefined,
     createMissing: params.get('createMissing') === null ? undefined : params.get('createMissing') === 'true',
   });
 }

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { and, count, eq, isNull } from 'drizzle-orm';
 import { db } from '@/db/client';
@@ -37,7 +38,7 @@ function call(path: string, init: RequestInit & { token?: string } = {}) {
 }
 
 let fileNumber = 0;
-function importText(text: string, kind: TableKind, extra: { workspaceId?: string; role?: WorkspaceRole; onChange?: 'refuse' | 'update'; createMissing?: boolean; userId?: string } = {}) {
+function importText(text: string, kind: TableKind, extra: { workspaceId?: string; role?: WorkspaceRole; onChange?: 'refuse' | 'update'; prefer?: 'typed' | 'structure'; createMissing?: boolean; userId?: string } = {}) {
   return importFile({
     workspaceId: extra.workspaceId ?? ws.workspaceId,
     actor: { userId: extra.userId ?? ws.owner.id, tokenId: null },
@@ -47,6 +48,7 @@ function importText(text: string, kind: TableKind, extra: { workspaceId?: string
     fileName: `file-${++fileNumber}.csv`,
     body: chunksOf(bytesOf(text), 13),
     onChange: extra.onChange,
+    prefer: extra.prefer,
     createMissing: extra.createMissing,
   });
 }
@@ -356,5 +358,41 @@ describe('calculations with createMissing', () => {
     expect(out).toMatchObject({ insertedCount: 1, createdMaterials: 0, createdMethods: 0 });
     const [row] = await db.select().from(calculation).where(eq(calculation.importId, out.importId!));
     expect(row.materialId).toBe(cat.gan.id);
+  });
+});
+
+describe('materials with a structure column (POSCAR or CIF text)', () => {
+  // data/structures/: invented demo cells with textbook lattice parameters (see its README).
+  const quoted = (text: string) => `"${text.replace(/"/g, '""')}"`;
+  const gan = readFileSync('data/structures/GaN-wurtzite.POSCAR', 'utf8');
+  const nacl = readFileSync('data/structures/NaCl-rocksalt.cif', 'utf8');
+  const HEAD = 'name,formula,space_group,atoms_in_cell,structure,prefer';
+
+  it('derives formula, atoms in the primitive cell and space group into empty cells (POSCAR and CIF)', async () => {
+    const out = (await importText(`${HEAD}\nS-GaN,,,,${quoted(gan)},\nS-NaCl,,,,${quoted(nacl)},`, 'materials')) as CatalogImportOutcome;
+    expect(out.createdCount).toBe(2);
+    const rows = await db.select().from(material).where(and(eq(material.workspaceId, ws.workspaceId), eq(material.importId, out.importId!)));
+    const byName = new Map(rows.map((r) => [r.name, r]));
+    expect(byName.get('S-GaN')).toMatchObject({ reducedFormula: 'GaN', spaceGroup: 186, atomsInCell: 4 });
+    expect(byName.get('S-NaCl')).toMatchObject({ reducedFormula: 'NaCl', spaceGroup: 225, atomsInCell: 2 });
+  });
+
+  it('refuses a row whose typed values disagree with its structure, showing both, until one is chosen', async () => {
+    const text = `${HEAD}\nS2-GaN,GaN,225,4,${quoted(gan)},`;
+    const e = await refusal(importText(text, 'materials'));
+    expect(e.errors).toEqual([expect.objectContaining({ row: 2, column: 'space_group', reason: expect.stringContaining('Typed 225, the structure (poscar) gives space group 186') })]);
+    const typed = (await importText(text, 'materials', { prefer: 'typed' })) as CatalogImportOutcome;
+    const [kept] = await db.select().from(material).where(eq(material.importId, typed.importId!));
+    expect(kept.spaceGroup).toBe(225);
+    const perRow = (await importText(`${HEAD}\nS3-GaN,GaN,225,4,${quoted(gan)},structure`, 'materials', { prefer: 'typed' })) as CatalogImportOutcome;
+    const [taken] = await db.select().from(material).where(eq(material.importId, perRow.importId!));
+    expect(taken.spaceGroup).toBe(186);
+  });
+
+  it('a structure that does not parse is a row error with the reason; nothing is written', async () => {
+    const before = await liveMaterials();
+    const e = await refusal(importText(`${HEAD}\nS-bad,,,,${quoted('not a structure\n1.0\n')},`, 'materials'));
+    expect(e.errors).toEqual([expect.objectContaining({ row: 2, column: 'structure', reason: expect.stringContaining('The structure cannot be read') })]);
+    expect(await liveMaterials()).toBe(before);
   });
 });

@@ -27,6 +27,7 @@ import type { CatalogKind } from '@/lib/import/catalog-columns';
 import { changedRowErrors, planCatalogImport, sourceFromInput, validateCatalogRow, type CatalogRow } from '@/lib/import/catalog-rows';
 import { excerpt, importRefusal, MAX_REPORTED_ERRORS, type RowError } from '@/lib/import/errors';
 import type { ImportTable } from '@/lib/import/table';
+import { resolveStructureColumn, type Prefer } from '@/lib/import/structure-column';
 import { describeReferenceError, detectFormat, parseReferences } from '@/lib/citations/import';
 import { roleCan, type WorkspaceRole } from '@/lib/permissions';
 import { dataChanged } from '@/lib/services/data-changed';
@@ -60,6 +61,8 @@ export interface CatalogImportInput {
   sha256: string;
   byteCount: number;
   onChange?: OnChange;
+  /** Materials with a structure column: which value wins where structure and typed cells disagree (else the row is refused). */
+  prefer?: Prefer;
 }
 
 /** The permissions a catalogue import needs beyond imports:create: create records of its kind, and for updates retract them (curator or owner). */
@@ -92,7 +95,16 @@ export async function importCatalogTable(input: CatalogImportInput, table: Impor
         continue;
       }
       const rowErrors: RowError[] = [];
-      const valid = validateCatalogRow(input.kind, r.row, r.read, (key) => table.columnName(key), rowErrors);
+      let read = r.read;
+      if (input.kind === 'materials' && (r.read('structure') ?? '').trim() !== '') {
+        const resolved = await resolveStructureColumn(r.row, r.read, input.prefer, (key) => table.columnName(key), rowErrors);
+        if (!resolved) {
+          rowErrors.forEach(add);
+          continue;
+        }
+        read = resolved;
+      }
+      const valid = validateCatalogRow(input.kind, r.row, read, (key) => table.columnName(key), rowErrors);
       if (valid) rows.push(valid);
       else rowErrors.forEach(add);
     }

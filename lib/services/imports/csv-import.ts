@@ -9,6 +9,7 @@ import type { ImportableKind, TableKind } from '@/lib/import/columns';
 import { isCatalogKind } from '@/lib/import/catalog-columns';
 import type { WorkspaceRole } from '@/lib/permissions';
 import { importCatalogTable, importReferenceText, type CatalogImportOutcome, type OnChange } from './catalog-import';
+import type { Prefer } from '@/lib/import/structure-column';
 import { assertCreateMissingPermissions } from './create-missing';
 import { decodeUtf8Strict } from '@/lib/import/decode';
 import { excerpt, MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/errors';
@@ -30,6 +31,8 @@ export interface CsvImportInput {
   fileName: string | null;
   /** Catalogue kinds: what to do with a row whose stored record has other values (default refuse). */
   onChange?: OnChange;
+  /** Materials with a structure column: typed or structure values where they disagree. */
+  prefer?: Prefer;
   /** Calculations: create materials and methods the rows name but the workspace lacks, from the rows' catalogue columns. */
   createMissing?: boolean;
   /** The file's bytes as they arrive (already limited to IMPORT_MAX_BYTES by the caller). */
@@ -46,7 +49,7 @@ export async function importFile(input: CsvImportInput & { kind: TableKind }): P
   const spooled = await spool(input.body);
   try {
     if (spooled.byteCount === 0) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
-    const catalogInput = { workspaceId: input.workspaceId, actor: input.actor, role, via: input.via, kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, onChange: input.onChange };
+    const catalogInput = { workspaceId: input.workspaceId, actor: input.actor, role, via: input.via, kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, onChange: input.onChange, prefer: input.prefer };
     if (kind === 'sources') {
       const text = decodeUtf8Strict(new Uint8Array(await readFile(/*turbopackIgnore: true*/ spooled.path)), { csv: true });
       const references = await importReferenceText(catalogInput, text);
@@ -116,9 +119,9 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
   const body = parsed.data;
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');
   if (isCatalogKind(body.kind)) {
-    const catalog = body as { kind: typeof body.kind & ('materials' | 'methods' | 'sources'); fileName?: string; onChange?: OnChange; rows: Array<Record<string, unknown>> };
+    const catalog = body as { kind: typeof body.kind & ('materials' | 'methods' | 'sources'); fileName?: string; onChange?: OnChange; prefer?: Prefer; rows: Array<Record<string, unknown>> };
     return importCatalogTable(
-      { workspaceId: input.workspaceId, actor: input.actor, role: input.role, via: 'api', kind: catalog.kind, fileName: catalog.fileName ?? null, sha256, byteCount: input.bytes.byteLength, onChange: catalog.onChange },
+      { workspaceId: input.workspaceId, actor: input.actor, role: input.role, via: 'api', kind: catalog.kind, fileName: catalog.fileName ?? null, sha256, byteCount: input.bytes.byteLength, onChange: catalog.onChange, prefer: catalog.prefer },
       jsonTable(catalog.kind, catalog.rows),
     );
   }

@@ -45,7 +45,7 @@ async function runImport(request: Request, ctx: TokenContext): Promise<Response>
       return Response.json(outcome, { status: 201, headers: { location: `/api/v1/imports/${outcome.importId}` } });
     }
     const param = (name: string) => url.searchParams.get(name) ?? undefined;
-    const query = importKindQuerySchema.safeParse({ kind: param('kind'), fileName: param('fileName'), onChange: param('onChange'), createMissing: param('createMissing') });
+    const query = importKindQuerySchema.safeParse({ kind: param('kind'), fileName: param('fileName'), onChange: param('onChange'), prefer: param('prefer'), createMissing: param('createMissing') });
     if (!query.success) throw new AppError('bad-request', issuesText(query.error.issues));
     outcome = await importFile({
       workspaceId: ctx.workspaceId,
@@ -55,6 +55,7 @@ async function runImport(request: Request, ctx: TokenContext): Promise<Response>
       kind: query.data.kind,
       fileName: query.data.fileName ?? null,
       onChange: query.data.onChange,
+      prefer: query.data.prefer,
       createMissing: query.data.createMissing === 'true',
       body: limitedBody(request, maxBytes),
     });

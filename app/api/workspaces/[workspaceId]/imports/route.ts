@@ -37,6 +37,7 @@ async function postImport(request: Request, ctx: MemberContext): Promise<Respons
       via: 'wizard',
       kind: options.data.kind,
       onChange: options.data.onChange,
+      prefer: options.data.prefer,
       createMissing: options.data.createMissing,
       fileName: options.data.fileName ?? null,
       body: limitedBody(request, envValue('IMPORT_MAX_BYTES')),
