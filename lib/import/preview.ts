@@ -211,6 +211,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
       }
     }
   }
+  if (catalogKind) errors.sort((a, b) => a.row - b.row);
   const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
   return { headers, delimiter, delimiterName: delimiterName(delimiter), mapping, ignored: resolved.ignored, rowCount, validCount, errorCount, errors, preview, warnings, warningCount };
 }

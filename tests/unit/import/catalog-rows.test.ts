@@ -95,3 +95,29 @@ describe('MissingCatalog (createMissing)', () => {
     expect(references.materials.get('NaCl-rs')?.id).toBe('new-1');
   });
 });
+
+describe('the wizard preview of catalogue kinds and createMissing', () => {
+  // previewCsv is what the browser's worker runs before upload
+  const refs = { materials: [], sources: [{ citeKey: 'calc2026', id: 's1' }], methods: [] };
+
+  it('checks materials rows, flags duplicates and unknown columns, and shows what each valid row stores', async () => {
+    const { previewCsv } = await import('@/lib/import/preview');
+    const result = previewCsv('name,formula,space_group,atoms_in_cell,colour\nGaN-wz,GaN,186,4,\nGaN-wz,GaN,186,4,\nBad,GaN,186,3,\n', { kind: 'materials', references: refs });
+    expect(result.errors.map((e) => [e.row, e.column])).toEqual([
+      [1, 'colour'],
+      [3, 'name'],
+      [4, 'atoms_in_cell'],
+    ]);
+    expect(result.preview[0]).toMatchObject({ ok: true, stored: { label: 'GaN-wz', value: expect.stringContaining('GaN · SG 186 (hexagonal) · Z = 2') } });
+    expect(result.preview[1].ok).toBe(false);
+  });
+
+  it('accepts unknown materials and methods of a calculation file only with createMissing', async () => {
+    const { previewCsv } = await import('@/lib/import/preview');
+    const text = 'material,method,quantity,value,unit,source,material_formula,material_space_group,material_atoms_in_cell,method_functional\nNaCl-rs,PBE-new,frequency,164,cm-1,calc2026,NaCl,225,2,PBE\n';
+    expect(previewCsv(text, { kind: 'calculations', references: refs }).errorCount).toBe(2);
+    const withFlag = previewCsv(text, { kind: 'calculations', references: refs, createMissing: true });
+    expect(withFlag.errors).toEqual([]);
+    expect(withFlag.validCount).toBe(1);
+  });
+});
