@@ -214,7 +214,8 @@ function writePipelineCsv(path: string, materials: number, catalogue: boolean): 
 }
 
 /**
- * Catalogue benchmark (`--kind=materials`, 15,000 rows by default): a materials CSV
+ * Catalogue benchmark (`--kind=materials`, 15,000 rows by default), after an untimed warm-up import of
+ * 500 materials into another workspace (as a running server has compiled its code): a materials CSV
  * through the same function the wizard and the API call (spool, decode, parse, the
  * form's zod checks, derivation, identity matching against the stored materials,
  * multi-row INSERTs of materials and tags in one transaction), against the floor: the
@@ -230,7 +231,12 @@ async function catalogueMain() {
   const csvPath = join(dir, 'materials.csv');
   const bytes = writeMaterialsCsv(csvPath, ROWS);
   console.log(`Generated ${ROWS.toLocaleString('en')} material rows (${mb(bytes)}) — synthetic, invented handles.`);
-  const before = await client.execute('SELECT count(*) FROM material');
+  // A running server has compiled its import code already: warm it with 500 rows in another workspace (untimed).
+  const warmPath = join(dir, 'warm.csv');
+  writeMaterialsCsv(warmPath, 500);
+  await db.insert(schema.organization).values({ id: 'bench-warm', name: 'Bench warm-up (synthetic)', slug: 'bench-warm', createdAt: new Date() });
+  await importFile({ workspaceId: 'bench-warm', actor: { userId, tokenId: null }, role: 'owner', via: 'api', kind: 'materials', fileName: 'warm.csv', body: createReadStream(warmPath) });
+  const before = await client.execute({ sql: 'SELECT count(*) FROM material WHERE workspace_id = ?', args: [workspaceId] });
   const tImport = performance.now();
   const outcome = await importFile({ workspaceId, actor: { userId, tokenId: null }, role: 'owner', via: 'api', kind: 'materials', fileName: 'materials.csv', body: createReadStream(csvPath, { highWaterMark: 1 << 16 }) });
   const importMs = performance.now() - tImport;
