@@ -43,7 +43,14 @@ async function storedMaterials(workspaceId: string, executor: Executor = db): Pr
 
 async function storedMethods(workspaceId: string, executor: Executor = db): Promise<Array<Stored<'methods'>>> {
   const rows = await executor.select().from(method).where(eq(method.workspaceId, workspaceId));
-  return rows.map((m) => ({ ...methodRecordOf(m), id: m.id, retracted: m.retractedAt !== null }));
+  return rows.map((m) => ({ ...methodRecordOf(m), id: m.id, retracted: m.retractedAt !== null, revivable: revivable(m) }));
+}
+
+/** The reason undoCatalogChanges writes; a record retracted for any other reason is not revived by an import. */
+const UNDO_REASON_PREFIX = 'Import undone: ';
+
+function revivable(r: { retractedAt: Date | null; retractionReason: string | null; importId: string | null }): boolean {
+  return r.retractedAt !== null && r.importId !== null && (r.retractionReason ?? '').startsWith(UNDO_REASON_PREFIX);
 }
 
 function methodRecordOf(m: typeof method.$inferSelect): MethodRecord {
@@ -64,7 +71,7 @@ function methodRecordOf(m: typeof method.$inferSelect): MethodRecord {
 
 async function storedSources(workspaceId: string, executor: Executor = db): Promise<Array<Stored<'sources'>>> {
   const rows = await executor.select().from(source).where(eq(source.workspaceId, workspaceId));
-  return rows.map((s) => ({ ...sourceRecordOf(s), id: s.id, retracted: s.retractedAt !== null }));
+  return rows.map((s) => ({ ...sourceRecordOf(s), id: s.id, retracted: s.retractedAt !== null, revivable: revivable(s) }));
 }
 
 function sourceRecordOf(s: typeof source.$inferSelect): SourceRow {
@@ -161,13 +168,15 @@ async function updateRecord(tx: Executor, workspaceId: string, kind: CatalogKind
 
 const ENTITY: Record<CatalogKind, string> = { materials: 'material', methods: 'method', sources: 'source' };
 const strip = <T extends object>(r: T) => {
-  const { id: _i, retracted: _r, ...rest } = r as T & { id?: unknown; retracted?: unknown };
+  const { id: _i, retracted: _r, revivable: _v, ...rest } = r as T & { id?: unknown; retracted?: unknown; revivable?: unknown };
   return rest;
 };
 
 export interface CatalogWrite<K extends CatalogKind> {
   creates: Array<CatalogRecord<K>>;
   updates: Array<{ id: string; before: Stored<K>; after: CatalogRecord<K> }>;
+  /** Records retracted by an import's undo, restored with the row's values and now owned by this import (its undo retracts them again). */
+  revives?: Array<{ id: string; before: Stored<K>; record: CatalogRecord<K> }>;
 }
 
 /**
@@ -199,14 +208,25 @@ export async function commitCatalogImport<K extends CatalogKind>(
         tx,
       );
     }
-    const insertedCount = created.length + write.updates.length;
+    for (const r of write.revives ?? []) {
+      await updateRecord(tx, workspaceId, kind, r.id, r.record as unknown as Record<string, unknown>);
+      const owner = { retractedAt: null, retractedBy: null, retractionReason: null, importId };
+      if (kind === 'methods') await tx.update(method).set(owner).where(and(eq(method.workspaceId, workspaceId), eq(method.id, r.id)));
+      else await tx.update(source).set(owner).where(and(eq(source.workspaceId, workspaceId), eq(source.id, r.id)));
+      await writeAudit(
+        { workspaceId, actor, action: 'import-restore', entityType: ENTITY[kind], entityId: r.id, before: strip(r.before), after: { ...(r.record as object), importId }, reason: `Import ${file.fileName ?? importId}` },
+        tx,
+      );
+    }
+    const revived = write.revives?.length ?? 0;
+    const insertedCount = created.length + revived + write.updates.length;
     const summary = { rowCount: counts.rowCount, insertedCount, duplicateCount: counts.unchangedCount };
     await tx.update(importBatch).set(summary).where(eq(importBatch.id, importId));
     await writeImportAudit(
       workspaceId,
       actor,
       importId,
-      { kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, via: file.via, rowCount: counts.rowCount, createdCount: created.length, updatedCount: write.updates.length, unchangedCount: counts.unchangedCount },
+      { kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, via: file.via, rowCount: counts.rowCount, createdCount: created.length + revived, restoredCount: revived, updatedCount: write.updates.length, unchangedCount: counts.unchangedCount },
       tx,
     );
     await raw.commit();
@@ -243,7 +263,7 @@ async function liveCount(tx: Executor, table: 'measurement' | 'calculation', col
 export async function undoCatalogChanges(tx: Executor, workspaceId: string, importId: string, actorUserId: string, reason: string): Promise<{ retractedRecords: number; restoredRecords: number }> {
   const problems: string[] = [];
   const now = new Date();
-  const retraction = { retractedAt: now, retractedBy: actorUserId, retractionReason: `Import undone: ${reason}` };
+  const retraction = { retractedAt: now, retractedBy: actorUserId, retractionReason: `${UNDO_REASON_PREFIX}${reason}` };
   let retractedRecords = 0;
 
   const createdMaterials = await tx.select({ id: material.id, name: material.name }).from(material).where(and(eq(material.workspaceId, workspaceId), eq(material.importId, importId), isNull(material.retractedAt)));

@@ -250,7 +250,12 @@ export function validateCatalogRow(kind: CatalogKind, row: number, read: CellRea
 
 // ---------------------------------------------------------------- matching
 
-export type Stored<K extends CatalogKind> = CatalogRecord<K> & { id: string; retracted: boolean };
+/**
+ * `revivable`: retracted only because the import that created it was undone (nothing else retracted it). A
+ * method's label and a source's cite key stay reserved by a retracted record, so a corrected file imported
+ * after an undo restores such a record with the row's values instead of being refused.
+ */
+export type Stored<K extends CatalogKind> = CatalogRecord<K> & { id: string; retracted: boolean; revivable?: boolean };
 
 export interface FieldChange {
   column: string;
@@ -264,6 +269,8 @@ export interface CatalogPlan<K extends CatalogKind> {
   /** Rows whose record exists with other values; `after` is the stored record with the row's given fields. */
   changed: Array<{ row: number; id: string; before: Stored<K>; after: CatalogRecord<K>; changes: FieldChange[] }>;
   unchanged: Array<{ row: number; id: string; handle: string }>;
+  /** Rows that restore a record retracted by the undo of the import that created it, with the row's values. */
+  revives: Array<{ row: number; id: string; before: Stored<K>; record: CatalogRecord<K> }>;
   errors: RowError[];
 }
 
@@ -288,6 +295,7 @@ function compare<K extends CatalogKind>(kind: K, row: CatalogRow<K>, stored: Sto
   const after = { ...(stored as unknown as Record<string, unknown>) };
   delete after.id;
   delete after.retracted;
+  delete after.revivable;
   const changes: FieldChange[] = [];
   const record = row.record as unknown as Record<string, unknown>;
   for (const field of row.given) {
@@ -317,7 +325,7 @@ const materialKey = (m: Pick<MaterialRecord, 'reducedFormula' | 'spaceGroup' | '
  * by a different record, a retracted match, a DOI that is another source).
  */
 export function planCatalogImport<K extends CatalogKind>(kind: K, rows: ReadonlyArray<CatalogRow<K>>, stored: ReadonlyArray<Stored<K>>, columnName: (key: string) => string): CatalogPlan<K> {
-  const plan: CatalogPlan<K> = { creates: [], changed: [], unchanged: [], errors: [] };
+  const plan: CatalogPlan<K> = { creates: [], changed: [], unchanged: [], revives: [], errors: [] };
   const byHandle = new Map<string, Stored<K>>();
   const byExternal = new Map<string, Stored<K>>();
   const byMaterialKey = new Map<string, Stored<K>>();
@@ -386,6 +394,10 @@ export function planCatalogImport<K extends CatalogKind>(kind: K, rows: Readonly
     if (dup) continue;
     if (!match) {
       plan.creates.push(r);
+      continue;
+    }
+    if (match.retracted && match.revivable) {
+      plan.revives.push({ row: r.row, id: match.id, before: match, record: r.record });
       continue;
     }
     if (match.retracted) {

@@ -8,6 +8,7 @@ import * as importsRoute from '@/app/api/v1/imports/route';
 import { importCsvFile, importFile } from '@/lib/services/imports/csv-import';
 import type { CatalogImportOutcome } from '@/lib/services/imports/catalog-import';
 import { undoImport } from '@/lib/services/imports/undo';
+import { retractMethod } from '@/lib/services/catalog/changes';
 import { isImportRefusal, type ImportRefusalError } from '@/lib/import/errors';
 import { AppError } from '@/lib/errors';
 import type { TableKind } from '@/lib/import/columns';
@@ -246,6 +247,28 @@ describe('methods import', () => {
   it('a changed recipe is refused with the stored and the new value', async () => {
     const e = await refusal(importText('label,functional,cutoff_eV\nPBE-PAW-520,PBE,600', 'methods'));
     expect(e.errors).toEqual([expect.objectContaining({ row: 2, column: 'cutoff_eV', reason: expect.stringContaining('stored 520, this file 600') })]);
+  });
+
+  it('after an undo, the corrected file restores the methods with its values (labels stay reserved); a method retracted by hand is still refused', async () => {
+    const first = (await importText('label,functional,cutoff_eV\nSCAN-R1,SCAN,700\nSCAN-R2,SCAN,800', 'methods')) as CatalogImportOutcome;
+    await undoImport(ws.workspaceId, first.importId!, ws.owner.id, 'cutoffs typed wrong');
+    const fixed = (await importText('label,functional,cutoff_eV\nSCAN-R1,SCAN,750\nSCAN-R2,SCAN,850', 'methods')) as CatalogImportOutcome;
+    expect(fixed).toMatchObject({ createdCount: 2, updatedCount: 0 });
+    const rows = await db.select().from(method).where(and(eq(method.workspaceId, ws.workspaceId), eq(method.functional, 'SCAN')));
+    expect(rows.map((m) => [m.label, m.cutoffEv, m.retractedAt, m.importId]).sort()).toEqual([
+      ['SCAN-R1', 750, null, fixed.importId],
+      ['SCAN-R2', 850, null, fixed.importId],
+    ]);
+    const restored = await db.select().from(auditLog).where(and(eq(auditLog.action, 'import-restore'), eq(auditLog.entityId, rows[0].id)));
+    expect(restored).toHaveLength(1);
+    // The new import owns them: its undo retracts them again.
+    await undoImport(ws.workspaceId, fixed.importId!, ws.owner.id, 'not this run');
+    expect((await db.select().from(method).where(and(eq(method.workspaceId, ws.workspaceId), eq(method.functional, 'SCAN'), isNull(method.retractedAt))))).toHaveLength(0);
+    // A curator's own retraction is not undone by an import.
+    const [lda] = await db.select().from(method).where(and(eq(method.workspaceId, ws.workspaceId), eq(method.label, 'LDA-NC-80')));
+    await retractMethod(ws.workspaceId, { userId: ws.owner.id }, lda.id, 'recipe withdrawn');
+    const e = await refusal(importText('label,functional\nLDA-NC-80,LDA', 'methods'));
+    expect(e.errors).toEqual([expect.objectContaining({ row: 2, column: 'label', reason: expect.stringContaining('restore it first') })]);
   });
 });
 

@@ -14,6 +14,12 @@ import 'server-only';
  * are updated, each with an audit row holding before and after; undo restores them
  * unless they were changed again since.
  *
+ * After an undo: a materials row matches live materials only, so it creates the material
+ * again. A method's label and a source's cite key stay reserved by the retracted record,
+ * so a row naming one that was retracted *by an undo* restores it with the row's values
+ * (audit action "import-restore"; counted as created; the new import owns it and its undo
+ * retracts it again). A record retracted for any other reason is refused: restore it first.
+ *
  * Rows identical to stored records are counted and listed as unchanged. A file whose
  * rows are all unchanged writes nothing, not even an import (importId null), so
  * re-importing a catalogue is idempotent. The same bytes imported before and having
@@ -160,7 +166,7 @@ async function commitRows(input: CatalogImportInput, rows: CatalogRow[], rowCoun
     duplicates: unchanged.map((u) => ({ row: u.row, reason: `Identical to the stored ${singular(kind)} "${excerpt(u.handle)}"; nothing written.` })),
   };
   const updates = update ? plan.changed.map((c) => ({ id: c.id, before: c.before, after: c.after })) : [];
-  if (plan.creates.length === 0 && updates.length === 0) return { ...base, importId: null, createdCount: 0, updatedCount: 0, insertedCount: 0 };
+  if (plan.creates.length === 0 && plan.revives.length === 0 && updates.length === 0) return { ...base, importId: null, createdCount: 0, updatedCount: 0, insertedCount: 0 };
 
   const first = await findImportBySha(input.workspaceId, input.sha256);
   if (first) throw duplicateFile(first);
@@ -169,12 +175,13 @@ async function commitRows(input: CatalogImportInput, rows: CatalogRow[], rowCoun
     input.actor,
     { kind, fileName: input.fileName, sha256: input.sha256, byteCount: input.byteCount, via: input.via },
     kind,
-    { creates: plan.creates.map((c) => c.record), updates },
+    { creates: plan.creates.map((c) => c.record), updates, revives: plan.revives.map(({ id, before, record }) => ({ id, before, record })) },
     { rowCount, unchangedCount: plan.unchanged.length },
   );
   // New records change no benchmark (nothing refers to them yet); updated ones may.
   if (updates.length) dataChanged(input.workspaceId, { cause: { trigger: 'import', importId, userId: input.actor.userId } });
-  return { ...base, importId, createdCount: plan.creates.length, updatedCount: updates.length, insertedCount: plan.creates.length + updates.length };
+  const createdCount = plan.creates.length + plan.revives.length;
+  return { ...base, importId, createdCount, updatedCount: updates.length, insertedCount: createdCount + updates.length };
 }
 
 export const sha256Of = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
