@@ -155,7 +155,8 @@ function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readon
       encoding: { x: x(), y: y(), stroke: markers, tooltip: tooltip(unit) },
     },
     {
-      data: { values: rows },
+      // the keyboard ring needs every pair's place, not its text
+      data: { values: points.map((p) => ({ key: p.key, [axes.x]: (p as unknown as Record<string, number>)[axes.x], [axes.y]: (p as unknown as Record<string, number>)[axes.y] })) },
       transform: [{ filter: `${FOCUS_PARAM} !== null && datum.key === ${FOCUS_PARAM}` }],
       mark: { type: 'point' as const, shape: 'circle', filled: false, size: 420, strokeWidth: 2.5, color: '#17212b' },
       encoding: { x: x(), y: y() },
@@ -200,12 +201,14 @@ export interface ParityOptions {
   bandPercent?: number;
   width?: number;
   height?: number;
+  /** Draw the pairs as a density: by default above DENSITY_THRESHOLD pairs (false forces one mark per pair, for bench:plot's comparison). */
+  density?: boolean;
 }
 
 /** Calculated vs measured with y = x, a ±bandPercent band and measured error bars. */
 export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions): TopLevelSpec {
   const band = (o.bandPercent ?? 5) / 100;
-  const density = drawsDensity(points.length);
+  const density = o.density ?? drawsDensity(points.length);
   const domain = sharedDomain(points.flatMap((p) => [p.measured, p.calculated, p.measured - (p.uMeasured ?? 0), p.measured + (p.uMeasured ?? 0)]));
   const [lo, hi] = domain;
   const axis = { domain, zero: false, nice: false };
