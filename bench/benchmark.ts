@@ -28,6 +28,7 @@ const { recomputeBenchmark } = await import('../lib/services/benchmarks/recomput
 const { computeBenchmark } = await import('../lib/benchmark/compute');
 const { statisticsPayload } = await import('../lib/benchmark/statistics-payload');
 const { plotPoints } = await import('../lib/benchmark/pairs-export');
+const { encodePlotColumns } = await import('../lib/benchmark/plot-columns');
 const { createRandom } = await import('../lib/science');
 
 const MATERIALS = 1500;
@@ -217,10 +218,10 @@ await latency('GET …/statistics', async () => {
   const revision = await getRevision(workspaceId, benchmarkId);
   return JSON.stringify(statisticsPayload({ id: bm.id, name: bm.name }, revision, false));
 });
-await latency('GET …/pairs (plot points)', async () => {
+await latency('GET …/pairs (plot columns)', async () => {
   const revision = (await getRevision(workspaceId, benchmarkId))!;
   const lookups = await pairLookups(workspaceId, revision.statistics);
-  return JSON.stringify({ revision: revision.number, unit: revision.statistics.unit, points: plotPoints(revision.statistics, lookups) });
+  return JSON.stringify(encodePlotColumns(plotPoints(revision.statistics, lookups), { revision: revision.number, unit: revision.statistics.unit }));
 });
 
 closeDb();

@@ -10,6 +10,7 @@ import { GET as getBibtex } from '@/app/api/workspaces/[workspaceId]/benchmarks/
 import { createBenchmark } from '@/db/queries/benchmarks';
 import { getRevision } from '@/db/queries/revisions';
 import { recomputeBenchmark } from '@/lib/services/benchmarks/recompute';
+import { decodePlotColumns } from '@/lib/benchmark/plot-columns';
 import { addMaterial, addMeasurement, addMethod, addModeSet, addSource, formData } from './benchmark-support';
 
 let a: Awaited<ReturnType<typeof createWorkspaceWith>>;
@@ -128,10 +129,10 @@ describe('benchmark access', () => {
   it('exports the sources as BibTeX and the plot points as JSON', async () => {
     const bib = await (await call(getBibtex, a.workspaceId, benchmarkId)).text();
     expect(bib).toContain('@article{doe2020');
-    const json = await (await call(getPairs, a.workspaceId, benchmarkId)).json();
-    expect(json.points).toHaveLength(3);
-    expect(json.points[0]).toMatchObject({ method: 'PBEsol' });
-    expect(json.points[0].citation).toContain('Test J.');
+    const points = decodePlotColumns(await (await call(getPairs, a.workspaceId, benchmarkId)).json());
+    expect(points).toHaveLength(3);
+    expect(points[0]).toMatchObject({ method: 'PBEsol' });
+    expect(points[0].citation).toContain('Test J.');
   });
 
   it('compares entropies at the benchmark temperature without pairing modes', async () => {

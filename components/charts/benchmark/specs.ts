@@ -20,6 +20,30 @@ export function rendererFor(pointCount: number): 'svg' | 'canvas' {
   return pointCount > CANVAS_THRESHOLD ? 'canvas' : 'svg';
 }
 
+/**
+ * Above this many pairs the parity plot draws a binned density (pairs per cell)
+ * instead of one mark per pair, with the flagged outliers and the excluded pairs
+ * on top as points; 30,000 marks take seconds to draw and hide each other anyway.
+ */
+export const DENSITY_THRESHOLD = 5000;
+/** Cells per axis of the density layer. */
+export const DENSITY_BINS = 60;
+
+export function drawsDensity(pointCount: number): boolean {
+  return pointCount > DENSITY_THRESHOLD;
+}
+
+/** What the plot draws as a density and what as points, for the line beside the plot; null when it draws every pair. */
+export function densityNote(points: readonly ParityPoint[]): string | null {
+  if (!drawsDensity(points.length)) return null;
+  const flagged = points.filter((p) => p.outlier && !p.excluded).length;
+  const excluded = points.filter((p) => p.excluded).length;
+  const dense = points.length - flagged - excluded;
+  const n = (k: number) => k.toLocaleString('en');
+  const onTop = [`the ${n(flagged)} flagged ${flagged === 1 ? 'outlier' : 'outliers'}`, ...(excluded ? [`the ${n(excluded)} excluded ${excluded === 1 ? 'pair' : 'pairs'}`] : [])];
+  return `${n(dense)} pairs drawn as a density (pairs per cell); ${onTop.join(' and ')} as points. Above ${n(DENSITY_THRESHOLD)} pairs the parity plot bins them; the data table below lists every pair.`;
+}
+
 const PALETTE = ['#1d5a6e', '#c2571a', '#6b4c9a', '#2f7d32', '#a3242c', '#8a6d00', '#1565c0', '#6d4c41', '#00838f', '#ad1457'];
 /** Diamonds are not used for methods, and no shape relies on its fill alone. */
 export const SHAPES = ['circle', 'square', 'triangle-up', 'cross', 'triangle-down', 'triangle-right', 'triangle-left', 'wedge', 'arrow', 'stroke'];
@@ -104,7 +128,7 @@ function statusOf(p: ParityPoint): string {
  * hollow and grey (still visible); flagged outliers ringed, with a legend entry for
  * each marker; and a dark ring on the point a keyboard cursor is on.
  */
-function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readonly string[], unit: string, shown?: readonly string[]) {
+function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readonly string[], unit: string, shown?: readonly string[], density = false) {
   const x = (title?: string) => ({ field: axes.x, type: 'quantitative' as const, title, scale: { domain: axes.domainX, zero: false, nice: false } });
   const y = (title?: string) => ({ field: axes.y, type: 'quantitative' as const, title, scale: { domain: axes.domainY, zero: false, nice: false } });
   const rows = points.map((p) => ({ ...p, status: statusOf(p), marker: p.excluded ? EXCLUDED : p.outlier ? FLAGGED : null }));
@@ -112,8 +136,10 @@ function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readon
   const markers = { field: 'marker', type: 'nominal' as const, title: null, legend: { orient: 'top' as const }, scale: { domain: [FLAGGED, EXCLUDED], range: [MARKER_INK[FLAGGED], MARKER_INK[EXCLUDED]] } };
   const pick = { name: 'pick', select: { type: 'point' as const, fields: ['key'], on: 'click' } };
   return [
+    ...(density ? [densityLayer(points, axes)] : []),
     {
-      data: { values: rows.filter((p) => !p.excluded) },
+      // as a density, only the flagged outliers among the included pairs are drawn one by one
+      data: { values: rows.filter((p) => !p.excluded && (!density || p.outlier)) },
       mark: { type: 'point' as const, filled: true, size: 40, opacity: 0.85, cursor: 'pointer' as const },
       params: [pick],
       encoding: { x: x(axes.titles.x), y: y(axes.titles.y), color: colour(methods, shown), shape: shape(methods, shown), tooltip: tooltip(unit) },
@@ -129,12 +155,41 @@ function pointLayers(points: readonly ParityPoint[], axes: Axes, methods: readon
       encoding: { x: x(), y: y(), stroke: markers, tooltip: tooltip(unit) },
     },
     {
-      data: { values: rows },
+      // the keyboard ring needs every pair's place, not its text
+      data: { values: points.map((p) => ({ key: p.key, [axes.x]: (p as unknown as Record<string, number>)[axes.x], [axes.y]: (p as unknown as Record<string, number>)[axes.y] })) },
       transform: [{ filter: `${FOCUS_PARAM} !== null && datum.key === ${FOCUS_PARAM}` }],
       mark: { type: 'point' as const, shape: 'circle', filled: false, size: 420, strokeWidth: 2.5, color: '#17212b' },
       encoding: { x: x(), y: y() },
     },
   ];
+}
+
+/**
+ * The included, unflagged pairs as a heat map of pairs per cell (equal cells over
+ * the shared domain, a log colour scale so sparse cells stay visible); every other
+ * layer (outliers, excluded, cursor ring) draws on top.
+ */
+function densityLayer(points: readonly ParityPoint[], axes: Axes) {
+  const step = (axes.domainX[1] - axes.domainX[0]) / DENSITY_BINS || 1;
+  const stepY = (axes.domainY[1] - axes.domainY[0]) / DENSITY_BINS || 1;
+  const dense = points.filter((p) => !p.excluded && !p.outlier).map((p) => ({ [axes.x]: (p as unknown as Record<string, number>)[axes.x], [axes.y]: (p as unknown as Record<string, number>)[axes.y] }));
+  const binX = { step, extent: axes.domainX, nice: false };
+  const binY = { step: stepY, extent: axes.domainY, nice: false };
+  return {
+    data: { values: dense },
+    mark: { type: 'rect' as const, clip: true },
+    encoding: {
+      x: { field: axes.x, type: 'quantitative' as const, bin: binX, title: axes.titles.x, scale: { domain: axes.domainX, zero: false, nice: false } },
+      y: { field: axes.y, type: 'quantitative' as const, bin: binY, title: axes.titles.y, scale: { domain: axes.domainY, zero: false, nice: false } },
+      // fill, not color: its own scale and legend, apart from the methods' colours
+      fill: { aggregate: 'count' as const, type: 'quantitative' as const, title: 'Pairs per cell', scale: { type: 'log' as const, range: ['#dbe9ee', '#0d3b4a'] }, legend: { orient: 'right' as const, direction: 'vertical' as const } },
+      tooltip: [
+        { field: axes.x, bin: binX, type: 'quantitative' as const, title: axes.titles.x, format: '.1f' },
+        { field: axes.y, bin: binY, type: 'quantitative' as const, title: axes.titles.y, format: '.1f' },
+        { aggregate: 'count' as const, type: 'quantitative' as const, title: 'Pairs' },
+      ],
+    },
+  };
 }
 
 const FOCUS = { name: FOCUS_PARAM, value: null };
@@ -146,11 +201,14 @@ export interface ParityOptions {
   bandPercent?: number;
   width?: number;
   height?: number;
+  /** Draw the pairs as a density: by default above DENSITY_THRESHOLD pairs (false forces one mark per pair, for bench:plot's comparison). */
+  density?: boolean;
 }
 
 /** Calculated vs measured with y = x, a ±bandPercent band and measured error bars. */
 export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions): TopLevelSpec {
   const band = (o.bandPercent ?? 5) / 100;
+  const density = o.density ?? drawsDensity(points.length);
   const domain = sharedDomain(points.flatMap((p) => [p.measured, p.calculated, p.measured - (p.uMeasured ?? 0), p.measured + (p.uMeasured ?? 0)]));
   const [lo, hi] = domain;
   const axis = { domain, zero: false, nice: false };
@@ -184,7 +242,8 @@ export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions)
         },
       },
       {
-        data: { values: points.filter((p) => p.uMeasured).map((p) => ({ ...p, lo: p.measured - p.uMeasured!, hi: p.measured + p.uMeasured! })) },
+        // as a density, error bars only on the pairs drawn as points
+        data: { values: points.filter((p) => p.uMeasured && (!density || p.outlier || p.excluded)).map((p) => ({ ...p, lo: p.measured - p.uMeasured!, hi: p.measured + p.uMeasured! })) },
         mark: { type: 'rule', strokeWidth: 1, opacity: 0.6 },
         encoding: {
           x: { field: 'lo', type: 'quantitative', scale: axis },
@@ -193,7 +252,7 @@ export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions)
           color: colour(o.methods),
         },
       },
-      ...pointLayers(points, { x: 'measured', y: 'calculated', domainX: domain, domainY: domain, titles: { x: `Measured (${o.unit})`, y: `Calculated (${o.unit})` } }, o.methods, o.unit),
+      ...pointLayers(points, { x: 'measured', y: 'calculated', domainX: domain, domainY: domain, titles: { x: `Measured (${o.unit})`, y: `Calculated (${o.unit})` } }, o.methods, o.unit, undefined, density),
     ],
   } as TopLevelSpec;
 }

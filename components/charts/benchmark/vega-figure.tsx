@@ -20,6 +20,7 @@ export function VegaFigure({
   fileName,
   title,
   text,
+  note,
   onPick,
 }: {
   spec: TopLevelSpec;
@@ -27,6 +28,8 @@ export function VegaFigure({
   fileName: string;
   title: string;
   text: FigureText;
+  /** How the plot draws its data when that is not one mark per point (a density above a threshold), shown beside it. */
+  note?: string | null;
   onPick?: (key: string) => void;
 }) {
   const id = useId();
@@ -105,12 +108,17 @@ export function VegaFigure({
         </div>
       </div>
       {error ? <p className="text-sm text-bad">The plot could not be drawn: {error}</p> : null}
+      {note ? (
+        <p id={`${id}-note`} className="text-xs text-ink-muted" data-testid="plot-density-note">
+          {note}
+        </p>
+      ) : null}
       <div
         data-plot=""
         role="img"
         tabIndex={0}
         aria-label={`${title}. ${hint}`}
-        aria-describedby={`${id}-summary`}
+        aria-describedby={note ? `${id}-note ${id}-summary` : `${id}-summary`}
         onKeyDown={onKeyDown}
         onBlur={(e) => {
           if (!e.currentTarget.contains(e.relatedTarget as Node | null)) setCursor(null);

@@ -2,7 +2,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { useSearchParams } from 'next/navigation';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
-import { blandAltmanSpec, errorHistogramSpec, parityPlotSpec, rendererFor, residualSpec, type AgreementLimits } from '@/components/charts/benchmark/specs';
+import { blandAltmanSpec, densityNote, errorHistogramSpec, parityPlotSpec, rendererFor, residualSpec, type AgreementLimits } from '@/components/charts/benchmark/specs';
 import { blandAltmanText, histogramText, parityText, residualText } from '@/components/charts/benchmark/figure-text';
 import { inputClass } from '@/components/ui/field';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
@@ -65,6 +65,7 @@ export function BenchmarkPlots({
   const renderer = rendererFor(visible.length);
 
   const parity = useMemo(() => parityPlotSpec(visible, { unit, methods: labels, bandPercent }), [visible, unit, labels, bandPercent]);
+  const parityNote = useMemo(() => densityNote(visible), [visible]);
   const histogram = useMemo(() => errorHistogramSpec(visible, { unit, methods: labels }), [visible, unit, labels]);
   const residual = useMemo(() => residualSpec(visible, { unit, methods: labels }), [visible, unit, labels]);
   const ba = useMemo(() => {
@@ -163,7 +164,7 @@ export function BenchmarkPlots({
       ) : null}
 
       <div className="grid grid-cols-[minmax(0,1fr)] gap-6 xl:grid-cols-2">
-        <VegaFigure spec={parity} text={texts.parity} renderer={renderer} fileName={`${fileStem}-parity`} title="Parity plot (y = x, dashed; shaded ± band)" onPick={pick} />
+        <VegaFigure spec={parity} text={texts.parity} renderer={renderer} fileName={`${fileStem}-parity`} title="Parity plot (y = x, dashed; shaded ± band)" note={parityNote} onPick={pick} />
         <VegaFigure spec={residual} text={texts.residual} renderer={renderer} fileName={`${fileStem}-residuals`} title="Residual vs measured" onPick={pick} />
         <div className="space-y-2">
           <label className="flex items-center gap-2 text-sm">

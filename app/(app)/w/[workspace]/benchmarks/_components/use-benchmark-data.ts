@@ -1,6 +1,6 @@
 'use client';
 import { useQuery } from '@tanstack/react-query';
-import type { PlotPoint } from '@/lib/benchmark/pairs-export';
+import { decodePlotColumns, type PlotColumns } from '@/lib/benchmark/plot-columns';
 import type { RecomputeStatus } from '@/lib/benchmark/recompute-status';
 
 async function getJson<T>(url: string): Promise<T> {
@@ -16,11 +16,14 @@ export function benchmarkApi(workspaceId: string, benchmarkId: string): string {
   return `/api/workspaces/${encodeURIComponent(workspaceId)}/benchmarks/${encodeURIComponent(benchmarkId)}`;
 }
 
-/** Plot points of one revision (immutable, so cached for good). */
+/** Plot points of one revision (immutable, so cached for good), sent in columns and rebuilt as rows here. */
 export function usePairs(workspaceId: string, benchmarkId: string, revision: number) {
   return useQuery({
     queryKey: ['benchmark-pairs', workspaceId, benchmarkId, revision],
-    queryFn: () => getJson<{ revision: number; unit: string; points: PlotPoint[] }>(`${benchmarkApi(workspaceId, benchmarkId)}/pairs?revision=${revision}`),
+    queryFn: async () => {
+      const payload = await getJson<PlotColumns>(`${benchmarkApi(workspaceId, benchmarkId)}/pairs?revision=${revision}`);
+      return { revision: payload.revision, unit: payload.unit, points: decodePlotColumns(payload) };
+    },
     staleTime: Infinity,
   });
 }

@@ -3,7 +3,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { TopLevelSpec } from 'vega-lite';
 import { VegaFigure } from '@/components/charts/benchmark/vega-figure';
 import { blandAltmanText, comparisonText, histogramText, parityText, residualText } from '@/components/charts/benchmark/figure-text';
-import { blandAltmanSpec, errorHistogramSpec, pairedScatterSpec, parityPlotSpec, rendererFor, residualSpec, type PairedPoint } from '@/components/charts/benchmark/specs';
+import { blandAltmanSpec, densityNote, errorHistogramSpec, pairedScatterSpec, parityPlotSpec, rendererFor, residualSpec, type PairedPoint } from '@/components/charts/benchmark/specs';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
 import type { ViewFilters } from '@/lib/decks/view-kinds';
 
@@ -91,7 +91,7 @@ export function SlidePlot({
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), text: parityText(visible, unit), n: visible.length };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), text: parityText(visible, unit), n: visible.length, note: densityNote(visible) };
       case 'histogram':
         return { spec: errorHistogramSpec(visible, { unit, methods: labels }), text: histogramText(visible, unit, labels), n: visible.length };
       case 'residuals':
@@ -128,12 +128,12 @@ export function SlidePlot({
   }
   // The legend goes beside the plot, where a landscape page or a projector (1280×720) has room, not under it.
   const sideLegend = { ...spec.spec, config: { ...spec.spec.config, legend: { ...spec.spec.config?.legend, orient: 'right' as const, direction: 'vertical' as const } } } as TopLevelSpec;
-  if (forPrint) return <VegaFigure spec={kind === 'histogram' ? spec.spec : sideLegend} renderer="svg" text={spec.text} fileName={fileName} title={TITLES[kind]} />;
+  if (forPrint) return <VegaFigure spec={kind === 'histogram' ? spec.spec : sideLegend} renderer="svg" text={spec.text} note={'note' in spec ? spec.note : null} fileName={fileName} title={TITLES[kind]} />;
   // On a projector the plot fills the slide.
   const facets = new Set(points.map((p) => p.methodId)).size;
   return (
     <div ref={ref} className="h-full w-full" data-testid="slide-plot">
-      {size ? <VegaFigure spec={fitted(sideLegend, kind, size, facets)} renderer={rendererFor(spec.n)} text={spec.text} fileName={fileName} title={TITLES[kind]} /> : null}
+      {size ? <VegaFigure spec={fitted(sideLegend, kind, size, facets)} renderer={rendererFor(spec.n)} text={spec.text} note={'note' in spec ? spec.note : null} fileName={fileName} title={TITLES[kind]} /> : null}
     </div>
   );
 }
