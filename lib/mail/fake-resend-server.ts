@@ -9,6 +9,7 @@ import { createServer, type IncomingMessage, type Server, type ServerResponse } 
 import type { AddressInfo } from 'node:net';
 import { fileURLToPath } from 'node:url';
 import { envValue } from '@/lib/env';
+import { readNodeBody } from '@/lib/read-node-body';
 
 export type Fault = '500' | '429' | 'timeout' | 'store-then-drop';
 
@@ -34,23 +35,7 @@ export interface FakeResend {
   close: () => Promise<void>;
 }
 
-function readBody(req: IncomingMessage, limit = 5_000_000): Promise<string> {
-  return new Promise((resolve, reject) => {
-    let size = 0;
-    const chunks: Buffer[] = [];
-    req.on('data', (c: Buffer) => {
-      size += c.length;
-      if (size > limit) {
-        reject(new Error('body too large'));
-        req.destroy();
-        return;
-      }
-      chunks.push(c);
-    });
-    req.on('end', () => resolve(Buffer.concat(chunks).toString('utf8')));
-    req.on('error', reject);
-  });
-}
+const readBody = (req: IncomingMessage) => readNodeBody(req, 5_000_000);
 
 function json(res: ServerResponse, status: number, body: unknown) {
   res.writeHead(status, { 'content-type': 'application/json' });

@@ -8,6 +8,7 @@
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { verifyWebhook, WEBHOOK_HEADERS } from './signature';
+import { readNodeBody } from '@/lib/read-node-body';
 
 /**
  * '500', '400', '429' (with Retry-After, 120 s unless set) and 'redirect' (307) answer without processing;
@@ -41,23 +42,7 @@ export interface FakeReceiver {
   close: () => Promise<void>;
 }
 
-function readBody(req: IncomingMessage, limit = 1_000_000): Promise<string> {
-  return new Promise((resolve, reject) => {
-    let size = 0;
-    const chunks: Buffer[] = [];
-    req.on('data', (c: Buffer) => {
-      size += c.length;
-      if (size > limit) {
-        reject(new Error('body too large'));
-        req.destroy();
-        return;
-      }
-      chunks.push(c);
-    });
-    req.on('end', () => resolve(Buffer.concat(chunks).toString('utf8')));
-    req.on('error', reject);
-  });
-}
+const readBody = (req: IncomingMessage) => readNodeBody(req, 1_000_000);
 
 export async function startFakeReceiver(options: { secret?: string; host?: string; port?: number; retryAfter?: string } = {}): Promise<FakeReceiver> {
   const host = options.host ?? '127.0.0.1';
