@@ -22,6 +22,12 @@
  * value is ≥ the in-sample one. It needs at least two clusters; with one cluster, or
  * when the others' Σω² is 0, it is absent. A cluster bootstrap of fewer than two
  * clusters would be a single value, so it is absent too.
+ *
+ * Correlations: Pearson r is absent when the measured or the calculated values are
+ * all equal (r = s_xy / √(s_xx s_yy) is 0/0), and Lin's concordance when both are the
+ * same constant; `correlationUndefined` says which. A group of pairs that all share one
+ * measured value (one mode matched by several calculations) is real data, so the
+ * other statistics are still returned rather than the whole computation failing.
  */
 import { bootstrapErrorIntervals, clusterBootstrapIntervals, clusterSums, type BootstrapIntervals } from './bootstrap';
 import { centredMoments, concordanceFromMoments, pearsonFromMoments, quantileOfSorted } from './descriptive';
@@ -65,9 +71,12 @@ export interface ErrorStatistics {
   chiSquarePairs?: number;
   /** Number of distinct clusters (when clusters were given). */
   clusterCount?: number;
-  pearsonR: number;
-  /** Lin's concordance correlation coefficient, 1/N moments. */
-  concordance: number;
+  /** Absent when the measured or the calculated values are constant (module header). */
+  pearsonR?: number;
+  /** Lin's concordance correlation coefficient, 1/N moments; absent when measured and calculated are the same constant. */
+  concordance?: number;
+  /** Why a correlation is absent, in words. */
+  correlationUndefined?: string;
   /** bias ± 1.96 SD. */
   blandAltman: { bias: number; lower: number; upper: number };
   bootstrap?: BootstrapIntervals;
@@ -292,14 +301,18 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
     meanAbsoluteRelativeError: compensatedSum(relative) / n,
     scaleFactor: lambda,
     rmseAfterScaling,
-    pearsonR: pearsonFromMoments(moments),
-    concordance: concordanceFromMoments(moments, n),
     blandAltman: {
       bias: meanSignedError,
       lower: meanSignedError - BLAND_ALTMAN_Z * standardDeviation,
       upper: meanSignedError + BLAND_ALTMAN_Z * standardDeviation,
     },
   };
+  const constant = [moments.sxx === 0 ? 'measured' : null, moments.syy === 0 ? 'calculated' : null].filter((v) => v !== null);
+  if (constant.length === 0) statistics.pearsonR = pearsonFromMoments(moments);
+  else statistics.correlationUndefined = `the ${constant.join(' and the ')} values are all equal, so Pearson r is undefined`;
+  const shift = moments.meanX - moments.meanY;
+  if (moments.sxx / n + moments.syy / n + shift * shift > 0) statistics.concordance = concordanceFromMoments(moments, n);
+  else statistics.correlationUndefined = 'measured and calculated are the same constant, so neither Pearson r nor the concordance is defined';
   const outOfSample = outOfSampleRmseAfterScaling(measured, calculated, clusterOf);
   if (outOfSample !== undefined) statistics.rmseAfterScalingOutOfSample = outOfSample;
   const lambdaError = scaleFactorStandardError(calculated, measured, clusterOf);

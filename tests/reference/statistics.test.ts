@@ -8,6 +8,7 @@ import {
   median,
   modifiedZScores,
   pearsonCorrelation,
+  ScienceInputError,
   quantile,
   sampleStandardDeviation,
   scaleFactor,
@@ -119,13 +120,42 @@ describe("Lin's concordance correlation coefficient", () => {
     );
     expect(stats.concordance).toBeCloseTo(expected, 12);
     // and ρc = r × bias-correction factor (Lin 1989) is below Pearson r when the means differ
-    expect(stats.concordance).toBeLessThan(stats.pearsonR);
+    expect(stats.concordance).toBeLessThan(stats.pearsonR!);
   });
 
   it('is 1 for identical data and below 1 for a pure offset', () => {
     // Lin 1989: ρc = 1 iff perfect agreement
     expect(concordanceCorrelation([1, 2, 3, 4], [1, 2, 3, 4])).toBeCloseTo(1, 15);
     expect(concordanceCorrelation([1, 2, 3, 4], [2, 3, 4, 5])).toBeLessThan(1);
+  });
+
+  it('a constant measured column: r is absent with the reason, ρc = 0, the error statistics are kept (worked case)', () => {
+    // One mode measured once (500 cm⁻¹) and matched by three calculations, invented values.
+    // s_xx = 0, so r = s_xy / √(s_xx s_yy) is 0/0; s_xy = 0 too, so ρc = 0 / (s_yy/N + (x̄ − ȳ)²) = 0.
+    // e = −10, 5, 10: mean e = 5/3, MAE = 25/3 (worked by hand).
+    const stats = errorStatistics(
+      [490, 505, 510].map((c) => ({ measured: 500, calculated: c })),
+      { bootstrapSamples: 0 },
+    );
+    expect(stats.pearsonR).toBeUndefined();
+    expect(stats.correlationUndefined).toMatch(/measured values are all equal/);
+    expect(stats.concordance).toBe(0);
+    expect(stats.meanSignedError).toBeCloseTo(5 / 3, 12);
+    expect(stats.meanAbsoluteError).toBeCloseTo(25 / 3, 12);
+    expect(() => pearsonCorrelation([500, 500, 500], [490, 505, 510])).toThrow(ScienceInputError);
+  });
+
+  it('measured and calculated the same constant: neither correlation is defined; an offset constant gives ρc = 0', () => {
+    const same = errorStatistics([0, 1, 2].map(() => ({ measured: 500, calculated: 500 })), { bootstrapSamples: 0 });
+    expect(same.pearsonR).toBeUndefined();
+    expect(same.concordance).toBeUndefined();
+    expect(same.correlationUndefined).toMatch(/neither Pearson r nor the concordance/);
+    expect(same.meanAbsoluteError).toBe(0);
+    expect(same.scaleFactor).toBe(1);
+    // ρc = 2·0 / (0 + 0 + 10²) = 0 (Lin 1989 definition, worked by hand)
+    const offset = errorStatistics([0, 1, 2].map(() => ({ measured: 500, calculated: 510 })), { bootstrapSamples: 0 });
+    expect(offset.concordance).toBe(0);
+    expect(offset.correlationUndefined).toMatch(/measured and the calculated values are all equal/);
   });
 });
 

@@ -187,3 +187,17 @@ describe('entropy basis', () => {
     for (const term of ['Cp − Cv', 'electronic', 'magnetic', 'configurational']) expect(caution).toContain(term);
   });
 });
+
+describe('a group whose measured values are all equal', () => {
+  it('still gets its statistics, with Pearson r absent and the reason, instead of failing the recomputation', () => {
+    // Three invented materials whose one line was measured at the same 520 cm⁻¹; errors −10, −5, +5.
+    const materials = ['a', 'b', 'c'].map((id) => ({ id, name: `Crystal ${id}`, formula: 'Si', atomsInCell: 2, tags: [] as string[] }));
+    const measurements = materials.map((m) => meas(m.id, 520, 'T2g'));
+    const calculations = materials.map((m, i) => calc('A', m.id, [510, 515, 525][i], 'T2g'));
+    const snap = computeBenchmark(input({ materials, measurements, calculations, methods: [{ id: 'A', label: 'Method A', kGrid: null, qGrid: null }] }));
+    const s = snap.methods[0].statistics!;
+    expect(s.meanAbsoluteError).toBeCloseTo(20 / 3, 12);
+    expect(s.pearsonR).toBeUndefined();
+    expect(s.correlationUndefined).toMatch(/measured values are all equal/);
+  });
+});

@@ -78,11 +78,11 @@ describe('ScienceInputError: invalid input never becomes a silent NaN', () => {
     expectInputError(() => errorStatistics(ok, { confidence: 1 }), 'options.confidence', /between 0 and 1/);
     expectInputError(() => errorStatistics(ok, { bootstrapSamples: -5 }), 'options.bootstrapSamples', /non-negative integer/);
     expectInputError(() => errorStatistics(ok, { seed: 0.5 }), 'options.seed', /integer/);
-    expectInputError(
-      () => errorStatistics([{ measured: 1, calculated: 2 }, { measured: 1, calculated: 3 }], { bootstrapSamples: 0 }),
-      'values',
-      /constant/,
-    );
+    // a constant measured column: r is absent with the reason, never NaN, and the rest is computed
+    const constant = errorStatistics([{ measured: 1, calculated: 2 }, { measured: 1, calculated: 3 }], { bootstrapSamples: 0 });
+    expect(constant.pearsonR).toBeUndefined();
+    expect(constant.correlationUndefined).toMatch(/constant|all equal/);
+    for (const [key, value] of Object.entries(constant)) if (typeof value === 'number') expect(Number.isNaN(value), key).toBe(false);
     expectInputError(() => scaleFactor([1, 2], [1]), 'measured', /same length/);
     expectInputError(() => scaleFactor([0, 0], [1, 2]), 'calculated', /all values are 0/);
   });

@@ -49,20 +49,17 @@ describe('properties', () => {
       fc.property(
         fc.array(pairValue, { minLength: 3, maxLength: 40 }).chain((pairs) => fc.tuple(fc.constant(pairs), fc.shuffledSubarray(pairs, { minLength: pairs.length }))),
         ([pairs, shuffled]) => {
-          let a;
-          let b;
-          try {
-            a = errorStatistics(pairs, { bootstrapSamples: 50, seed: 5 });
-            b = errorStatistics(shuffled, { bootstrapSamples: 50, seed: 5 });
-          } catch (error) {
-            // constant columns make r undefined; both orders must then refuse alike
-            expect(error).toBeInstanceOf(ScienceInputError);
-            expect(() => errorStatistics(shuffled, { bootstrapSamples: 50, seed: 5 })).toThrow(ScienceInputError);
-            return;
-          }
-          for (const key of ['meanSignedError', 'meanAbsoluteError', 'rootMeanSquareError', 'standardDeviation', 'medianAbsoluteError', 'p95AbsoluteError', 'maxAbsoluteError', 'meanAbsolutePercentageError', 'scaleFactor', 'rmseAfterScaling', 'pearsonR', 'concordance'] as const) {
+          // constant columns leave r absent rather than throwing; both orders must agree on that too
+          const a = errorStatistics(pairs, { bootstrapSamples: 50, seed: 5 });
+          const b = errorStatistics(shuffled, { bootstrapSamples: 50, seed: 5 });
+          for (const key of ['meanSignedError', 'meanAbsoluteError', 'rootMeanSquareError', 'standardDeviation', 'medianAbsoluteError', 'p95AbsoluteError', 'maxAbsoluteError', 'meanAbsolutePercentageError', 'scaleFactor', 'rmseAfterScaling'] as const) {
             expect(closeRelative(a[key], b[key], 1e-9)).toBe(true);
           }
+          for (const key of ['pearsonR', 'concordance'] as const) {
+            expect(a[key] === undefined).toBe(b[key] === undefined);
+            if (a[key] !== undefined) expect(closeRelative(a[key], b[key]!, 1e-9)).toBe(true);
+          }
+          expect(a.correlationUndefined).toBe(b.correlationUndefined);
           expect(a.bootstrap).toEqual(b.bootstrap);
         },
       ),
@@ -79,7 +76,8 @@ describe('properties', () => {
         expect(Math.abs(s.meanSignedError)).toBeLessThanOrEqual(s.meanAbsoluteError + eps);
         expect(s.medianAbsoluteError).toBeLessThanOrEqual(s.p95AbsoluteError + eps);
         expect(s.p95AbsoluteError).toBeLessThanOrEqual(s.maxAbsoluteError + eps);
-        expect(Math.abs(s.concordance)).toBeLessThanOrEqual(Math.abs(s.pearsonR) + 1e-9);
+        expect(s.pearsonR).toBeDefined();
+        expect(Math.abs(s.concordance!)).toBeLessThanOrEqual(Math.abs(s.pearsonR!) + 1e-9);
       }),
     );
   });

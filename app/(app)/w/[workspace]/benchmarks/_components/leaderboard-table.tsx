@@ -181,7 +181,11 @@ function MethodDetails({ m, unit, worst }: { m: MethodResult; unit: string; wors
       s.reducedChiSquare !== undefined ? `${fixed(s.reducedChiSquare, 2)} (${s.chiSquarePairs})` : 'no σ given',
       'Σ (error / combined σ)² / ν over the pairs with an uncertainty',
     ]);
-    items.push(["Lin's CCC", stat('correlation', s.concordance), "Lin's concordance correlation coefficient"]);
+    items.push([
+      "Lin's CCC",
+      s.concordance !== undefined ? stat('correlation', s.concordance) : 'undefined',
+      s.correlationUndefined ? `Lin's concordance correlation coefficient; ${s.correlationUndefined}` : "Lin's concordance correlation coefficient",
+    ]);
   }
   const reasons = m.excludedReasons.map((r) => `${r.count} × ${r.reason}`).join('; ');
   return (
@@ -195,7 +199,9 @@ function MethodDetails({ m, unit, worst }: { m: MethodResult; unit: string; wors
             </div>
           ))}
         </dl>
-      ) : (
+      ) : null}
+      {s?.correlationUndefined ? <p className="text-xs text-ink-muted">Correlation not reported: {s.correlationUndefined}.</p> : null}
+      {s ? null : (
         <p className="text-xs text-ink-muted">Too few pairs for statistics (N &lt; {MIN_PAIRS_FOR_STATISTICS}); only N is shown.</p>
       )}
       {m.excluded > 0 ? (
