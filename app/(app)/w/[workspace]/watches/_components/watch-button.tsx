@@ -45,8 +45,9 @@ export function WatchButton({
   }
   return (
     <details className="relative" data-testid="watch-settings">
-      <summary className={buttonClass('secondary', 'cursor-pointer list-none')} aria-label="Watching: alert settings">
+      <summary className={buttonClass('secondary', 'cursor-pointer list-none')}>
         Watching · {watch.mode === 'digest' ? 'daily digest' : 'alerts'}
+        <span className="sr-only"> (alert settings)</span>
       </summary>
       <div className="absolute right-0 z-20 mt-1 w-[26rem] space-y-3 rounded-lg border border-rule bg-panel p-4 shadow-lg">
         <p className="text-sm text-ink-muted">
