@@ -128,7 +128,7 @@ export function VegaFigure({
         {/* vega-embed labels its own container; the wrapper's name and summary speak for the plot */}
         <div ref={ref} aria-hidden="true" />
       </div>
-      <p className="text-xs text-ink-muted" aria-live="polite" data-testid="plot-cursor">
+      <p className="text-xs text-ink-muted print:hidden" aria-live="polite" data-testid="plot-cursor">
         {current?.spoken ? `Point ${(cursor ?? 0) + 1} of ${nav.length}: ${current.spoken}` : ''}
       </p>
       <p id={`${id}-summary`} className="text-xs text-ink-muted" data-testid="plot-summary">

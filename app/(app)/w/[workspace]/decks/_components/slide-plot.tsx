@@ -26,6 +26,7 @@ const TITLES: Record<SlidePlotKind, string> = {
 /** Room a figure needs besides its plot area: legend on the right, figcaption and buttons above. */
 const LEGEND_PX = 190;
 const CAPTION_PX = 44;
+const PRINT_PARITY_PX = 370;
 
 /** The size of an element, kept up to date (null until first measured). */
 function useElementSize() {
@@ -86,12 +87,14 @@ export function SlidePlot({
   forPrint?: boolean;
 }) {
   const labels = useMemo(() => methods.map((m) => m.label), [methods]);
+  // On an A4 landscape page the square plot leaves room for its legend, a summary of several lines and the page number.
+  const side = forPrint ? PRINT_PARITY_PX : 420;
   const spec = useMemo(() => {
     const hidden = new Set(filters.hiddenMethods ?? []);
     const visible = points.filter((p) => !hidden.has(p.methodId) && (filters.showExcluded !== false || !p.excluded));
     switch (kind) {
       case 'parity':
-        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: 420, height: 420 }), text: parityText(visible, unit), n: visible.length, note: densityNote(visible) };
+        return { spec: parityPlotSpec(visible, { unit, methods: labels, bandPercent: filters.bandPercent ?? 5, width: side, height: side }), text: parityText(visible, unit), n: visible.length, note: densityNote(visible) };
       case 'histogram':
         return { spec: errorHistogramSpec(visible, { unit, methods: labels }), text: histogramText(visible, unit, labels), n: visible.length };
       case 'residuals':
@@ -116,7 +119,7 @@ export function SlidePlot({
         return { spec: pairedScatterSpec(paired, { unit, a: label(a), b: label(b) }), text: comparisonText(paired, unit, label(a), label(b)), n: paired.length };
       }
     }
-  }, [kind, points, methods, labels, unit, filters]);
+  }, [kind, points, methods, labels, unit, filters, side]);
 
   const { ref, size } = useElementSize();
   if (spec.n === 0) {
