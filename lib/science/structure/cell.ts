@@ -99,8 +99,9 @@ export function latticeFromParameters(a: number, b: number, c: number, alphaDeg:
 
 /**
  * The element symbol a label or type symbol names: "Na", "Na1", "O2-", "Ti4+", "Fe3" → Na, Na, O, Ti, Fe.
- * Two letters are taken when they make an element as written ("Cl1" → Cl), else one ("Oa1" → O); an all-capitals
- * "CL1" therefore reads as carbon, so write element symbols in their usual case.
+ * Two letters are taken when they make an element as written ("Cl1" → Cl), else one ("Oa1" → O). Written in
+ * capitals, "ZN1" → Zn (Z is no element) and "OA1" → O (Oa is none), but "CL1" could be Cl or C with the
+ * label suffix L1: ambiguousElement names both, and the parsers refuse such a label rather than guess.
  */
 export function elementFromLabel(label: string): string | null {
   const match = /^([A-Za-z])([A-Za-z]?)/.exec(label.trim());
@@ -108,7 +109,17 @@ export function elementFromLabel(label: string): string | null {
   const first = match[1].toUpperCase();
   const second = match[2];
   if (second && isElementSymbol(first + second)) return first + second;
+  if (second && second === second.toUpperCase() && isElementSymbol(first + second.toLowerCase()) && !isElementSymbol(first)) return first + second.toLowerCase();
   return isElementSymbol(first) ? first : null;
+}
+
+/** The two elements a label in capitals could name ("CL1" → [Cl, C]), or null when it names one. */
+export function ambiguousElement(label: string): [string, string] | null {
+  const match = /^([A-Za-z])([A-Z])/.exec(label.trim());
+  if (!match) return null;
+  const first = match[1].toUpperCase();
+  const two = first + match[2].toLowerCase();
+  return isElementSymbol(two) && isElementSymbol(first) ? [two, first] : null;
 }
 
 /** Atomic number (Z) of an element symbol. */

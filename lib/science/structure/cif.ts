@@ -12,7 +12,7 @@
  * Without any operations the sites are taken as the full cell (P1), unless a space-group symbol other than
  * P 1 is given, which is refused (the file then holds only the asymmetric unit and no way to expand it).
  */
-import { fail, MAX_STRUCTURE_ATOMS, latticeFromParameters, mergeCoincident, StructureInputError, validateCell, elementFromLabel, type Cell, type CellResult, type Vector3, SAME_POSITION_TOLERANCE } from './cell';
+import { fail, MAX_STRUCTURE_ATOMS, latticeFromParameters, mergeCoincident, StructureInputError, validateCell, elementFromLabel, ambiguousElement, type Cell, type CellResult, type Vector3, SAME_POSITION_TOLERANCE } from './cell';
 
 interface Token {
   value: string;
@@ -232,6 +232,8 @@ function readCif(text: string): Cell {
   for (const row of sites.rows) {
     const name = cLabel >= 0 ? row[cLabel].value : row[cType].value;
     const source = cType >= 0 && !row[cType].unknown ? row[cType] : row[cLabel >= 0 ? cLabel : cType];
+    const both = ambiguousElement(source.value);
+    if (both) fail(`Line ${source.line}: site "${name}": "${source.value}" could be ${both[0]} or ${both[1]}; write the element in its usual case (${both[0]}… or ${both[1]}…) or give _atom_site_type_symbol.`, source.line);
     const element = elementFromLabel(source.value);
     if (!element) fail(`Line ${source.line}: site "${name}": "${source.value}" does not name a known element.`, source.line);
     if (cOcc >= 0 && !row[cOcc].unknown) {

@@ -12,6 +12,7 @@ export {
   cellVolume,
   atomicNumber,
   elementFromLabel,
+  ambiguousElement,
   latticeFromParameters,
   mergeCoincident,
   findCoincident,

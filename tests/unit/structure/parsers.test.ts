@@ -1,7 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import {
+  ambiguousElement,
   cellFormula,
+  elementFromLabel,
   cellVolume,
   cifNumber,
   detectStructureFormat,
@@ -215,6 +217,20 @@ describe('CIF', () => {
     const start = nacl.indexOf('loop_\n _symmetry_equiv_pos_site_id');
     const end = nacl.indexOf('loop_\n _atom_site_label');
     expect(parseCif(nacl.slice(0, start) + nacl.slice(end))).toMatchObject({ ok: false, reason: expect.stringContaining('"F m -3 m" is named but no symmetry operations') as unknown });
+  });
+
+  it('reads elements from labels in capitals only where one element fits; "CL1" (Cl or C?) is refused, not read as carbon', () => {
+    const labelsOnly = (na: string, cl: string) =>
+      nacl.replace(' _atom_site_type_symbol\n', '').replace(' Na1 Na+ ', ` ${na} `).replace(' Cl1 Cl- ', ` ${cl} `);
+    expect(cellOf(parseCif(labelsOnly('Na1', 'Cl1'))).species.sort()).toEqual(['Cl', 'Cl', 'Cl', 'Cl', 'Na', 'Na', 'Na', 'Na']);
+    const refused = parseCif(labelsOnly('Na1', 'CL1'));
+    expect(refused).toMatchObject({ ok: false, reason: expect.stringContaining('site "CL1": "CL1" could be Cl or C') as unknown });
+    // a type symbol decides whatever the label says
+    expect(cellOf(parseCif(nacl.replace(' Cl1 Cl- ', ' CL1 Cl- '))).species.filter((x) => x === 'Cl')).toHaveLength(4);
+    expect(elementFromLabel('ZN1')).toBe('Zn');
+    expect(elementFromLabel('OA1')).toBe('O');
+    expect(ambiguousElement('NA1')).toEqual(['Na', 'N']);
+    expect(ambiguousElement('Na1')).toBeNull();
   });
 
   it('refuses text that is not CIF, and several structures in one file', () => {
