@@ -10,6 +10,8 @@ export async function register() {
     for (const warning of startupWarnings()) console.warn(`WARNING: ${warning}`);
     const { startMailWorker } = await import('@/lib/services/mail/worker');
     startMailWorker();
-    (await import('@/lib/services/alerts/scheduler')).startDigestTimer();
+    // Loading these registers their job handlers, so this process also runs jobs queued by the others.
+    await import('@/lib/services/benchmarks/recompute-queue');
+    await (await import('@/lib/services/alerts/scheduler')).startDigestTimer();
   }
 }

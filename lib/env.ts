@@ -32,6 +32,11 @@ const schema = dbEnvSchema.extend({
   /** Read by next.config.mjs when the app is built (headers are fixed at build); declared here so the build check validates it. */
   HSTS_MAX_AGE: z.coerce.number({ message: 'HSTS_MAX_AGE must be a number of seconds.' }).int().min(0, 'HSTS_MAX_AGE must not be negative.').default(63_072_000),
   RECOMPUTE_DEBOUNCE_MS: z.coerce.number({ message: 'RECOMPUTE_DEBOUNCE_MS must be a number of milliseconds.' }).int().min(0, 'RECOMPUTE_DEBOUNCE_MS must not be negative.').default(1_500),
+  /** Background jobs (lib/services/jobs): read live (envValue), since tests shorten them. */
+  JOB_LEASE_MS: z.coerce.number({ message: 'JOB_LEASE_MS must be a number of milliseconds.' }).int().min(500, 'JOB_LEASE_MS must be at least 500.').default(60_000),
+  JOB_POLL_MS: z.coerce.number({ message: 'JOB_POLL_MS must be a number of milliseconds.' }).int().min(50, 'JOB_POLL_MS must be at least 50.').default(1_000),
+  JOB_MAX_ATTEMPTS: z.coerce.number({ message: 'JOB_MAX_ATTEMPTS must be a whole number.' }).int().min(1, 'JOB_MAX_ATTEMPTS must be at least 1.').default(5),
+  JOB_RETRY_BASE_MS: z.coerce.number({ message: 'JOB_RETRY_BASE_MS must be a number of milliseconds.' }).int().min(0, 'JOB_RETRY_BASE_MS must not be negative.').default(5_000),
   AUTH_ACCOUNT_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
   AUTH_ACCOUNT_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(20),
   RATE_LIMIT_TABLE_MAX_ROWS: z.coerce.number().int().min(100).default(10_000),

@@ -16,5 +16,6 @@ export const DECISION_KINDS = ['exclude-pair', 'exclude-measurement', 'keep'] as
 export const THREAD_SUBJECTS = ['pair', 'measurement', 'calculation-set', 'material', 'revision'] as const;
 export const TOKEN_ROLES = ['curator', 'contributor', 'reviewer'] as const;
 export const MAIL_STATUSES = ['pending', 'sending', 'sent', 'failed'] as const;
+export const JOB_STATUSES = ['queued', 'failed'] as const;
 /** How an outbox row is delivered: an e-mail through the provider, or a signed POST to a watch's URL. */
 export const OUTBOX_CHANNELS = ['email', 'webhook'] as const;

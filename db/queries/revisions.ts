@@ -51,8 +51,16 @@ export async function revisionBaseline(workspaceId: string, revisionId: string):
  * latest. Revisions are never updated after this insert: there is no function
  * that writes to an existing one.
  */
-export async function insertRevision(workspaceId: string, benchmarkId: string, record: RevisionRecord): Promise<RevisionHead> {
+export async function insertRevision(workspaceId: string, benchmarkId: string, record: RevisionRecord): Promise<RevisionHead & { created: boolean }> {
   return db.transaction(async (tx) => {
+    // Inside the write transaction: two processes that computed the same rows store one revision, not two.
+    const [latest] = await tx
+      .select({ id: revision.id, number: revision.number, fingerprint: revision.fingerprint, createdAt: revision.createdAt })
+      .from(revision)
+      .where(and(eq(revision.benchmarkId, benchmarkId), eq(revision.status, 'ready')))
+      .orderBy(desc(revision.number))
+      .limit(1);
+    if (latest && latest.fingerprint === record.fingerprint) return { ...latest, created: false };
     const [{ last }] = await tx.select({ last: max(revision.number) }).from(revision).where(eq(revision.benchmarkId, benchmarkId));
     const [row] = await tx
       .insert(revision)
@@ -72,7 +80,7 @@ export async function insertRevision(workspaceId: string, benchmarkId: string, r
       await tx.insert(flag).values(record.flags.slice(i, i + CHUNK).map((f) => ({ ...f, workspaceId, benchmarkId, revisionId: row.id })));
       await new Promise(setImmediate);
     }
-    return row;
+    return { ...row, created: true };
   });
 }
 

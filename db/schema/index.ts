@@ -5,3 +5,4 @@ export * from './values';
 export * from './benchmarks';
 export * from './meeting';
 export * from './mail';
+export * from './jobs';

@@ -19,8 +19,16 @@ export interface DataChange {
   immediate?: boolean;
 }
 
-export function dataChanged(workspaceId: string, change: DataChange): void {
-  scheduleRecompute(workspaceId, change.benchmarkIds, change.cause, change.immediate ? 0 : undefined);
+/**
+ * Writes the recomputation request (a durable job). A failure to queue is logged, not thrown: the write it
+ * follows has committed, and the next change or a manual recompute catches the benchmark up.
+ */
+export async function dataChanged(workspaceId: string, change: DataChange): Promise<void> {
+  try {
+    await scheduleRecompute(workspaceId, change.benchmarkIds, change.cause, change.immediate ? 0 : undefined);
+  } catch (error) {
+    console.error(`could not queue the recomputation of workspace ${workspaceId}`, error);
+  }
 }
 
 /** Wraps a workspace write so that, once it has committed, it reports a data change by its actor. */
@@ -29,7 +37,7 @@ export function reportingChange<A extends unknown[], R>(
 ): (workspaceId: string, actor: Actor, ...args: A) => Promise<R> {
   return async (workspaceId, actor, ...args) => {
     const result = await write(workspaceId, actor, ...args);
-    dataChanged(workspaceId, { cause: { trigger: 'data-change', userId: actor.userId } });
+    await dataChanged(workspaceId, { cause: { trigger: 'data-change', userId: actor.userId } });
     return result;
   };
 }

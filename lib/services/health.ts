@@ -12,7 +12,7 @@ export interface Health {
   status: 'ok' | 'failing';
   database: { status: 'ok' | 'failing'; latencyMs: number | null; detail?: string };
   mailWorker: { status: 'running' | 'stopped' | 'disabled' };
-  recomputeQueue: { status: 'ok' | 'stuck'; queued: number; running: number; oldestSeconds: number };
+  recomputeQueue: { status: 'ok' | 'stuck'; queued: number; running: number; failed: number; oldestSeconds: number };
   imports: { running: number };
 }
 
@@ -25,14 +25,14 @@ async function checkDatabase(): Promise<Health['database']> {
 export async function health(): Promise<Health> {
   const database = await checkDatabase();
   const mail = mailWorkerStatus();
-  const queue = recomputeQueueStatus();
+  const queue = await recomputeQueueStatus().catch(() => ({ queued: 0, running: 0, failed: 0, oldestMs: 0 }));
   const stuck = queue.queued + queue.running > 0 && queue.oldestMs > RECOMPUTE_STUCK_MS;
   const ok = database.status === 'ok' && mail !== 'stopped' && !stuck;
   return {
     status: ok ? 'ok' : 'failing',
     database,
     mailWorker: { status: mail },
-    recomputeQueue: { status: stuck ? 'stuck' : 'ok', queued: queue.queued, running: queue.running, oldestSeconds: Math.round(queue.oldestMs / 1000) },
+    recomputeQueue: { status: stuck ? 'stuck' : 'ok', queued: queue.queued, running: queue.running, failed: queue.failed, oldestSeconds: Math.round(queue.oldestMs / 1000) },
     imports: { running: runningImports() },
   };
 }

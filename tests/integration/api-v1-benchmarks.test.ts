@@ -159,7 +159,7 @@ describe('GET /benchmarks/{id}/status', () => {
   });
 
   it('says queued, not settled, while a recomputation waits; the verdict then says a newer revision is pending', async () => {
-    scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 60_000);
+    await scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 60_000);
     try {
       const res = await get(statusRoute.GET, `/benchmarks/${seeded.benchmarkId}/status?import=${importId}`, token, { id: seeded.benchmarkId });
       expect(await res.json()).toMatchObject({ state: 'queued', computing: true, import: { settled: false, revision: null } });
@@ -169,7 +169,7 @@ describe('GET /benchmarks/{id}/status', () => {
       expect(v.recomputation).toEqual({ state: 'queued', pending: true });
       expect(v.warnings).toContain('This verdict is of revision 2; a newer revision is being computed (state queued). Poll /status and ask again.');
     } finally {
-      scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 0);
+      await scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 0);
       await whenRecomputeIdle(ws.workspaceId, seeded.benchmarkId);
     }
   });

@@ -6,13 +6,16 @@ import { createWorkspaceWith } from '../support/users';
 import { makeToken, seedWorkflow } from './api-workflow-fixtures';
 
 // The recomputation fails on demand (after the seed's first revision), so the status can be seen failing and recovering.
-const failing = vi.hoisted(() => ({ on: false }));
+const failing = vi.hoisted(() => ({ on: false, calls: 0 }));
 vi.mock('@/lib/services/benchmarks/recompute', async (original) => {
   const real = await original<typeof import('@/lib/services/benchmarks/recompute')>();
   return {
     ...real,
     recomputeBenchmark: (...args: Parameters<typeof real.recomputeBenchmark>) => {
-      if (failing.on) return Promise.reject(new Error('disk full (simulated)'));
+      if (failing.on) {
+        failing.calls++;
+        return Promise.reject(new Error('disk full (simulated)'));
+      }
       return real.recomputeBenchmark(...args);
     },
   };
@@ -33,14 +36,17 @@ beforeAll(async () => {
 });
 
 describe('GET /benchmarks/{id}/status when a recomputation fails', () => {
-  it('says failed with the error until a later recomputation succeeds', async () => {
+  it('retries, then says failed with the error until a later recomputation succeeds', async () => {
     vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    process.env.JOB_MAX_ATTEMPTS = '3';
+    process.env.JOB_RETRY_BASE_MS = '20';
     failing.on = true;
-    scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 0);
+    await scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 0);
     await whenRecomputeIdle(ws.workspaceId, seeded.benchmarkId);
     const params = { id: seeded.benchmarkId };
     const failed = await (await get(statusRoute.GET, `/benchmarks/${seeded.benchmarkId}/status`, token, params)).json();
     expect(failed).toMatchObject({ state: 'failed', computing: false, error: 'disk full (simulated)', latestRevision: { number: 1 } });
+    expect(failing.calls).toBe(3);
     const verdict = await (
       await get(verdictRoute.GET, `/benchmarks/${seeded.benchmarkId}/methods/${seeded.methodId}/verdict?maxMae=5`, token, { ...params, methodId: seeded.methodId })
     ).json();
@@ -48,7 +54,7 @@ describe('GET /benchmarks/{id}/status when a recomputation fails', () => {
     expect(verdict.warnings).toContain('The last recomputation of this benchmark failed; the verdict is of the latest stored revision.');
 
     failing.on = false;
-    scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 0);
+    await scheduleRecompute(ws.workspaceId, [seeded.benchmarkId], { trigger: 'manual' }, 0);
     await whenRecomputeIdle(ws.workspaceId, seeded.benchmarkId);
     expect(await (await get(statusRoute.GET, `/benchmarks/${seeded.benchmarkId}/status`, token, params)).json()).toMatchObject({ state: 'idle', error: null });
   });

@@ -1,86 +1,54 @@
 import 'server-only';
 /**
- * When alerts go out. After a revision is stored, each benchmark waits
- * ALERT_DEBOUNCE_MS after its latest revision before announcing, so a burst of
- * imports produces one alert with the first-to-last change. State is in memory
- * (globalThis): after a crash the next revision announces everything since each
- * watcher's baseline, so nothing is lost, and the outbox's dedupe key per
- * watcher × revision means nothing is sent twice.
+ * When alerts go out, as durable jobs (lib/services/jobs/runner.ts) shared by
+ * every app process. After a revision is stored, the benchmark's 'announce' job
+ * is pushed back to ALERT_DEBOUNCE_MS from now, so a burst of imports produces
+ * one alert with the first-to-last change. One process at a time holds the
+ * job's lease, and the outbox's dedupe key per watcher × revision means a run
+ * repeated after a lost lease sends nothing twice.
+ *
+ * The daily digests are one standing 'digest' job: each run sends what is due
+ * and queues the next run DIGEST_CHECK_MS later.
  */
+import { ensureJob } from '@/db/queries/jobs';
 import { envValue } from '@/lib/env';
+import { queueJob, registerJobHandler, startJobRunner, whenJobsIdle } from '@/lib/services/jobs/runner';
 import { announceBenchmark, sendDueDigests } from './announce';
 
-interface Pending {
-  timer: ReturnType<typeof setTimeout> | null;
-  running: Promise<void> | null;
-  /** A revision arrived while announcing: announce again afterwards. */
-  again: boolean;
-}
+const ANNOUNCE = 'announce';
+const DIGEST = 'digest';
+const DIGEST_CHECK_MS = 15 * 60_000;
 
-const store = globalThis as unknown as {
-  ledgerAlertJobs?: Map<string, Pending>;
-  ledgerDigestTimer?: ReturnType<typeof setInterval>;
-};
-const jobs = (store.ledgerAlertJobs ??= new Map<string, Pending>());
+registerJobHandler(ANNOUNCE, async (job) => {
+  const [workspaceId, benchmarkId] = job.key.split('|');
+  await announceBenchmark(workspaceId, benchmarkId);
+});
 
-function run(key: string, job: Pending, workspaceId: string, benchmarkId: string): void {
-  job.timer = null;
-  if (job.running) {
-    job.again = true;
-    return;
-  }
-  job.running = announceBenchmark(workspaceId, benchmarkId)
-    .then(() => undefined)
-    .catch((error: unknown) => console.error(`[alerts] benchmark ${benchmarkId}: announcing failed`, error))
-    .finally(() => {
-      job.running = null;
-      if (job.again) {
-        job.again = false;
-        arm(key, job, workspaceId, benchmarkId);
-      } else if (!job.timer) jobs.delete(key);
-    });
-}
-
-function arm(key: string, job: Pending, workspaceId: string, benchmarkId: string): void {
-  if (job.timer) clearTimeout(job.timer);
-  job.timer = setTimeout(() => run(key, job, workspaceId, benchmarkId), envValue('ALERT_DEBOUNCE_MS'));
-  job.timer.unref?.();
-}
+registerJobHandler(DIGEST, async () => {
+  await sendDueDigests(new Date());
+  await queueJob({ kind: DIGEST, key: 'daily', item: null, runAfter: new Date(Date.now() + DIGEST_CHECK_MS) });
+});
 
 /**
- * Called after a new revision row is stored. Returns at once; the alert for this
- * benchmark goes out once no newer revision has arrived for the debounce window.
+ * Called after a new revision row is stored. The alert for this benchmark goes
+ * out once no newer revision has arrived for the debounce window.
  */
-export function revisionStored(workspaceId: string, benchmarkId: string, _revisionId: string): void {
+export async function revisionStored(workspaceId: string, benchmarkId: string, revisionId: string): Promise<void> {
   try {
-    const key = `${workspaceId}|${benchmarkId}`;
-    let job = jobs.get(key);
-    if (!job) jobs.set(key, (job = { timer: null, running: null, again: false }));
-    arm(key, job, workspaceId, benchmarkId);
+    await queueJob({ kind: ANNOUNCE, key: `${workspaceId}|${benchmarkId}`, workspaceId, item: revisionId, runAfter: new Date(Date.now() + envValue('ALERT_DEBOUNCE_MS')) });
   } catch (error) {
-    // Alerts must never make storing a revision fail.
+    // Alerts must never make storing a revision fail; the next revision announces this one too.
     console.error('[alerts] could not schedule an announcement', error);
   }
 }
 
-/** Resolves when no announcement is waiting or running: for tests and scripts. */
+/** Resolves when no announcement waits or runs: for tests and scripts. */
 export async function whenAlertsIdle(timeoutMs = 60_000): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (jobs.size > 0) {
-    if (Date.now() > deadline) throw new Error('alert announcements did not finish in time');
-    await new Promise((resolve) => setTimeout(resolve, 10));
-  }
+  await whenJobsIdle({ kinds: [ANNOUNCE] }, timeoutMs);
 }
 
-const DIGEST_CHECK_MS = 15 * 60_000;
-
-/** Checks for due daily digests every 15 minutes (and once shortly after start-up). */
-export function startDigestTimer(): void {
-  if (store.ledgerDigestTimer) return;
-  const tick = () =>
-    void sendDueDigests(new Date())
-      .catch((error: unknown) => console.error('[alerts] digest pass failed', error));
-  store.ledgerDigestTimer = setInterval(tick, DIGEST_CHECK_MS);
-  store.ledgerDigestTimer.unref?.();
-  setTimeout(tick, 30_000).unref?.();
+/** Makes sure the digest job exists (its first run shortly after start-up) and starts this process's job runner. */
+export async function startDigestTimer(): Promise<void> {
+  await ensureJob({ kind: DIGEST, key: 'daily', runAfter: new Date(Date.now() + 30_000) });
+  startJobRunner();
 }

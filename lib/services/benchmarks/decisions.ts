@@ -12,23 +12,23 @@ type PinInput = Parameters<typeof decisions.createPin>[2];
 
 export async function decide(workspaceId: string, actor: Actor, input: DecisionInput): Promise<{ id: string }> {
   const { id } = await decisions.createDecision(workspaceId, actor, input);
-  dataChanged(workspaceId, { cause: { trigger: 'decision', decisionId: id, userId: actor.userId }, benchmarkIds: [input.benchmarkId], immediate: true });
+  await dataChanged(workspaceId, { cause: { trigger: 'decision', decisionId: id, userId: actor.userId }, benchmarkIds: [input.benchmarkId], immediate: true });
   return { id };
 }
 
 export async function revertDecision(workspaceId: string, actor: Actor, decisionId: string, reason: string): Promise<{ benchmarkId: string | null }> {
   const { benchmarkId } = await decisions.revertDecision(workspaceId, actor, decisionId, reason);
-  dataChanged(workspaceId, { cause: { trigger: 'decision', decisionId, userId: actor.userId }, benchmarkIds: benchmarkId ? [benchmarkId] : undefined, immediate: true });
+  await dataChanged(workspaceId, { cause: { trigger: 'decision', decisionId, userId: actor.userId }, benchmarkIds: benchmarkId ? [benchmarkId] : undefined, immediate: true });
   return { benchmarkId };
 }
 
 export async function pin(workspaceId: string, actor: Actor, input: PinInput): Promise<{ id: string }> {
   const { id } = await decisions.createPin(workspaceId, actor, input);
-  dataChanged(workspaceId, { cause: { trigger: 'pin', pinId: id, userId: actor.userId }, immediate: true });
+  await dataChanged(workspaceId, { cause: { trigger: 'pin', pinId: id, userId: actor.userId }, immediate: true });
   return { id };
 }
 
 export async function revokePin(workspaceId: string, actor: Actor, pinId: string, reason: string): Promise<void> {
   await decisions.revokePin(workspaceId, actor, pinId, reason);
-  dataChanged(workspaceId, { cause: { trigger: 'pin', pinId, userId: actor.userId }, immediate: true });
+  await dataChanged(workspaceId, { cause: { trigger: 'pin', pinId, userId: actor.userId }, immediate: true });
 }

@@ -1,155 +1,91 @@
 import 'server-only';
 /**
- * In-process background queue of benchmark recomputations.
+ * Benchmark recomputations as durable jobs (lib/services/jobs/runner.ts), one
+ * row per benchmark, shared by every app process on the database.
  *
- * scheduleRecompute returns at once (it never blocks an import or an action);
- * each benchmark waits RECOMPUTE_DEBOUNCE_MS after its last request, so a burst
- * of imports produces one recomputation, and runs one job at a time. Causes
- * reported while it waits are handed to the job and stored with the revision.
- *
- * State is kept in memory (on globalThis, shared by every route of this process),
- * not as a 'computing' revision row: a crash then leaves no stale row behind, and
- * the next change or an explicit "recompute" brings the benchmark up to date.
- * `recomputeState` tells the page that a newer revision is being computed.
+ * scheduleRecompute writes the request and returns (it never waits for the
+ * recomputation); each benchmark waits RECOMPUTE_DEBOUNCE_MS after its last
+ * request, so a burst of imports produces one recomputation. Causes reported
+ * while it waits are folded into the row and stored with the revision. One
+ * process at a time holds a benchmark's lease, and the revision insert refuses
+ * a fingerprint equal to the latest, so each change makes one revision even
+ * when two processes race after a lease ran out.
  */
 import { listBenchmarkIds } from '@/db/queries/benchmarks';
+import { findJob, jobQueueStats } from '@/db/queries/jobs';
 import { envValue } from '@/lib/env';
 import type { RecomputeCause } from '@/lib/benchmark/revision-record';
+import { queueJob, registerJobHandler, whenJobsIdle } from '@/lib/services/jobs/runner';
 import { recomputeBenchmark } from './recompute';
 
 export type RecomputeState = 'idle' | 'queued' | 'running';
 
-interface Job {
-  workspaceId: string;
-  benchmarkId: string;
-  timer: ReturnType<typeof setTimeout> | null;
-  running: Promise<void> | null;
-  causes: RecomputeCause[];
-  lastError: string | null;
-  /** When this job was first queued (ms since the epoch): the health check reports the oldest. */
-  since: number;
-}
-
-const store = globalThis as unknown as {
-  ledgerRecomputeJobs?: Map<string, Job>;
-  ledgerRecomputeListings?: Map<string, number>;
-  ledgerRecomputeFailures?: Map<string, { message: string; at: number }>;
-};
-const jobs = (store.ledgerRecomputeJobs ??= new Map<string, Job>());
-/** Workspaces whose benchmark list is being read before their jobs are queued. */
-const listings = (store.ledgerRecomputeListings ??= new Map<string, number>());
-/** The last recomputation of a benchmark failed (until one succeeds): what the API status reports. */
-const failures = (store.ledgerRecomputeFailures ??= new Map<string, { message: string; at: number }>());
-
-function debounceMs(): number {
-  return envValue('RECOMPUTE_DEBOUNCE_MS');
-}
+const KIND = 'recompute';
 
 function key(workspaceId: string, benchmarkId: string): string {
   return `${workspaceId}|${benchmarkId}`;
 }
 
-function start(job: Job): void {
-  job.timer = null;
-  if (job.running) return;
-  const causes = job.causes.splice(0);
-  job.since = Date.now();
-  job.running = recomputeBenchmark(job.workspaceId, job.benchmarkId, causes.length ? causes : [{ trigger: 'data-change' }])
-    .then(() => {
-      job.lastError = null;
-      failures.delete(key(job.workspaceId, job.benchmarkId));
-    })
-    .catch((error: unknown) => {
-      job.lastError = error instanceof Error ? error.message : String(error);
-      failures.set(key(job.workspaceId, job.benchmarkId), { message: job.lastError, at: Date.now() });
-      console.error(`benchmark ${job.benchmarkId}: recomputation failed`, error);
-    })
-    .finally(() => {
-      job.running = null;
-      if (job.causes.length > 0) arm(job);
-      else if (!job.timer) jobs.delete(key(job.workspaceId, job.benchmarkId));
-    });
-}
-
-function arm(job: Job, delayMs = debounceMs()): void {
-  if (job.timer) clearTimeout(job.timer);
-  job.timer = setTimeout(() => start(job), delayMs);
-  job.timer.unref?.();
-}
+registerJobHandler(KIND, async (job) => {
+  const [workspaceId, benchmarkId] = job.key.split('|');
+  const causes = job.payload as RecomputeCause[];
+  await recomputeBenchmark(workspaceId, benchmarkId, causes.length ? causes : [{ trigger: 'data-change' }]);
+});
 
 /**
- * Queues a recomputation of these benchmarks (all of the workspace when omitted);
- * returns immediately. A curator's decision passes delayMs 0: there is no burst to wait for.
+ * Queues a recomputation of these benchmarks (all of the workspace when omitted).
+ * A curator's decision passes delayMs 0: there is no burst to wait for.
  */
-export function scheduleRecompute(
+export async function scheduleRecompute(
   workspaceId: string,
   benchmarkIds?: string[],
   cause: RecomputeCause = { trigger: 'data-change' },
   delayMs?: number,
-): void {
-  if (!benchmarkIds) {
-    listings.set(workspaceId, (listings.get(workspaceId) ?? 0) + 1);
-    listBenchmarkIds(workspaceId)
-      .then((ids) => scheduleRecompute(workspaceId, ids, cause, delayMs))
-      .catch((error: unknown) => console.error('could not list benchmarks to recompute', error))
-      .finally(() => {
-        const left = (listings.get(workspaceId) ?? 1) - 1;
-        if (left > 0) listings.set(workspaceId, left);
-        else listings.delete(workspaceId);
-      });
-    return;
-  }
-  for (const benchmarkId of benchmarkIds) {
-    const k = key(workspaceId, benchmarkId);
-    let job = jobs.get(k);
-    if (!job) jobs.set(k, (job = { workspaceId, benchmarkId, timer: null, running: null, causes: [], lastError: null, since: Date.now() }));
-    job.causes.push(cause);
-    arm(job, delayMs);
-  }
+): Promise<void> {
+  const ids = benchmarkIds ?? (await listBenchmarkIds(workspaceId));
+  const runAfter = new Date(Date.now() + (delayMs ?? envValue('RECOMPUTE_DEBOUNCE_MS')));
+  for (const benchmarkId of ids) await queueJob({ kind: KIND, key: key(workspaceId, benchmarkId), workspaceId, item: cause, runAfter });
 }
 
-export function recomputeState(workspaceId: string, benchmarkId: string): RecomputeState {
-  const job = jobs.get(key(workspaceId, benchmarkId));
-  if (!job) return 'idle';
-  return job.running ? 'running' : 'queued';
+export interface RecomputeStatus {
+  state: RecomputeState | 'failed';
+  /** The last run's error: of a failed job, or of a job waiting to be retried. */
+  error: string | null;
+  attempts: number;
+  /** When a job waiting after a failure runs again. */
+  retryAt: Date | null;
 }
 
 /**
- * The state a workflow waits on: like recomputeState, but 'queued' also while the workspace's benchmark list is
- * being read to queue them (the moment right after an import), and 'failed' when the last run of an idle
- * benchmark failed. Idle means every change committed before this call has been computed.
+ * The state a page shows and a workflow waits on. Idle means every change
+ * committed before this call has been computed; 'failed' means the last
+ * attempts all failed and the job waits for a retry or a new change.
  */
-export function recomputeStatus(workspaceId: string, benchmarkId: string): { state: RecomputeState | 'failed'; error: string | null } {
-  const state = recomputeState(workspaceId, benchmarkId);
-  if (state !== 'idle') return { state, error: null };
-  if (listings.has(workspaceId)) return { state: 'queued', error: null };
-  const failure = failures.get(key(workspaceId, benchmarkId));
-  return failure ? { state: 'failed', error: failure.message } : { state: 'idle', error: null };
+export async function recomputeStatus(workspaceId: string, benchmarkId: string, now = new Date()): Promise<RecomputeStatus> {
+  const row = await findJob(KIND, key(workspaceId, benchmarkId));
+  if (!row) return { state: 'idle', error: null, attempts: 0, retryAt: null };
+  if (row.status === 'failed') return { state: 'failed', error: row.lastError, attempts: row.attempts, retryAt: null };
+  const running = row.leaseOwner !== null && row.leaseExpiresAt !== null && row.leaseExpiresAt > now;
+  return {
+    state: running ? 'running' : 'queued',
+    error: row.lastError,
+    attempts: row.attempts,
+    retryAt: !running && row.lastError ? row.runAfter : null,
+  };
+}
+
+export async function recomputeState(workspaceId: string, benchmarkId: string): Promise<RecomputeState> {
+  const { state } = await recomputeStatus(workspaceId, benchmarkId);
+  return state === 'failed' ? 'idle' : state;
 }
 
 /** The queue at a glance, for GET /api/health. */
-export function recomputeQueueStatus(now = Date.now()): { queued: number; running: number; oldestMs: number } {
-  let queued = 0;
-  let running = 0;
-  let oldest = now;
-  for (const job of jobs.values()) {
-    if (job.running) running++;
-    else queued++;
-    oldest = Math.min(oldest, job.since);
-  }
-  return { queued, running, oldestMs: now - oldest };
+export async function recomputeQueueStatus(now = new Date()): Promise<{ queued: number; running: number; failed: number; oldestMs: number }> {
+  const stats = await jobQueueStats([KIND], now);
+  return { queued: stats.queued, running: stats.running, failed: stats.failed, oldestMs: stats.oldest ? now.getTime() - stats.oldest.getTime() : 0 };
 }
 
-/** Resolves when no job of this benchmark (or of any, when omitted) is queued or running: for tests and scripts. */
+/** Resolves when no recomputation of this benchmark (or workspace, or any) waits or runs: for tests and scripts. */
 export async function whenRecomputeIdle(workspaceId?: string, benchmarkId?: string, timeoutMs = 60_000): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const pending = [...jobs.values()].filter(
-      (j) => (!workspaceId || j.workspaceId === workspaceId) && (!benchmarkId || j.benchmarkId === benchmarkId),
-    );
-    const listing = workspaceId ? listings.has(workspaceId) : listings.size > 0;
-    if (pending.length === 0 && !listing) return;
-    if (Date.now() > deadline) throw new Error('recomputation did not finish in time');
-    await new Promise((resolve) => setTimeout(resolve, 10));
-  }
+  await whenJobsIdle({ kinds: [KIND], workspaceId, key: workspaceId && benchmarkId ? key(workspaceId, benchmarkId) : undefined }, timeoutMs);
 }

@@ -26,6 +26,7 @@ export async function recomputeBenchmark(
   const baseline = latest ? await revisionBaseline(workspaceId, latest.id) : null;
   const record = revisionRecord({ fingerprint, snapshot, measurements: input.measurements, calculations: input.calculations, reported, baseline });
   const head = await insertRevision(workspaceId, benchmarkId, record);
-  revisionStored(workspaceId, benchmarkId, head.id);
+  if (!head.created) return { created: false, revision: head };
+  await revisionStored(workspaceId, benchmarkId, head.id);
   return { created: true, revision: head };
 }

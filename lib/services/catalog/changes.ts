@@ -31,6 +31,6 @@ export async function updateQualityThresholds(
   next: Parameters<typeof settings.updateQualityThresholds>[2],
 ): Promise<{ changed: boolean }> {
   const result = await settings.updateQualityThresholds(workspaceId, actor, next);
-  if (result.changed) dataChanged(workspaceId, { cause: { trigger: 'data-change', userId: actor.userId } });
+  if (result.changed) await dataChanged(workspaceId, { cause: { trigger: 'data-change', userId: actor.userId } });
   return result;
 }

@@ -179,7 +179,7 @@ async function commitRows(input: CatalogImportInput, rows: CatalogRow[], rowCoun
     { rowCount, unchangedCount: plan.unchanged.length },
   );
   // New records change no benchmark (nothing refers to them yet); updated ones may.
-  if (updates.length) dataChanged(input.workspaceId, { cause: { trigger: 'import', importId, userId: input.actor.userId } });
+  if (updates.length) await dataChanged(input.workspaceId, { cause: { trigger: 'import', importId, userId: input.actor.userId } });
   const createdCount = plan.creates.length + plan.revives.length;
   return { ...base, importId, createdCount, updatedCount: updates.length, insertedCount: createdCount + updates.length };
 }

@@ -138,8 +138,8 @@ export async function importJsonBody(input: { workspaceId: string; actor: Import
   return recomputeAfter(input.workspaceId, input.actor, outcome);
 }
 
-/** New rows may move every benchmark of the workspace: recompute them in the background, never blocking the import. */
-function recomputeAfter(workspaceId: string, actor: ImportActor, outcome: ImportOutcome): ImportOutcome {
-  if (outcome.insertedCount > 0) dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
+/** New rows may move every benchmark of the workspace: queue their recomputation (a job), never waiting for it. */
+async function recomputeAfter(workspaceId: string, actor: ImportActor, outcome: ImportOutcome): Promise<ImportOutcome> {
+  if (outcome.insertedCount > 0) await dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
   return outcome;
 }

@@ -72,7 +72,7 @@ export async function importDosFile(input: DosImportInput): Promise<DosImportOut
   const parsed = reader.end();
   const outcome = await commitDos(input, { fileName: input.fileName, sha256: hash.digest('hex'), byteCount, via: input.via }, parsed);
   if (outcome.insertedCount > 0) {
-    dataChanged(input.workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: input.actor.userId } });
+    await dataChanged(input.workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: input.actor.userId } });
   }
   return outcome;
 }

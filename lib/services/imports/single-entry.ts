@@ -22,6 +22,6 @@ export async function commitSingleEntry(workspaceId: string, actor: ImportActor,
     file: { kind: input.kind, fileName: entryName(input), sha256, byteCount: Buffer.byteLength(body), via: 'form' },
     table: jsonTable(input.kind, [row]),
   });
-  if (outcome.insertedCount > 0) dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
+  if (outcome.insertedCount > 0) await dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
   return outcome;
 }

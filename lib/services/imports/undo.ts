@@ -18,6 +18,6 @@ export async function undoImport(
   refusal?: (batch: ImportBatch) => string | null,
 ): Promise<{ retracted: number; retractedRecords?: number; restoredRecords?: number }> {
   const result = await imports.undoImport(workspaceId, importId, actorUserId, reason, refusal, (tx) => undoCatalogChanges(tx, workspaceId, importId, actorUserId, reason));
-  if (result.retracted > 0 || (result.retractedRecords ?? 0) > 0 || (result.restoredRecords ?? 0) > 0) dataChanged(workspaceId, { cause: { trigger: 'import-undone', importId, userId: actorUserId } });
+  if (result.retracted > 0 || (result.retractedRecords ?? 0) > 0 || (result.restoredRecords ?? 0) > 0) await dataChanged(workspaceId, { cause: { trigger: 'import-undone', importId, userId: actorUserId } });
   return result;
 }

@@ -13,7 +13,7 @@ export default async function BenchmarkPage({ params, searchParams }: { params: 
   const bm = await getBenchmark(ctx.workspace.id, id);
   if (!bm) notFound();
   const rev = await getRevision(ctx.workspace.id, bm.id);
-  const computing = recomputeState(ctx.workspace.id, bm.id) !== 'idle';
+  const computing = (await recomputeState(ctx.workspace.id, bm.id)) !== 'idle';
   return (
     <>
       <BenchmarkWatch workspace={ctx.workspace} userId={ctx.user.id} bm={bm} unit={rev?.statistics.unit} />

@@ -97,7 +97,7 @@ export async function BenchmarkView({
 
   const watcher = !readOnly ? (
     <QueryProvider>
-      <RecomputeWatcher key={`${rev?.number ?? 0}-${computing}`} workspaceId={workspace.id} benchmarkId={bm.id} shownRevision={rev?.number ?? null} computing={computing} />
+      <RecomputeWatcher key={`${rev?.number ?? 0}-${computing}`} workspaceId={workspace.id} benchmarkId={bm.id} shownRevision={rev?.number ?? null} computing={computing} canRetry={canEdit} />
     </QueryProvider>
   ) : null;
 

@@ -101,14 +101,14 @@ export function RevertForm({ workspaceId, benchmarkId, decisionId, pinId }: { wo
   );
 }
 
-export function RecomputeButton({ workspaceId, benchmarkId }: { workspaceId: string; benchmarkId: string }) {
+export function RecomputeButton({ workspaceId, benchmarkId, label = 'Recompute' }: { workspaceId: string; benchmarkId: string; label?: string }) {
   const [state, action] = useActionState(recomputeBenchmarkAction, { ok: false });
   return (
     <form action={action} className="inline-flex items-center gap-2">
       <input type="hidden" name="workspaceId" value={workspaceId} />
       <input type="hidden" name="benchmarkId" value={benchmarkId} />
       <SubmitButton variant="secondary" pendingLabel="Queuing…">
-        Recompute
+        {label}
       </SubmitButton>
       {state.message ? <span className="text-xs text-ink-muted">{state.message}</span> : null}
     </form>

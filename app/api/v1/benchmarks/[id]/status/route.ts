@@ -17,7 +17,7 @@ export const GET = apiRoute('benchmarks:read', benchmarkIdParams, async (request
   const query = parseQuery(request, statusQuerySchema);
   const bm = await requireBenchmark(ctx.workspaceId, params.id);
   // The state is read before the revision, so "idle" can never pair with a revision older than the import.
-  const { state, error } = recomputeStatus(ctx.workspaceId, bm.id);
+  const { state, error } = await recomputeStatus(ctx.workspaceId, bm.id);
   const head = await latestRevisionHead(ctx.workspaceId, bm.id);
   let imported: Record<string, unknown> | undefined;
   if (query.import) {

@@ -13,6 +13,6 @@ export const GET = workspaceRoute('benchmarks:read', benchmarkRouteParams, async
   const bm = await requireBenchmark(ctx.workspace.id, params.benchmarkId);
   const revision = await getRevision(ctx.workspace.id, bm.id, wanted.value);
   if (!revision && wanted.value !== undefined) throw new AppError('not-found', `No revision ${wanted.value} of this benchmark.`);
-  const computing = recomputeState(ctx.workspace.id, bm.id) !== 'idle';
+  const computing = (await recomputeState(ctx.workspace.id, bm.id)) !== 'idle';
   return Response.json(statisticsPayload({ id: bm.id, name: bm.name }, revision, computing), { headers: { 'cache-control': 'private, no-store' } });
 });

@@ -1,7 +1,7 @@
 import { workspaceRoute } from '@/lib/route';
 import { requireBenchmark } from '@/db/queries/benchmarks';
 import { latestRevisionHead } from '@/db/queries/revisions';
-import { recomputeState } from '@/lib/services/benchmarks/recompute-queue';
+import { recomputeStatus } from '@/lib/services/benchmarks/recompute-queue';
 import { benchmarkRouteParams } from '@/lib/benchmark/route-params';
 import type { RecomputeStatus } from '@/lib/benchmark/recompute-status';
 
@@ -11,11 +11,14 @@ import type { RecomputeStatus } from '@/lib/benchmark/recompute-status';
  */
 export const GET = workspaceRoute('benchmarks:read', benchmarkRouteParams, async (_request, ctx, params) => {
   const bm = await requireBenchmark(ctx.workspace.id, params.benchmarkId);
-  const state = recomputeState(ctx.workspace.id, bm.id);
+  const status = await recomputeStatus(ctx.workspace.id, bm.id);
   const head = await latestRevisionHead(ctx.workspace.id, bm.id);
   const body: RecomputeStatus = {
-    state,
-    computing: state !== 'idle',
+    state: status.state,
+    computing: status.state === 'queued' || status.state === 'running',
+    error: status.error,
+    attempts: status.attempts,
+    retryAt: status.retryAt?.toISOString() ?? null,
     latestRevision: head ? { number: head.number, createdAt: head.createdAt.toISOString() } : null,
   };
   return Response.json(body, { headers: { 'cache-control': 'private, no-store' } });

@@ -16,6 +16,6 @@ export default async function RevisionPage({ params, searchParams }: { params: P
   if (!bm) notFound();
   const rev = await getRevision(ctx.workspace.id, bm.id, n);
   if (!rev) notFound();
-  const computing = recomputeState(ctx.workspace.id, bm.id) !== 'idle';
+  const computing = (await recomputeState(ctx.workspace.id, bm.id)) !== 'idle';
   return <BenchmarkView bm={bm} rev={rev} workspace={ctx.workspace} role={ctx.role} computing={computing} search={search} />;
 }

@@ -19,7 +19,7 @@ export const GET = apiRoute('benchmarks:read', benchmarkMethodParams, async (req
   const bm = await requireBenchmark(ctx.workspaceId, params.id);
   const method = await getMethod(ctx.workspaceId, params.methodId);
   if (!method) throw new AppError('not-found', 'No such method in this workspace.');
-  const { state } = recomputeStatus(ctx.workspaceId, bm.id);
+  const { state } = await recomputeStatus(ctx.workspaceId, bm.id);
   const r = await requireRevision(ctx.workspaceId, bm.id, q.revision);
   const result = methodVerdict({ snapshot: r.statistics, methodId: method.id, maxMae: q.maxMae, minCoverage: q.minCoverage });
   const pending = state === 'queued' || state === 'running';
