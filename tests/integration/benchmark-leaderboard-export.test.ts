@@ -101,6 +101,6 @@ describe('benchmark status', () => {
     const res = await call(getStatus, a.workspaceId, benchmarkId);
     expect(res.status).toBe(200);
     const body = await res.json();
-    expect(body).toEqual({ state: 'idle', computing: false, latestRevision: { number: 1, createdAt: expect.any(String) } });
+    expect(body).toEqual({ state: 'idle', computing: false, error: null, attempts: 0, retryAt: null, latestRevision: { number: 1, createdAt: expect.any(String) } });
   });
 });
