@@ -9,7 +9,9 @@
  * Target: recomputation ≤ 3 × floor. Then the latency of the benchmark page's
  * JSON endpoints over 200 sequential requests, measured on the query +
  * serialisation functions the route handlers call (the session check is left
- * out: it needs Next's request context).
+ * out: it needs Next's request context). Last, the bytes the latest revision
+ * stores: its row set (target ≤ 1 MB, beside the JSON list of row ids revisions
+ * stored before row sets), its statistics snapshot and the total.
  * Run with `npm run bench:benchmark`.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -199,6 +201,24 @@ console.log(`full recomputation            ${recomputeMs.toFixed(0)} ms (median 
 console.log(`  of which: read ${loadMs.toFixed(0)} ms, compute ${computeMs.toFixed(0)} ms (separate run), the rest fingerprint + store`);
 console.log(`ratio                         ${(recomputeMs / floor).toFixed(2)} × floor (target ≤ 3 ×) ${recomputeMs / floor <= 3 ? 'PASS' : 'MISS'}`);
 
+// Revision size: the row set as stored, next to the JSON list of row ids revisions stored before it (same rows).
+const sizes = await client.execute({
+  sql: 'select length(row_set), length(statistics), length(cause) from revision where benchmark_id = ? order by number desc limit 1',
+  args: [benchmarkId],
+});
+const [rowSetBytes, statisticsBytes, causeBytes] = [0, 1, 2].map((i) => Number(sizes.rows[0][i]));
+const legacyRowIdBytes = Buffer.byteLength(
+  JSON.stringify({ measurements: input.measurements.map((m) => m.id).sort(), calculations: input.calculations.map((c) => c.id).sort() }),
+);
+const kb = (n: number) => `${(n / 1024).toFixed(1)} KiB`;
+console.log('');
+console.log(`revision row set              ${rowSetBytes.toLocaleString('en')} bytes for ${rowsRead.toLocaleString('en')} rows (the JSON list of row ids: ${(legacyRowIdBytes / 1024 / 1024).toFixed(2)} MB) (target ≤ 1 MB) ${rowSetBytes <= 1024 * 1024 ? 'PASS' : 'MISS'}`);
+console.log(`revision statistics snapshot  ${kb(statisticsBytes)} (pairs, per-method statistics, flags' inputs), cause ${kb(causeBytes)}`);
+const totalBytes = rowSetBytes + statisticsBytes + causeBytes;
+console.log(
+  `revision total                ${(totalBytes / 1024 / 1024).toFixed(2)} MB (target ≤ 1 MB) ${totalBytes <= 1024 * 1024 ? 'PASS' : 'MISS: the snapshot keeps every pair as JSON'}`,
+);
+
 async function latency(label: string, fn: () => Promise<string>) {
   const times: number[] = [];
   let bytes = 0;
@@ -224,5 +244,6 @@ await latency('GET …/pairs (plot columns)', async () => {
   return JSON.stringify(encodePlotColumns(plotPoints(revision.statistics, lookups), { revision: revision.number, unit: revision.statistics.unit }));
 });
 
+(await import('../lib/services/jobs/runner')).stopJobRunner();
 closeDb();
 rmSync(dir, { recursive: true, force: true });

@@ -170,6 +170,7 @@ async function main() {
   console.log(`floor (raw multi-row INSERTs of the same rows, one transaction):       ${(floorMs / 1000).toFixed(2)} s  (${Math.round(ROWS / (floorMs / 1000)).toLocaleString('en')} rows/s)`);
   console.log(`ratio import / floor: ${ratio.toFixed(2)}×  (target ≤ ${TARGET_RATIO}×) ${ratio <= TARGET_RATIO ? 'OK' : 'ABOVE TARGET'}`);
   console.log(`peak RSS during the import: ${mb(peakRss)}  (target < 1 GB at 1,000,000 rows)`);
+  (await import('../lib/services/jobs/runner')).stopJobRunner();
   closeDb();
   rmSync(dir, { recursive: true, force: true });
 }
@@ -308,6 +309,7 @@ async function catalogueMain() {
   console.log('');
   console.log(`pipeline push, createMissing (${PIPELINE_MATERIALS.toLocaleString('en')} new materials + 1 method, ${push.insertedCount.toLocaleString('en')} calculation rows): ${(pushMs / 1000).toFixed(2)} s`);
   console.log(`plain import of the same ${plain.insertedCount.toLocaleString('en')} rows into existing materials:                   ${(plainMs / 1000).toFixed(2)} s  (push / plain ${(pushMs / plainMs).toFixed(2)}×)`);
+  (await import('../lib/services/jobs/runner')).stopJobRunner();
   closeDb();
   rmSync(dir, { recursive: true, force: true });
 }

@@ -157,5 +157,6 @@ const oldP99 = await latency('old rows (baseline)', oldBody);
 const newP99 = await latency('columns (sent now)', newBody);
 console.log(`ratio p99 columns / old rows  ${(newP99 / oldP99).toFixed(2)}`);
 
+(await import('../lib/services/jobs/runner')).stopJobRunner();
 closeDb();
 rmSync(dir, { recursive: true, force: true });

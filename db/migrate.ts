@@ -5,6 +5,7 @@ import type { Client } from '@libsql/client';
 import { dbEnv } from '../lib/db-env';
 import { connect } from './connection';
 import { backfillStructuredSources } from './source-backfill';
+import { backfillRevisionRowSets } from './revision-backfill';
 
 const migrationsFolder = fileURLToPath(new URL('../drizzle', import.meta.url));
 
@@ -12,6 +13,7 @@ const migrationsFolder = fileURLToPath(new URL('../drizzle', import.meta.url));
 export async function migrateClient(client: Client): Promise<void> {
   await migrate(drizzle(client), { migrationsFolder });
   await backfillStructuredSources(client);
+  await backfillRevisionRowSets(client);
 }
 
 async function main() {

@@ -274,10 +274,16 @@ function calculationFromRow(r: unknown[]): CalculationRow {
     branch: r[9] as CalculationRow['branch'],
     activity: r[10] as CalculationRow['activity'],
     degeneracy: r[11] as number | null,
+    seq: r[12] as number,
   };
 }
 
-export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecord): Promise<BenchmarkInput> {
+export async function loadBenchmarkInput(
+  workspaceId: string,
+  bm: BenchmarkRecord,
+  /** Reproducing a revision: its materials (those of its measurements) in place of today's scope. */
+  options: { materialIds?: string[] } = {},
+): Promise<BenchmarkInput> {
   const { scope, rules } = bm;
   const methodWhere = and(
     eq(method.workspaceId, workspaceId),
@@ -285,7 +291,7 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
     scope.methodIds.length ? inArray(method.id, scope.methodIds) : undefined,
   );
   const methodIds = db.select({ id: method.id }).from(method).where(methodWhere);
-  const scopedMaterials = materialsInScope(workspaceId, scope);
+  const scopedMaterials = options.materialIds ?? materialsInScope(workspaceId, scope);
 
   const calculationWhere: Array<SQL | undefined> = [
     eq(calculation.workspaceId, workspaceId),
@@ -312,9 +318,11 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         irrep: measurement.irrep,
         branch: measurement.branch,
         technique: measurement.technique,
+        seq: measurement.seq,
       })
       .from(measurement)
-      .where(measurementScope(workspaceId, scope)),
+      .where(measurementScope(workspaceId, scope))
+      .then((rows) => rows.map((r) => ({ ...r, seq: r.seq! }))),
     // The largest read (every computed mode in scope): raw rows mapped by hand skip Drizzle's per-column decoding.
     db
       .select({
@@ -330,6 +338,7 @@ export async function loadBenchmarkInput(workspaceId: string, bm: BenchmarkRecor
         branch: calculation.branch,
         activity: calculation.activity,
         degeneracy: calculation.degeneracy,
+        seq: calculation.seq,
       })
       .from(calculation)
       .where(and(...calculationWhere))
@@ -453,3 +462,69 @@ export async function benchmarkFormOptions(workspaceId: string) {
   return { methods, materials, tags: tags.map((t) => t.tag) };
 }
 
+
+/**
+ * The measurement and calculation rows of a stored row set, as loadBenchmarkInput reads them, whether or not they
+ * were retracted since: what reproducing a past revision starts from. Only this workspace's rows; a sequence
+ * number that names no row of it is reported, since the set then cannot be reproduced.
+ */
+export async function rowsOfRowSet(workspaceId: string, rows: { measurements: number[]; calculations: number[] }) {
+  const runs = (seqs: number[]) => {
+    const out: Array<[number, number]> = [];
+    for (const s of seqs) {
+      const last = out[out.length - 1];
+      if (last && s === last[1] + 1) last[1] = s;
+      else out.push([s, s]);
+    }
+    return out;
+  };
+  const inRuns = (column: typeof measurement.seq | typeof calculation.seq, chunk: Array<[number, number]>) => or(...chunk.map(([a, b]) => (a === b ? eq(column, a) : and(gte(column, a), lte(column, b)))));
+  const measurements: BenchmarkInput['measurements'] = [];
+  const calculations: BenchmarkInput['calculations'] = [];
+  const mRuns = runs(rows.measurements);
+  for (let i = 0; i < mRuns.length; i += 200) {
+    const found = await db
+      .select({
+        id: measurement.id,
+        materialId: measurement.materialId,
+        sourceId: measurement.sourceId,
+        importId: measurement.importId,
+        value: measurement.value,
+        uncertainty: measurement.uncertainty,
+        temperatureK: measurement.temperatureK,
+        irrep: measurement.irrep,
+        branch: measurement.branch,
+        technique: measurement.technique,
+        seq: measurement.seq,
+      })
+      .from(measurement)
+      .where(and(eq(measurement.workspaceId, workspaceId), inRuns(measurement.seq, mRuns.slice(i, i + 200))));
+    measurements.push(...found.map((r) => ({ ...r, seq: r.seq! })));
+  }
+  const cRuns = runs(rows.calculations);
+  for (let i = 0; i < cRuns.length; i += 200) {
+    const found = await db
+      .select({
+        id: calculation.id,
+        materialId: calculation.materialId,
+        methodId: calculation.methodId,
+        sourceId: calculation.sourceId,
+        importId: calculation.importId,
+        value: calculation.value,
+        uncertainty: calculation.uncertainty,
+        temperatureK: calculation.temperatureK,
+        irrep: calculation.irrep,
+        branch: calculation.branch,
+        activity: calculation.activity,
+        degeneracy: calculation.degeneracy,
+        seq: calculation.seq,
+      })
+      .from(calculation)
+      .where(and(eq(calculation.workspaceId, workspaceId), inRuns(calculation.seq, cRuns.slice(i, i + 200))))
+      .values();
+    calculations.push(...found.map(calculationFromRow));
+  }
+  const missing = rows.measurements.length - measurements.length + rows.calculations.length - calculations.length;
+  if (missing !== 0) throw new AppError('conflict', `${missing} row(s) of this revision's row set are not in the workspace: it cannot be reproduced.`);
+  return { measurements, calculations };
+}

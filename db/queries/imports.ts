@@ -117,6 +117,7 @@ const COMMON_COLUMNS = [
   'notes',
   'row_hash',
   'contributor_id',
+  'seq',
 ] as const;
 const MEASUREMENT_EXTRA = ['technique', 'laser_wavelength_nm', 'sample_form'] as const;
 const CALCULATION_EXTRA = ['method_id', 'mode_index'] as const;
@@ -140,7 +141,7 @@ export function multiRowInsertSql(table: string, columns: readonly string[], n: 
   return sql;
 }
 
-function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, contributorId: string | null, p: PendingRow, out: InValue[]): void {
+function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, contributorId: string | null, seq: number, p: PendingRow, out: InValue[]): void {
   const v = p.valid;
   out.push(
     crypto.randomUUID(),
@@ -164,6 +165,7 @@ function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, co
     v.notes,
     p.hash,
     contributorId,
+    seq,
   );
   if (kind === 'measurements') out.push(v.technique, v.laserWavelengthNm, v.sampleForm);
   else out.push(v.methodId, v.modeIndex);
@@ -200,6 +202,7 @@ export async function openValueImport(workspaceId: string, actor: ImportActor, f
   const raw: Transaction = await getClient().transaction('write');
   const tx = createDb(raw as unknown as Client);
   const importId = crypto.randomUUID();
+  let nextSeq = 0;
   let closed = false;
   const close = () => {
     if (!closed) raw.close();
@@ -207,6 +210,9 @@ export async function openValueImport(workspaceId: string, actor: ImportActor, f
   };
   try {
     await insertImportBatch(tx, { id: importId, workspaceId, kind: file.kind, fileName: file.fileName, sha256: file.sha256, byteCount: file.byteCount, rowCount: 0, via: file.via }, actor);
+    // The import's rows take the next run of sequence numbers (one run: a revision's row set stays a few bytes).
+    const top = await raw.execute(`SELECT coalesce(max(seq), 0) FROM ${tableName}`);
+    nextSeq = Number(top.rows[0][0]);
   } catch (e) {
     await raw.rollback().catch(() => undefined);
     close();
@@ -230,7 +236,7 @@ export async function openValueImport(workspaceId: string, actor: ImportActor, f
       }
       if (fresh.length) {
         const values: InValue[] = [];
-        for (const p of fresh) rowArgs(file.kind as ImportableKind, workspaceId, importId, actor.userId, p, values);
+        for (const p of fresh) rowArgs(file.kind as ImportableKind, workspaceId, importId, actor.userId, ++nextSeq, p, values);
         await raw.execute({ sql: multiRowInsertSql(tableName, columns, fresh.length), args: values });
       }
       await yieldToEventLoop();

@@ -5,6 +5,8 @@ import { flag, importBatch, material, revision, source, user } from '@/db/schema
 import { shortCitation } from '@/lib/citations/short-citation';
 import { AppError } from '@/lib/errors';
 import type { RevisionBaseline, RevisionCause, RevisionRecord } from '@/lib/benchmark/revision-record';
+import type { RowSet } from '@/lib/benchmark/row-set';
+import { packRowSet, unpackRowSet } from '@/db/row-set-bytes';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 
 export interface RevisionHead {
@@ -31,11 +33,21 @@ export async function latestRevisionHead(workspaceId: string, benchmarkId: strin
   return latestReady(workspaceId, benchmarkId);
 }
 
-/** The row ids, decisions and pins a revision was computed from: the baseline of the next revision's cause. */
+/** The sequence numbers of the rows a revision was computed from; null for a revision stored without them. */
+export async function revisionRowSet(workspaceId: string, revisionId: string): Promise<RowSet | null> {
+  const [row] = await db
+    .select({ rowSet: revision.rowSet })
+    .from(revision)
+    .where(and(eq(revision.workspaceId, workspaceId), eq(revision.id, revisionId)));
+  if (!row) throw new AppError('not-found', 'That revision does not exist in this workspace.');
+  return row.rowSet ? unpackRowSet(row.rowSet) : null;
+}
+
+/** The rows, decisions and pins a revision was computed from: the baseline of the next revision's cause. */
 export async function revisionBaseline(workspaceId: string, revisionId: string): Promise<RevisionBaseline> {
   const [row] = await db
     .select({
-      rowIds: revision.rowIds,
+      rowSet: revision.rowSet,
       decisions: sql<string | null>`json_extract(${revision.statistics}, '$.decisions')`,
       pins: sql<string | null>`json_extract(${revision.statistics}, '$.pins')`,
     })
@@ -43,7 +55,7 @@ export async function revisionBaseline(workspaceId: string, revisionId: string):
     .where(and(eq(revision.workspaceId, workspaceId), eq(revision.id, revisionId)));
   if (!row) throw new AppError('not-found', 'That revision does not exist in this workspace.');
   const ids = (json: string | null) => (JSON.parse(json ?? '[]') as Array<{ id: string }>).map((x) => x.id);
-  return { rowIds: row.rowIds, decisionIds: ids(row.decisions), pinIds: ids(row.pins) };
+  return { rows: row.rowSet ? unpackRowSet(row.rowSet) : null, decisionIds: ids(row.decisions), pinIds: ids(row.pins) };
 }
 
 /**
@@ -71,7 +83,7 @@ export async function insertRevision(workspaceId: string, benchmarkId: string, r
         fingerprint: record.fingerprint,
         status: 'ready',
         statistics: record.snapshot,
-        rowIds: record.rowIds,
+        rowSet: packRowSet(record.rows),
         cause: record.cause,
         completedAt: new Date(),
       })
@@ -254,8 +266,21 @@ export async function listRevisionPage(workspaceId: string, benchmarkId: string,
   return { rows: rows.map((r) => ({ ...r, cause: (r.cause as RevisionCause | null) ?? null })), total: Number(total) };
 }
 
+/** Whether a sorted list holds a value (binary search). */
+function sortedHas(sorted: readonly number[], value: number): boolean {
+  let lo = 0;
+  let hi = sorted.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid] === value) return true;
+    if (sorted[mid] < value) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return false;
+}
+
 /**
- * How many rows of an import a revision was computed from (its stored row ids), and how many rows the import
+ * How many rows of an import a revision was computed from (its stored row set), and how many rows the import
  * holds: what tells a workflow that a revision includes its import. Null when the import is not this workspace's.
  */
 export async function importRowsInRevision(workspaceId: string, importId: string, revisionId: string | null) {
@@ -265,15 +290,16 @@ export async function importRowsInRevision(workspaceId: string, importId: string
     .where(and(eq(importBatch.workspaceId, workspaceId), eq(importBatch.id, importId)));
   if (!batch) return null;
   if (!revisionId) return { ...batch, inRevision: 0 };
-  const { rows } = await getClient().execute({
-    sql: `SELECT
-            (SELECT count(*) FROM calculation c WHERE c.workspace_id = ?1 AND c.import_id = ?2
-               AND c.id IN (SELECT value FROM json_each((SELECT row_ids FROM revision WHERE id = ?3 AND workspace_id = ?1), '$.calculations')))
-          + (SELECT count(*) FROM measurement m WHERE m.workspace_id = ?1 AND m.import_id = ?2
-               AND m.id IN (SELECT value FROM json_each((SELECT row_ids FROM revision WHERE id = ?3 AND workspace_id = ?1), '$.measurements'))) AS n`,
-    args: [workspaceId, importId, revisionId],
+  const rows = await revisionRowSet(workspaceId, revisionId);
+  if (!rows) return { ...batch, inRevision: 0 };
+  const { rows: seqs } = await getClient().execute({
+    sql: `SELECT 'm', seq FROM measurement WHERE workspace_id = ?1 AND import_id = ?2
+          UNION ALL SELECT 'c', seq FROM calculation WHERE workspace_id = ?1 AND import_id = ?2`,
+    args: [workspaceId, importId],
   });
-  return { ...batch, inRevision: Number(rows[0]?.n ?? 0) };
+  let inRevision = 0;
+  for (const r of seqs) if (sortedHas(r[0] === 'm' ? rows.measurements : rows.calculations, Number(r[1]))) inRevision++;
+  return { ...batch, inRevision };
 }
 
 /** A page of the flags a revision raised (outliers and quality checks), optionally of one method or kind. */

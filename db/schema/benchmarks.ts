@@ -1,4 +1,4 @@
-import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { blob, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { organization, user } from './auth';
 import { method } from './catalog';
 import { calculation, measurement } from './values';
@@ -44,7 +44,10 @@ export const revision = sqliteTable(
     fingerprint: text().notNull(),
     status: text({ enum: ['computing', 'ready', 'failed'] }).notNull().default('computing'),
     statistics: text({ mode: 'json' }).$type<unknown>(),
+    /** Revisions stored before row sets: the row ids as JSON (db/revision-backfill.ts converts them). */
     rowIds: text({ mode: 'json' }).$type<{ measurements: string[]; calculations: string[] }>(),
+    /** The rows used, as their sequence numbers: lib/benchmark/row-set.ts encoding, deflated (db/queries/revisions.ts). */
+    rowSet: blob({ mode: 'buffer' }),
     cause: text({ mode: 'json' }).$type<unknown>(),
     createdAt: createdAt(),
     completedAt: timestamp(),

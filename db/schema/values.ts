@@ -67,6 +67,12 @@ const valueColumns = () => ({
   notes: text(),
   /** Hash of the identifying fields, to report rows identical to existing ones. */
   rowHash: text().notNull(),
+  /**
+   * Stable sequence number, unique in the table and never reused: what a revision's row set lists
+   * (lib/benchmark/row-set.ts). Imports assign it; the insert trigger of migration 0009 fills it for any
+   * other insert (max + 1). Not the rowid, which VACUUM INTO (the backups) may renumber.
+   */
+  seq: integer(),
   contributorId: text().references(() => user.id),
   createdAt: createdAt(),
   ...retraction(),
@@ -85,6 +91,7 @@ export const measurement = sqliteTable(
     index('measurement_hash_idx').on(t.workspaceId, t.rowHash),
     index('measurement_import_idx').on(t.importId),
     index('measurement_source_idx').on(t.workspaceId, t.sourceId),
+    uniqueIndex('measurement_seq_uq').on(t.seq),
   ],
 );
 
@@ -103,6 +110,7 @@ export const calculation = sqliteTable(
     index('calculation_import_idx').on(t.importId),
     index('calculation_material_idx').on(t.workspaceId, t.materialId, t.quantity),
     index('calculation_source_idx').on(t.workspaceId, t.sourceId),
+    uniqueIndex('calculation_seq_uq').on(t.seq),
   ],
 );
 

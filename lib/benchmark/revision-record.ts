@@ -5,6 +5,7 @@
  * loads the inputs and stores the result.
  */
 import type { BenchmarkSnapshot } from './types';
+import type { RowSet } from './row-set';
 
 /** What made a recomputation run (accumulated by the queue while it waits). */
 export interface RecomputeCause {
@@ -25,11 +26,10 @@ export interface RevisionCause {
   pins: { added: string[]; revoked: string[] };
 }
 
-export type RowIds = { measurements: string[]; calculations: string[] };
-
 /** The previous revision's inputs, as far as the next cause needs them. */
 export interface RevisionBaseline {
-  rowIds: RowIds | null;
+  /** Sequence numbers of its rows; null for a revision stored without them. */
+  rows: RowSet | null;
   decisionIds: string[];
   pinIds: string[];
 }
@@ -46,17 +46,20 @@ export interface RevisionFlag {
 export interface RevisionRecord {
   fingerprint: string;
   snapshot: BenchmarkSnapshot;
-  rowIds: RowIds;
+  /** Sequence numbers (seq) of exactly the rows used, sorted. */
+  rows: RowSet;
   cause: RevisionCause;
   flags: RevisionFlag[];
 }
 
 interface InputRow {
   id: string;
+  /** The row's stable sequence number; every row read from the database has one. */
+  seq?: number;
   importId: string | null;
 }
 
-function setDiff(now: readonly string[], before: readonly string[]): { added: string[]; removed: string[] } {
+function setDiff<T>(now: readonly T[], before: readonly T[]): { added: T[]; removed: T[] } {
   const a = new Set(now);
   const b = new Set(before);
   return { added: now.filter((x) => !b.has(x)), removed: before.filter((x) => !a.has(x)) };
@@ -71,17 +74,16 @@ export function revisionRecord(input: {
   baseline: RevisionBaseline | null;
 }): RevisionRecord {
   const { snapshot, baseline } = input;
-  const rowIds: RowIds = {
-    measurements: input.measurements.map((m) => m.id).sort(),
-    calculations: input.calculations.map((c) => c.id).sort(),
-  };
-  const m = setDiff(rowIds.measurements, baseline?.rowIds?.measurements ?? []);
-  const c = setDiff(rowIds.calculations, baseline?.rowIds?.calculations ?? []);
-  const addedIds = new Set([...m.added, ...c.added]);
+  const rows: RowSet = { measurements: seqsOf(input.measurements), calculations: seqsOf(input.calculations) };
+  const m = setDiff(rows.measurements, baseline?.rows?.measurements ?? []);
+  const c = setDiff(rows.calculations, baseline?.rows?.calculations ?? []);
+  const added = { measurements: new Set(m.added), calculations: new Set(c.added) };
   const importRows = new Map<string, number>();
-  for (const row of [...input.measurements, ...input.calculations]) {
-    if (row.importId && addedIds.has(row.id)) importRows.set(row.importId, (importRows.get(row.importId) ?? 0) + 1);
-  }
+  const count = (list: readonly InputRow[], addedSeqs: Set<number>) => {
+    for (const row of list) if (row.importId && addedSeqs.has(row.seq!)) importRows.set(row.importId, (importRows.get(row.importId) ?? 0) + 1);
+  };
+  count(input.measurements, added.measurements);
+  count(input.calculations, added.calculations);
   const d = setDiff(
     snapshot.decisions.map((x) => x.id),
     baseline?.decisionIds ?? [],
@@ -117,5 +119,14 @@ export function revisionRecord(input: {
       details: { severity: q.severity, message: q.message, materialId: q.materialId },
     })),
   ];
-  return { fingerprint: input.fingerprint, snapshot, rowIds, cause, flags };
+  return { fingerprint: input.fingerprint, snapshot, rows, cause, flags };
+}
+
+function seqsOf(list: readonly InputRow[]): number[] {
+  return list
+    .map((row) => {
+      if (row.seq === undefined) throw new Error(`row ${row.id} has no sequence number`);
+      return row.seq;
+    })
+    .sort((a, b) => a - b);
 }

@@ -8,6 +8,8 @@ import type { ErrorStatistics, QualityThresholds, WilcoxonResult } from '@/lib/s
 
 export interface ScopeMeasurement {
   id: string;
+  /** The row's stable sequence number (what a revision's row set lists); absent in hand-built inputs. */
+  seq?: number;
   materialId: string;
   sourceId: string;
   importId: string | null;
@@ -21,6 +23,7 @@ export interface ScopeMeasurement {
 
 export interface ScopeCalculation {
   id: string;
+  seq?: number;
   materialId: string;
   methodId: string;
   sourceId: string;

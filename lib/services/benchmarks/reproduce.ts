@@ -1,0 +1,50 @@
+import 'server-only';
+/**
+ * Reproducing a stored revision from its row set: the rows it lists (retracted
+ * since or not), with the rules, decisions and pins its snapshot recorded, are
+ * computed again and fingerprinted. Its materials are those of its measurements (as
+ * the scope had them); their fields, the scope, the methods and the quality thresholds are today's: when one of them changed since, the fingerprint
+ * differs and `matches` says so.
+ */
+import { loadBenchmarkInput, requireBenchmark, rowsOfRowSet } from '@/db/queries/benchmarks';
+import { requireRevision, revisionRowSet } from '@/db/queries/revisions';
+import { computeBenchmark } from '@/lib/benchmark/compute';
+import { benchmarkFingerprint } from '@/lib/benchmark/fingerprint';
+import type { RowSet } from '@/lib/benchmark/row-set';
+import { AppError } from '@/lib/errors';
+
+export async function reproduceRevision(workspaceId: string, benchmarkId: string, number: number) {
+  const bm = await requireBenchmark(workspaceId, benchmarkId);
+  const revision = await requireRevision(workspaceId, benchmarkId, number);
+  const rows = await revisionRowSet(workspaceId, revision.id);
+  if (!rows) throw new AppError('conflict', `Revision ${number} was stored without its row set and cannot be reproduced.`);
+  const stored = await rowsOfRowSet(workspaceId, rows);
+  const today = await loadBenchmarkInput(workspaceId, bm, { materialIds: [...new Set(stored.measurements.map((m) => m.materialId))] });
+  const input = {
+    ...today,
+    ...stored,
+    rules: revision.statistics.rules,
+    decisions: revision.statistics.decisions,
+    pins: revision.statistics.pins,
+  };
+  const fingerprint = benchmarkFingerprint(input, bm.scope);
+  return { revision, rows, fingerprint, matches: fingerprint === revision.fingerprint, snapshot: computeBenchmark(input) };
+}
+
+/** The rows that entered and left between two revisions of a benchmark (by sequence number). */
+export async function diffRevisionRows(workspaceId: string, benchmarkId: string, from: number, to: number) {
+  const sets = await Promise.all(
+    [from, to].map(async (n) => {
+      const r = await requireRevision(workspaceId, benchmarkId, n);
+      const set = await revisionRowSet(workspaceId, r.id);
+      if (!set) throw new AppError('conflict', `Revision ${n} was stored without its row set.`);
+      return set;
+    }),
+  );
+  const diff = (key: keyof RowSet) => {
+    const before = new Set(sets[0][key]);
+    const after = new Set(sets[1][key]);
+    return { added: sets[1][key].filter((s) => !before.has(s)), removed: sets[0][key].filter((s) => !after.has(s)) };
+  };
+  return { measurements: diff('measurements'), calculations: diff('calculations') };
+}
