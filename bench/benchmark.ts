@@ -6,7 +6,7 @@
  * with 1,000 bootstrap resamples, outliers, comparisons, quality checks, store
  * the revision and its flags) next to a floor measured in the same run: reading
  * the same rows (same columns) with one raw SELECT through @libsql/client.
- * Target: recomputation ≤ 3 × floor. Then the latency of the benchmark page's
+ * Target: recomputation ≤ 1.5 × floor (the scale issue's; ≤ 3 × before it). Then the latency of the benchmark page's
  * JSON endpoints over 200 sequential requests, measured on the query +
  * serialisation functions the route handlers call (the session check is left
  * out: it needs Next's request context). Last, the bytes the latest revision
@@ -199,7 +199,7 @@ console.log(`pairs                         ${pairs.toLocaleString('en')}`);
 console.log(`floor (raw SELECT)            ${floor.toFixed(0)} ms (median of 3)`);
 console.log(`full recomputation            ${recomputeMs.toFixed(0)} ms (median of 3; runs ${recompute.map((r) => r.toFixed(0)).join(', ')} ms)`);
 console.log(`  of which: read ${loadMs.toFixed(0)} ms, compute ${computeMs.toFixed(0)} ms (separate run), the rest fingerprint + store`);
-console.log(`ratio                         ${(recomputeMs / floor).toFixed(2)} × floor (target ≤ 3 ×) ${recomputeMs / floor <= 3 ? 'PASS' : 'MISS'}`);
+console.log(`ratio                         ${(recomputeMs / floor).toFixed(2)} × floor (target ≤ 1.5 ×) ${recomputeMs / floor <= 1.5 ? 'PASS' : 'MISS'}`);
 
 // Revision size: the row set as stored, next to the JSON list of row ids revisions stored before it (same rows).
 const sizes = await client.execute({

@@ -21,7 +21,7 @@ const CHILD_ENV = {
   JOB_POLL_MS: '100',
   JOB_LEASE_MS: '2000',
   RECOMPUTE_DEBOUNCE_MS: '200',
-  ALERT_DEBOUNCE_MS: '3000',
+  ALERT_DEBOUNCE_MS: '5000',
   MAIL_WORKER_INTERVAL_MS: '0',
 };
 
@@ -37,7 +37,7 @@ afterAll(() => children.forEach((c) => c.process.exitCode === null && c.process.
 
 function child(mode: string, config: Record<string, unknown>): Child {
   const proc = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'tests/support/job-process.ts', mode, JSON.stringify(config)], {
-    stdio: ['ignore', 'pipe', 'inherit'],
+    stdio: ['pipe', 'pipe', 'inherit'],
     env: { ...process.env, ...CHILD_ENV },
   });
   const events: Array<Record<string, unknown>> = [];
@@ -107,6 +107,10 @@ describe('durable jobs across app processes', () => {
     const base = { workspaceId: s.workspaceId, userId: s.ws.members.contributor.id, gapMs: 150 };
     const a = child('import', { ...base, files: files(modes.filter((i) => i % 2)) });
     const b = child('import', { ...base, files: files(modes.filter((i) => i % 2 === 0)) });
+    // Both start importing at once (process start-up takes seconds and varies under load).
+    await Promise.all([a.next('ready'), b.next('ready')]);
+    a.process.stdin!.write('go\n');
+    b.process.stdin!.write('go\n');
     const [doneA, doneB] = await Promise.all([a.next('done'), b.next('done')]);
     expect([await a.exited, await b.exited]).toEqual([0, 0]);
     expect(doneA.owner).not.toBe(doneB.owner);

@@ -1,7 +1,8 @@
 // A second (third) app process on a shared SQLite file, for tests/integration/jobs-two-processes.test.ts.
 // It runs the real job runner with the real handlers, like a server process does.
 // argv[2] is the mode, argv[3] a JSON config:
-//   import {workspaceId, userId, files: [{name, csv}], gapMs}  imports each CSV in turn (gapMs apart), then waits until
+//   import {workspaceId, userId, files: [{name, csv}], gapMs}  says ready, waits for a line on stdin, imports each CSV in
+//                                                             turn (gapMs apart), then waits until
 //                                                             no recomputation or announcement is left and exits;
 //   hang   {}                                                 claims recomputations with a handler that never ends
 //                                                             (a process that dies mid-recompute: the test kills it);
@@ -30,6 +31,9 @@ const kinds = ['recompute', 'announce'];
 if (mode === 'import') {
   const { importCsvFile } = await import('@/lib/services/imports/csv-import');
   startJobRunner();
+  // Start together with the other importers: wait for a line on stdin.
+  say({ event: 'ready' });
+  await new Promise<void>((resolve) => process.stdin.once('data', () => resolve()));
   const imported: string[] = [];
   for (const file of config.files as Array<{ name: string; csv: string }>) {
     const outcome = await importCsvFile({
