@@ -58,7 +58,7 @@ async function seed() {
   });
   await client.execute({ sql: "insert into source (id, workspace_id, cite_key, kind, title) values ('src', ?, 'bench-lab', 'journal-article', 'Invented measurements')", args: [workspaceId] });
   await client.execute({ sql: "insert into source (id, workspace_id, cite_key, kind, title) values ('src-calc', ?, 'bench-runs', 'computed-data-set', 'Invented runs')", args: [workspaceId] });
-  for (let k = 0; k < METHODS; k++) await client.execute({ sql: 'insert into method (id, workspace_id, label) values (?, ?, ?)', args: [`method-${k}`, workspaceId, `Recipe-${k}`] });
+  for (let k = 0; k < METHODS; k++) await client.execute({ sql: "insert into method (id, workspace_id, label, functional) values (?, ?, ?, 'PBEsol')", args: [`method-${k}`, workspaceId, `Recipe-${k}`] });
   const tx = await client.transaction('write');
   for (let m = 0; m < MATERIALS; m++) {
     await tx.execute({
@@ -190,7 +190,7 @@ try {
   await work;
 
   const row = (label: string, s: ReturnType<typeof stats>) =>
-    `${label.padEnd(36)}p50 ${s.p50.toFixed(0).padStart(5)} ms   p99 ${s.p99.toFixed(0).padStart(6)} ms   max ${s.max.toFixed(0).padStart(6)} ms   (${s.n} probes)`;
+    `${label.padEnd(42)}p50 ${s.p50.toFixed(0).padStart(5)} ms   p99 ${s.p99.toFixed(0).padStart(6)} ms   max ${s.max.toFixed(0).padStart(6)} ms   (${s.n} probes)`;
   console.log('');
   console.log(`import (POST, until 201)             ${(importMs / 1000).toFixed(1)} s`);
   console.log(`recomputation (201 → revision stored) ${(recomputeMs / 1000).toFixed(1)} s`);

@@ -45,6 +45,10 @@ const schema = dbEnvSchema.extend({
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
   /** Set by scripts/server.mjs per process; read live (envValue), since tests set it after start-up. */
   LEDGER_PEER_KEY: z.string().min(1).optional(),
+  /** Read by scripts/server.mjs: 'process' runs the jobs in a worker process (default in production), 'inline' in the server (default under --dev). */
+  JOB_WORKER: z.enum(['', 'process', 'inline']).default(''),
+  /** Set by scripts/server.mjs in the web process when a job worker runs the jobs: the web process then claims none. */
+  LEDGER_JOBS_ELSEWHERE: z.enum(['', '1']).default(''),
   TRUSTED_PROXIES: z.string().default(''),
   API_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(60),
   API_RATE_LIMIT_MAX: z.coerce.number().int().positive().default(600),

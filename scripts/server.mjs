@@ -4,6 +4,7 @@
 //    client sent, together with a per-process key the client cannot know (lib/client-address.ts checks it), so
 //    rate limits and the loopback-only mailbox rest on the socket, not on headers a client can forge.
 // Usage: node scripts/server.mjs [--dev]   (PORT, HOST from the environment)
+import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { createServer } from 'node:http';
 import { fileURLToPath } from 'node:url';
@@ -25,9 +26,44 @@ export function stampPeer(req, key) {
   h[PEER_HEADER] = `${key} ${req.socket.remoteAddress ?? '-'} ${forwarded ? 'forwarded' : 'direct'}`;
 }
 
+/** Where the durable jobs run: a worker process beside the production server, in the server itself under --dev (hot reload). */
+export function jobWorkerMode(dev, env = process.env) {
+  const asked = (env.JOB_WORKER ?? '').trim();
+  if (asked === 'process' || asked === 'inline') return asked;
+  return dev ? 'inline' : 'process';
+}
+
+/**
+ * Starts scripts/job-worker.ts and restarts it (after 1 s) when it dies; stopped with the server.
+ * The server process then claims no jobs itself (LEDGER_JOBS_ELSEWHERE, read by lib/services/jobs/runner.ts).
+ */
+function startJobWorker() {
+  let stopping = false;
+  let child;
+  const launch = () => {
+    child = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/job-worker.ts'], { stdio: ['inherit', 'inherit', 'inherit', 'ipc'], env: { ...process.env, LEDGER_JOBS_ELSEWHERE: '' } });
+    child.on('exit', (code, signal) => {
+      if (stopping) return;
+      console.error(`The job worker stopped (${signal ?? `exit ${code}`}); starting another in 1 s.`);
+      setTimeout(launch, 1000).unref();
+    });
+  };
+  launch();
+  const stop = () => {
+    stopping = true;
+    child?.kill('SIGTERM');
+  };
+  process.once('exit', stop);
+  for (const signal of ['SIGTERM', 'SIGINT']) process.once(signal, () => (stop(), process.exit(0)));
+}
+
 export async function startServer({ dev = false, port = Number(process.env.PORT || 3000), host = listenHost() } = {}) {
   // Set before Next loads, so the route handlers (same process) read the same key.
   process.env.LEDGER_PEER_KEY ||= randomBytes(24).toString('hex');
+  if (jobWorkerMode(dev) === 'process') {
+    process.env.LEDGER_JOBS_ELSEWHERE = '1';
+    startJobWorker();
+  }
   const key = process.env.LEDGER_PEER_KEY;
   const { default: next } = await import('next');
   // Turbopack in development, as `next dev` uses by default.

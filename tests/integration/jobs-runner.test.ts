@@ -81,6 +81,20 @@ describe('durable jobs', () => {
     await db.delete(job).where(and(eq(job.kind, 'test-poison'), eq(job.key, 'bad')));
   });
 
+  it('a web process whose jobs run in the job worker (LEDGER_JOBS_ELSEWHERE=1) claims none', async () => {
+    process.env.LEDGER_JOBS_ELSEWHERE = '1';
+    try {
+      await queueJob({ kind: 'test-record', key: 'elsewhere', item: 'x', runAfter: soon() });
+      await new Promise((r) => setTimeout(r, 300));
+      expect(runs.elsewhere).toBeUndefined();
+      expect(await findJob('test-record', 'elsewhere')).toMatchObject({ status: 'queued', leaseOwner: null });
+    } finally {
+      process.env.LEDGER_JOBS_ELSEWHERE = '';
+    }
+    await whenJobsIdle({ kinds: ['test-record'], key: 'elsewhere' });
+    expect(runs.elsewhere).toEqual([['x']]);
+  });
+
   it('backs off exponentially from JOB_RETRY_BASE_MS, capped at 10 minutes', () => {
     expect([1, 2, 3, 4].map((a) => retryDelayMs(a, 5000))).toEqual([5000, 10_000, 20_000, 40_000]);
     expect(retryDelayMs(30, 5000)).toBe(600_000);

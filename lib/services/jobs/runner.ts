@@ -3,7 +3,9 @@ import 'server-only';
  * The job runner of this process (db/schema/jobs.ts holds the rules of a row).
  *
  * Modules register a handler per kind at load; a process claims only kinds it
- * has a handler for. Work is found two ways: a local timer set when this
+ * has a handler for. The production server leaves them all to its job worker
+ * (scripts/job-worker.ts, started by scripts/server.mjs; LEDGER_JOBS_ELSEWHERE=1
+ * in the web process), so heavy runs never hold up a request. Work is found two ways: a local timer set when this
  * process queues a job (so one process reacts at once), and a poll every
  * JOB_POLL_MS that finds jobs queued by other processes and expired leases.
  * At most RUN_SLOTS jobs run at a time here. While a handler runs, its lease is
@@ -88,9 +90,14 @@ async function runClaimed(claimed: ClaimedJob): Promise<void> {
   }
 }
 
+/** scripts/server.mjs runs the jobs in a worker process of their own and tells the web server so. */
+function jobsRunElsewhere(): boolean {
+  return process.env.LEDGER_JOBS_ELSEWHERE === '1';
+}
+
 /** Claims and runs due jobs until none is left or every slot is busy; never throws. */
 async function pump(): Promise<void> {
-  if (state.stopped || state.active >= RUN_SLOTS) return;
+  if (state.stopped || jobsRunElsewhere() || state.active >= RUN_SLOTS) return;
   state.active++;
   try {
     for (;;) {

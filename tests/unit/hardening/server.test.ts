@@ -1,7 +1,7 @@
 import { createServer, request as httpRequest, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { listenHost, PEER_HEADER, stampPeer } from '../../../scripts/server.mjs';
+import { jobWorkerMode, listenHost, PEER_HEADER, stampPeer } from '../../../scripts/server.mjs';
 import { mailboxEnabled, startupWarnings } from '@/lib/env';
 
 describe('the server every script starts (scripts/server.mjs)', () => {
@@ -9,6 +9,14 @@ describe('the server every script starts (scripts/server.mjs)', () => {
     expect(listenHost({})).toBe('127.0.0.1');
     expect(listenHost({ HOST: '' })).toBe('127.0.0.1');
     expect(listenHost({ HOST: '0.0.0.0' })).toBe('0.0.0.0');
+  });
+
+  it('runs the jobs in a worker process in production and in the server under --dev, unless JOB_WORKER says otherwise', () => {
+    expect(jobWorkerMode(false, {})).toBe('process');
+    expect(jobWorkerMode(true, {})).toBe('inline');
+    expect(jobWorkerMode(false, { JOB_WORKER: 'inline' })).toBe('inline');
+    expect(jobWorkerMode(true, { JOB_WORKER: 'process' })).toBe('process');
+    expect(jobWorkerMode(false, { JOB_WORKER: 'bogus' })).toBe('process');
   });
 
   describe('stamps the TCP peer over whatever the client sent', () => {

@@ -1,0 +1,23 @@
+// The job worker: a process of its own that runs the durable jobs (benchmark recomputations, alert
+// announcements, the digest pass; lib/services/jobs/runner.ts) so that their heavy reads and computations never
+// hold up the web server's event loop. scripts/server.mjs starts one beside the production server and restarts it
+// if it dies; a job it was running when it died is taken over once its lease expires.
+import { env } from '@/lib/env';
+
+env();
+await import('@/lib/services/benchmarks/recompute-queue');
+const { startDigestTimer } = await import('@/lib/services/alerts/scheduler');
+await startDigestTimer();
+console.log('Job worker running (recomputations, alerts, digests).');
+// The runner's timers do not keep a process alive on their own.
+const keepAlive = setInterval(() => undefined, 1 << 30);
+const { stopJobRunner } = await import('@/lib/services/jobs/runner');
+// Started by scripts/server.mjs with an IPC channel: when the server goes, however it went, so does the worker.
+if (process.send) process.on('disconnect', () => process.exit(0));
+for (const signal of ['SIGTERM', 'SIGINT'] as const) {
+  process.once(signal, () => {
+    stopJobRunner();
+    clearInterval(keepAlive);
+    process.exit(0);
+  });
+}
