@@ -6,7 +6,8 @@ import { shortCitation } from '@/lib/citations/short-citation';
 import { AppError } from '@/lib/errors';
 import type { RevisionBaseline, RevisionCause, RevisionRecord } from '@/lib/benchmark/revision-record';
 import type { RowSet } from '@/lib/benchmark/row-set';
-import { packRowSet, unpackRowSet } from '@/db/row-set-bytes';
+import { packRowSet, unpackRowSet, unpackRowSetRuns } from '@/db/row-set-bytes';
+import { overlapCount, runsHave } from '@/lib/benchmark/row-set';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 
 export interface RevisionHead {
@@ -266,22 +267,11 @@ export async function listRevisionPage(workspaceId: string, benchmarkId: string,
   return { rows: rows.map((r) => ({ ...r, cause: (r.cause as RevisionCause | null) ?? null })), total: Number(total) };
 }
 
-/** Whether a sorted list holds a value (binary search). */
-function sortedHas(sorted: readonly number[], value: number): boolean {
-  let lo = 0;
-  let hi = sorted.length - 1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    if (sorted[mid] === value) return true;
-    if (sorted[mid] < value) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return false;
-}
-
 /**
  * How many rows of an import a revision was computed from (its stored row set), and how many rows the import
  * holds: what tells a workflow that a revision includes its import. Null when the import is not this workspace's.
+ * An import's rows hold one run of sequence numbers, so this counts the overlap of that run with the set's runs
+ * (a few comparisons, however many rows) instead of looking up every row.
  */
 export async function importRowsInRevision(workspaceId: string, importId: string, revisionId: string | null) {
   const [batch] = await db
@@ -290,15 +280,28 @@ export async function importRowsInRevision(workspaceId: string, importId: string
     .where(and(eq(importBatch.workspaceId, workspaceId), eq(importBatch.id, importId)));
   if (!batch) return null;
   if (!revisionId) return { ...batch, inRevision: 0 };
-  const rows = await revisionRowSet(workspaceId, revisionId);
-  if (!rows) return { ...batch, inRevision: 0 };
-  const { rows: seqs } = await getClient().execute({
-    sql: `SELECT 'm', seq FROM measurement WHERE workspace_id = ?1 AND import_id = ?2
-          UNION ALL SELECT 'c', seq FROM calculation WHERE workspace_id = ?1 AND import_id = ?2`,
-    args: [workspaceId, importId],
-  });
+  const [stored] = await db
+    .select({ rowSet: revision.rowSet })
+    .from(revision)
+    .where(and(eq(revision.workspaceId, workspaceId), eq(revision.id, revisionId)));
+  if (!stored?.rowSet) return { ...batch, inRevision: 0 };
+  const runs = unpackRowSetRuns(stored.rowSet);
   let inRevision = 0;
-  for (const r of seqs) if (sortedHas(r[0] === 'm' ? rows.measurements : rows.calculations, Number(r[1]))) inRevision++;
+  for (const [table, tableRuns] of [['measurement', runs.measurements], ['calculation', runs.calculations]] as const) {
+    const { rows } = await getClient().execute({
+      sql: `SELECT min(seq), max(seq), count(*) FROM ${table} WHERE workspace_id = ? AND import_id = ?`,
+      args: [workspaceId, importId],
+    });
+    const [first, last, count] = [Number(rows[0][0]), Number(rows[0][1]), Number(rows[0][2])];
+    if (count === 0) continue;
+    if (last - first + 1 === count) {
+      inRevision += overlapCount(tableRuns, first, last);
+      continue;
+    }
+    // Not one run (rows written another way): check each row.
+    const all = await getClient().execute({ sql: `SELECT seq FROM ${table} WHERE workspace_id = ? AND import_id = ?`, args: [workspaceId, importId] });
+    for (const r of all.rows) if (runsHave(tableRuns, Number(r[0]))) inRevision++;
+  }
   return { ...batch, inRevision };
 }
 

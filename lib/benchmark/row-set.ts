@@ -89,18 +89,59 @@ function writeRuns(w: Writer, seqs: readonly number[]): void {
   }
 }
 
-function readRuns(r: Reader): number[] {
+function readRuns(r: Reader): Array<[number, number]> {
   const count = r.varint();
-  const out: number[] = [];
+  const out: Array<[number, number]> = [];
   let end = 0;
   for (let i = 0; i < count; i++) {
     const first = end + r.varint();
     const length = r.varint();
     if (length === 0) throw new RangeError('row set: empty run');
-    for (let s = first; s < first + length; s++) out.push(s);
+    out.push([first, first + length - 1]);
     end = first + length;
   }
   return out;
+}
+
+function expand(runs: Array<[number, number]>): number[] {
+  const out: number[] = [];
+  for (const [first, last] of runs) for (let s = first; s <= last; s++) out.push(s);
+  return out;
+}
+
+/** The runs [first, last] of an encoded set, without listing every number: for counting overlaps. */
+export function decodeRowSetRuns(bytes: Uint8Array): { measurements: Array<[number, number]>; calculations: Array<[number, number]> } {
+  const r = new Reader(bytes);
+  const format = r.byte();
+  if (format !== ROW_SET_FORMAT) throw new RangeError(`row set: unknown format ${format}`);
+  const measurements = readRuns(r);
+  const calculations = readRuns(r);
+  r.end();
+  return { measurements, calculations };
+}
+
+/** Whether sorted runs hold a number (binary search). */
+export function runsHave(runs: ReadonlyArray<readonly [number, number]>, seq: number): boolean {
+  let lo = 0;
+  let hi = runs.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (seq < runs[mid][0]) hi = mid - 1;
+    else if (seq > runs[mid][1]) lo = mid + 1;
+    else return true;
+  }
+  return false;
+}
+
+/** How many numbers of the range [first, last] the runs hold. */
+export function overlapCount(runs: ReadonlyArray<readonly [number, number]>, first: number, last: number): number {
+  let n = 0;
+  for (const [a, b] of runs) {
+    const lo = Math.max(a, first);
+    const hi = Math.min(b, last);
+    if (hi >= lo) n += hi - lo + 1;
+  }
+  return n;
 }
 
 export function encodeRowSet(set: RowSet): Uint8Array {
@@ -113,11 +154,6 @@ export function encodeRowSet(set: RowSet): Uint8Array {
 
 /** The sorted sequence numbers of an encoded set; throws on bytes that are not one. */
 export function decodeRowSet(bytes: Uint8Array): RowSet {
-  const r = new Reader(bytes);
-  const format = r.byte();
-  if (format !== ROW_SET_FORMAT) throw new RangeError(`row set: unknown format ${format}`);
-  const measurements = readRuns(r);
-  const calculations = readRuns(r);
-  r.end();
-  return { measurements, calculations };
+  const runs = decodeRowSetRuns(bytes);
+  return { measurements: expand(runs.measurements), calculations: expand(runs.calculations) };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { decodeRowSet, encodeRowSet, runsOf } from '@/lib/benchmark/row-set';
+import { decodeRowSet, decodeRowSetRuns, encodeRowSet, overlapCount, runsHave, runsOf } from '@/lib/benchmark/row-set';
 
 // The compact row set of a revision (lib/benchmark/row-set.ts): runs of consecutive sequence numbers as varints.
 describe('row sets', () => {
@@ -27,6 +27,18 @@ describe('row sets', () => {
 
   it('worked case: {3,4,5,9} and {} encode as format 1, two runs (gap 3 length 3, gap 3 length 1), zero runs', () => {
     expect([...encodeRowSet({ measurements: [9, 3, 5, 4, 4], calculations: [] })]).toEqual([1, 2, 3, 3, 3, 1, 0]);
+  });
+
+  it('counts the overlap of a range with the runs, and finds members, without listing the numbers (fast-check against a plain loop)', () => {
+    const seqs = fc.uniqueArray(fc.integer({ min: 1, max: 500 }), { maxLength: 200 });
+    fc.assert(
+      fc.property(seqs, fc.integer({ min: 1, max: 500 }), fc.integer({ min: 0, max: 100 }), (set, first, width) => {
+        const runs = decodeRowSetRuns(encodeRowSet({ measurements: set, calculations: [] })).measurements;
+        const last = first + width;
+        expect(overlapCount(runs, first, last)).toBe(set.filter((s) => s >= first && s <= last).length);
+        for (const probe of [first, last, first + 1]) expect(runsHave(runs, probe)).toBe(set.includes(probe));
+      }),
+    );
   });
 
   it('refuses bytes that are not a row set, saying why', () => {
