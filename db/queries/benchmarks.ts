@@ -28,6 +28,7 @@ import {
   type ResolvedAlertThresholds,
 } from '@/lib/benchmark/schemas';
 import type { BenchmarkInput, ScopeDecision } from '@/lib/benchmark/types';
+import { runsOf } from '@/lib/benchmark/row-set';
 import { writeAudit, type Actor } from './audit';
 
 /** A benchmark with its scope, rules and thresholds parsed (defaults filled). */
@@ -258,6 +259,38 @@ function materialsInScope(workspaceId: string, scope: BenchmarkScope) {
  * scope (this workspace, live rows, the scope's quantity, techniques, temperatures,
  * materials and methods): never a whole table.
  */
+/** The columns a computation reads of a measurement, as loadBenchmarkInput and rowsOfRowSet select them. */
+const MEASUREMENT_INPUT = {
+  id: measurement.id,
+  materialId: measurement.materialId,
+  sourceId: measurement.sourceId,
+  importId: measurement.importId,
+  value: measurement.value,
+  uncertainty: measurement.uncertainty,
+  temperatureK: measurement.temperatureK,
+  irrep: measurement.irrep,
+  branch: measurement.branch,
+  technique: measurement.technique,
+  seq: measurement.seq,
+};
+
+/** The columns of a calculation, in the order calculationFromRow reads them from raw rows. */
+const CALCULATION_INPUT = {
+  id: calculation.id,
+  materialId: calculation.materialId,
+  methodId: calculation.methodId,
+  sourceId: calculation.sourceId,
+  importId: calculation.importId,
+  value: calculation.value,
+  uncertainty: calculation.uncertainty,
+  temperatureK: calculation.temperatureK,
+  irrep: calculation.irrep,
+  branch: calculation.branch,
+  activity: calculation.activity,
+  degeneracy: calculation.degeneracy,
+  seq: calculation.seq,
+};
+
 type CalculationRow = BenchmarkInput['calculations'][number];
 
 function calculationFromRow(r: unknown[]): CalculationRow {
@@ -307,39 +340,13 @@ export async function loadBenchmarkInput(
 
   const [measurements, calculations, materials, tags, methods, pins, decisions, settings, dielectricRows] = await Promise.all([
     db
-      .select({
-        id: measurement.id,
-        materialId: measurement.materialId,
-        sourceId: measurement.sourceId,
-        importId: measurement.importId,
-        value: measurement.value,
-        uncertainty: measurement.uncertainty,
-        temperatureK: measurement.temperatureK,
-        irrep: measurement.irrep,
-        branch: measurement.branch,
-        technique: measurement.technique,
-        seq: measurement.seq,
-      })
+      .select(MEASUREMENT_INPUT)
       .from(measurement)
       .where(measurementScope(workspaceId, scope))
       .then((rows) => rows.map((r) => ({ ...r, seq: r.seq! }))),
     // The largest read (every computed mode in scope): raw rows mapped by hand skip Drizzle's per-column decoding.
     db
-      .select({
-        id: calculation.id,
-        materialId: calculation.materialId,
-        methodId: calculation.methodId,
-        sourceId: calculation.sourceId,
-        importId: calculation.importId,
-        value: calculation.value,
-        uncertainty: calculation.uncertainty,
-        temperatureK: calculation.temperatureK,
-        irrep: calculation.irrep,
-        branch: calculation.branch,
-        activity: calculation.activity,
-        degeneracy: calculation.degeneracy,
-        seq: calculation.seq,
-      })
+      .select(CALCULATION_INPUT)
       .from(calculation)
       .where(and(...calculationWhere))
       .values()
@@ -469,56 +476,21 @@ export async function benchmarkFormOptions(workspaceId: string) {
  * number that names no row of it is reported, since the set then cannot be reproduced.
  */
 export async function rowsOfRowSet(workspaceId: string, rows: { measurements: number[]; calculations: number[] }) {
-  const runs = (seqs: number[]) => {
-    const out: Array<[number, number]> = [];
-    for (const s of seqs) {
-      const last = out[out.length - 1];
-      if (last && s === last[1] + 1) last[1] = s;
-      else out.push([s, s]);
-    }
-    return out;
-  };
   const inRuns = (column: typeof measurement.seq | typeof calculation.seq, chunk: Array<[number, number]>) => or(...chunk.map(([a, b]) => (a === b ? eq(column, a) : and(gte(column, a), lte(column, b)))));
   const measurements: BenchmarkInput['measurements'] = [];
   const calculations: BenchmarkInput['calculations'] = [];
-  const mRuns = runs(rows.measurements);
+  const mRuns = runsOf(rows.measurements);
   for (let i = 0; i < mRuns.length; i += 200) {
     const found = await db
-      .select({
-        id: measurement.id,
-        materialId: measurement.materialId,
-        sourceId: measurement.sourceId,
-        importId: measurement.importId,
-        value: measurement.value,
-        uncertainty: measurement.uncertainty,
-        temperatureK: measurement.temperatureK,
-        irrep: measurement.irrep,
-        branch: measurement.branch,
-        technique: measurement.technique,
-        seq: measurement.seq,
-      })
+      .select(MEASUREMENT_INPUT)
       .from(measurement)
       .where(and(eq(measurement.workspaceId, workspaceId), inRuns(measurement.seq, mRuns.slice(i, i + 200))));
     measurements.push(...found.map((r) => ({ ...r, seq: r.seq! })));
   }
-  const cRuns = runs(rows.calculations);
+  const cRuns = runsOf(rows.calculations);
   for (let i = 0; i < cRuns.length; i += 200) {
     const found = await db
-      .select({
-        id: calculation.id,
-        materialId: calculation.materialId,
-        methodId: calculation.methodId,
-        sourceId: calculation.sourceId,
-        importId: calculation.importId,
-        value: calculation.value,
-        uncertainty: calculation.uncertainty,
-        temperatureK: calculation.temperatureK,
-        irrep: calculation.irrep,
-        branch: calculation.branch,
-        activity: calculation.activity,
-        degeneracy: calculation.degeneracy,
-        seq: calculation.seq,
-      })
+      .select(CALCULATION_INPUT)
       .from(calculation)
       .where(and(eq(calculation.workspaceId, workspaceId), inRuns(calculation.seq, cRuns.slice(i, i + 200))))
       .values();

@@ -59,7 +59,8 @@ interface InputRow {
   importId: string | null;
 }
 
-function setDiff<T>(now: readonly T[], before: readonly T[]): { added: T[]; removed: T[] } {
+/** What is in `now` and not in `before`, and the reverse, each in its list's order. */
+export function setDiff<T>(now: readonly T[], before: readonly T[]): { added: T[]; removed: T[] } {
   const a = new Set(now);
   const b = new Set(before);
   return { added: now.filter((x) => !b.has(x)), removed: before.filter((x) => !a.has(x)) };

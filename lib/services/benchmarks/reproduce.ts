@@ -10,7 +10,7 @@ import { loadBenchmarkInput, requireBenchmark, rowsOfRowSet } from '@/db/queries
 import { requireRevision, revisionRowSet } from '@/db/queries/revisions';
 import { computeBenchmark } from '@/lib/benchmark/compute';
 import { benchmarkFingerprint } from '@/lib/benchmark/fingerprint';
-import type { RowSet } from '@/lib/benchmark/row-set';
+import { setDiff } from '@/lib/benchmark/revision-record';
 import { AppError } from '@/lib/errors';
 
 export async function reproduceRevision(workspaceId: string, benchmarkId: string, number: number) {
@@ -41,10 +41,5 @@ export async function diffRevisionRows(workspaceId: string, benchmarkId: string,
       return set;
     }),
   );
-  const diff = (key: keyof RowSet) => {
-    const before = new Set(sets[0][key]);
-    const after = new Set(sets[1][key]);
-    return { added: sets[1][key].filter((s) => !before.has(s)), removed: sets[0][key].filter((s) => !after.has(s)) };
-  };
-  return { measurements: diff('measurements'), calculations: diff('calculations') };
+  return { measurements: setDiff(sets[1].measurements, sets[0].measurements), calculations: setDiff(sets[1].calculations, sets[0].calculations) };
 }
