@@ -311,21 +311,16 @@ function calculationFromRow(r: unknown[]): CalculationRow {
   };
 }
 
-export async function loadBenchmarkInput(
-  workspaceId: string,
-  bm: BenchmarkRecord,
-  /** Reproducing a revision: its materials (those of its measurements) in place of today's scope. */
-  options: { materialIds?: string[] } = {},
-): Promise<BenchmarkInput> {
-  const { scope, rules } = bm;
+/** The conditions a scope puts on its rows; `onlyMaterials` narrows measurements and calculations to those materials. */
+function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { materialIds?: string[]; onlyMaterials?: string[] } = {}) {
+  const { scope } = bm;
   const methodWhere = and(
     eq(method.workspaceId, workspaceId),
     isNull(method.retractedAt),
     scope.methodIds.length ? inArray(method.id, scope.methodIds) : undefined,
   );
   const methodIds = db.select({ id: method.id }).from(method).where(methodWhere);
-  const scopedMaterials = options.materialIds ?? materialsInScope(workspaceId, scope);
-
+  const scopedMaterials = options.onlyMaterials ?? options.materialIds ?? materialsInScope(workspaceId, scope);
   const calculationWhere: Array<SQL | undefined> = [
     eq(calculation.workspaceId, workspaceId),
     isNull(calculation.retractedAt),
@@ -337,20 +332,18 @@ export async function loadBenchmarkInput(
     calculationWhere.push(gte(calculation.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
     calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
   }
+  const measurementWhere = and(measurementScope(workspaceId, scope), options.onlyMaterials ? inArray(measurement.materialId, options.onlyMaterials) : undefined)!;
+  return { methodWhere, methodIds, scopedMaterials, calculationWhere: and(...calculationWhere)!, measurementWhere };
+}
 
-  const [measurements, calculations, materials, tags, methods, pins, decisions, settings, dielectricRows] = await Promise.all([
-    db
-      .select(MEASUREMENT_INPUT)
-      .from(measurement)
-      .where(measurementScope(workspaceId, scope))
-      .then((rows) => rows.map((r) => ({ ...r, seq: r.seq! }))),
-    // The largest read (every computed mode in scope): raw rows mapped by hand skip Drizzle's per-column decoding.
-    db
-      .select(CALCULATION_INPUT)
-      .from(calculation)
-      .where(and(...calculationWhere))
-      .values()
-      .then((rows) => rows.map(calculationFromRow)),
+/** Everything a computation reads besides its measurement and calculation rows. */
+export type BenchmarkContext = Omit<BenchmarkInput, 'measurements' | 'calculations'>;
+
+/** The scope's materials, methods, pins, decisions, quality thresholds and dielectric rows (loadBenchmarkInput without the rows). */
+export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRecord, options: { materialIds?: string[] } = {}): Promise<BenchmarkContext> {
+  const { scope, rules } = bm;
+  const { methodWhere, methodIds, scopedMaterials } = scopeConditions(workspaceId, bm, options);
+  const [materials, tags, methods, pins, decisions, settings, dielectricRows] = await Promise.all([
     db
       .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell, spaceGroup: material.spaceGroup })
       .from(material)
@@ -418,8 +411,6 @@ export async function loadBenchmarkInput(
   return {
     quantity: scope.quantity,
     rules,
-    measurements,
-    calculations,
     materials: materials.map((m) => ({ ...m, tags: (tagsByMaterial.get(m.id) ?? []).sort() })),
     methods,
     pins,
@@ -439,6 +430,118 @@ export async function loadBenchmarkInput(
       bornCharges: born.sort((a, b) => a.index - b.index || (a.id < b.id ? -1 : 1)).map((b) => b.z),
     })),
   };
+}
+
+/** The measurement and calculation rows of a scope, each restricted to it; `onlyMaterials`: only those materials' rows. */
+export async function loadScopeRows(
+  workspaceId: string,
+  bm: BenchmarkRecord,
+  options: { materialIds?: string[]; onlyMaterials?: string[] } = {},
+): Promise<Pick<BenchmarkInput, 'measurements' | 'calculations'>> {
+  const { measurementWhere, calculationWhere } = scopeConditions(workspaceId, bm, options);
+  const [measurements, calculations] = await Promise.all([
+    db
+      .select(MEASUREMENT_INPUT)
+      .from(measurement)
+      .where(measurementWhere)
+      .then((rows) => rows.map((r) => ({ ...r, seq: r.seq! }))),
+    // The largest read (every computed mode in scope): raw rows mapped by hand skip Drizzle's per-column decoding.
+    db
+      .select(CALCULATION_INPUT)
+      .from(calculation)
+      .where(calculationWhere)
+      .values()
+      .then((rows) => rows.map(calculationFromRow)),
+  ]);
+  return { measurements, calculations };
+}
+
+export async function loadBenchmarkInput(
+  workspaceId: string,
+  bm: BenchmarkRecord,
+  /** Reproducing a revision: its materials (those of its measurements) in place of today's scope. */
+  options: { materialIds?: string[] } = {},
+): Promise<BenchmarkInput> {
+  const [context, rows] = await Promise.all([loadBenchmarkContext(workspaceId, bm, options), loadScopeRows(workspaceId, bm, options)]);
+  return { ...context, ...rows };
+}
+
+type Runs = Array<[number, number]>;
+
+/**
+ * The sequence numbers of the rows a scope selects today, as sorted runs, computed in SQLite (consecutive numbers
+ * share `seq − row_number()`), so that telling whether anything changed does not read 200,000 rows into JavaScript.
+ */
+export async function scopeRowRuns(workspaceId: string, bm: BenchmarkRecord): Promise<{ measurements: Runs; calculations: Runs }> {
+  const { measurementWhere, calculationWhere } = scopeConditions(workspaceId, bm);
+  const runsOfQuery = async (seq: typeof measurement.seq | typeof calculation.seq, table: typeof measurement | typeof calculation, where: SQL) => {
+    const rows = await db.values<[number, number]>(
+      sql`select min(s), max(s) from (select ${seq} as s, ${seq} - row_number() over (order by ${seq}) as island from ${table} where ${where}) group by island order by 1`,
+    );
+    return rows.map((r) => [Number(r[0]), Number(r[1])] as [number, number]);
+  };
+  const [measurements, calculations] = await Promise.all([
+    runsOfQuery(measurement.seq, measurement, measurementWhere),
+    runsOfQuery(calculation.seq, calculation, calculationWhere),
+  ]);
+  return { measurements, calculations };
+}
+
+function inRuns(column: typeof measurement.seq | typeof calculation.seq, chunk: ReadonlyArray<readonly [number, number]>) {
+  return or(...chunk.map(([a, b]) => (a === b ? eq(column, a) : and(gte(column, a), lte(column, b)))));
+}
+
+const RUNS_PER_QUERY = 200;
+
+/** The materials of the rows these runs of sequence numbers name (retracted rows included): what a change touched. */
+export async function materialsOfRuns(workspaceId: string, runs: { measurements: Runs; calculations: Runs }): Promise<Set<string>> {
+  const out = new Set<string>();
+  for (const [table, column, list] of [
+    [measurement, measurement.seq, runs.measurements],
+    [calculation, calculation.seq, runs.calculations],
+  ] as const) {
+    for (let i = 0; i < list.length; i += RUNS_PER_QUERY) {
+      const found = await db
+        .selectDistinct({ materialId: table.materialId })
+        .from(table)
+        .where(and(eq(table.workspaceId, workspaceId), inRuns(column, list.slice(i, i + RUNS_PER_QUERY))));
+      for (const f of found) out.add(f.materialId);
+    }
+  }
+  return out;
+}
+
+/** How many rows of each import these runs of sequence numbers hold: the imports of a revision's new rows. */
+export async function importsOfRuns(workspaceId: string, runs: { measurements: Runs; calculations: Runs }): Promise<Array<{ id: string; rows: number }>> {
+  const counts = new Map<string, number>();
+  for (const [table, column, list] of [
+    [measurement, measurement.seq, runs.measurements],
+    [calculation, calculation.seq, runs.calculations],
+  ] as const) {
+    for (let i = 0; i < list.length; i += RUNS_PER_QUERY) {
+      const found = await db
+        .select({ importId: table.importId, rows: sql<number>`count(*)` })
+        .from(table)
+        .where(and(eq(table.workspaceId, workspaceId), isNotNull(table.importId), inRuns(column, list.slice(i, i + RUNS_PER_QUERY))))
+        .groupBy(table.importId);
+      for (const f of found) counts.set(f.importId!, (counts.get(f.importId!) ?? 0) + Number(f.rows));
+    }
+  }
+  return [...counts].map(([id, rows]) => ({ id, rows }));
+}
+
+/** The material of each of these pins' measurements: which material a pin belongs to. */
+export async function pinMaterials(workspaceId: string, pinIds: string[]): Promise<Map<string, string>> {
+  const out = new Map<string, string>();
+  for (let i = 0; i < pinIds.length; i += 500) {
+    const rows = await db
+      .select({ id: pairPin.id, materialId: measurement.materialId })
+      .from(pairPin)
+      .innerJoin(measurement, eq(measurement.id, pairPin.measurementId))
+      .where(and(eq(pairPin.workspaceId, workspaceId), inArray(pairPin.id, pinIds.slice(i, i + 500))));
+    for (const r of rows) out.set(r.id, r.materialId);
+  }
+  return out;
 }
 
 /** Names used to describe a scope in words (empty state, header). */
@@ -476,23 +579,22 @@ export async function benchmarkFormOptions(workspaceId: string) {
  * number that names no row of it is reported, since the set then cannot be reproduced.
  */
 export async function rowsOfRowSet(workspaceId: string, rows: { measurements: number[]; calculations: number[] }) {
-  const inRuns = (column: typeof measurement.seq | typeof calculation.seq, chunk: Array<[number, number]>) => or(...chunk.map(([a, b]) => (a === b ? eq(column, a) : and(gte(column, a), lte(column, b)))));
   const measurements: BenchmarkInput['measurements'] = [];
   const calculations: BenchmarkInput['calculations'] = [];
   const mRuns = runsOf(rows.measurements);
-  for (let i = 0; i < mRuns.length; i += 200) {
+  for (let i = 0; i < mRuns.length; i += RUNS_PER_QUERY) {
     const found = await db
       .select(MEASUREMENT_INPUT)
       .from(measurement)
-      .where(and(eq(measurement.workspaceId, workspaceId), inRuns(measurement.seq, mRuns.slice(i, i + 200))));
+      .where(and(eq(measurement.workspaceId, workspaceId), inRuns(measurement.seq, mRuns.slice(i, i + RUNS_PER_QUERY))));
     measurements.push(...found.map((r) => ({ ...r, seq: r.seq! })));
   }
   const cRuns = runsOf(rows.calculations);
-  for (let i = 0; i < cRuns.length; i += 200) {
+  for (let i = 0; i < cRuns.length; i += RUNS_PER_QUERY) {
     const found = await db
       .select(CALCULATION_INPUT)
       .from(calculation)
-      .where(and(eq(calculation.workspaceId, workspaceId), inRuns(calculation.seq, cRuns.slice(i, i + 200))))
+      .where(and(eq(calculation.workspaceId, workspaceId), inRuns(calculation.seq, cRuns.slice(i, i + RUNS_PER_QUERY))))
       .values();
     calculations.push(...found.map(calculationFromRow));
   }

@@ -26,25 +26,26 @@
  * the reduced formula; 'atom' divides measured and computed values (and their
  * uncertainties) by the atoms of that unit, so Al2O3 no longer weighs five times Al.
  *
+ * Stages: pairing and quality checks run per material (material-stage.ts); finishBenchmark
+ * does the rest over every pair, so a caller may keep the stages of unchanged materials.
+ *
  * Quality: each material × method runs qualityReport with the material's atoms in
  * the cell and space group, the method's grids and, where stored, its dielectric
  * constants and Born charges (types.ts, ScopeDielectric).
  */
 import {
-  atomsPerReducedFormulaUnit,
   compareMethods,
   errorStatistics,
   flagOutliers,
   isSampleRule,
   modifiedZScores,
   outlierScaleValues,
-  qualityReport,
-  ScienceInputError,
   tukeyFences,
   type ErrorStatistics,
   type PairValue,
 } from '@/lib/science';
-import { groupBy, qualityModes, mergeRepeatedMeasurements, pairEntropies, pairFrequencies } from './pair-rows';
+import { groupBy, mergeRepeatedMeasurements } from './pair-rows';
+import { pairMaterials, qualityOrder, type MaterialStage } from './material-stage';
 import { rankOnCommonGround } from './ranking';
 import { outlierScaleOf, type BenchmarkRules } from './schemas';
 import { MIN_PAIRS_FOR_STATISTICS } from './statistics-minimum';
@@ -58,8 +59,6 @@ import type {
   MethodResult,
   PairRecord,
   QualityRecord,
-  ScopeCalculation,
-  ScopeMeasurement,
   StoredStatistics,
 } from './types';
 
@@ -192,66 +191,6 @@ function comparisons(methodIds: string[], included: Map<string, PairRecord[]>): 
   return out;
 }
 
-type NotApplied = NonNullable<BenchmarkSnapshot['qualityNotApplied']>;
-
-function quality(input: BenchmarkInput, calcsByMaterialMethod: Map<string, ScopeCalculation[]>): { records: QualityRecord[]; notApplied: NotApplied } {
-  if (input.quantity !== 'frequency') return { records: [], notApplied: [] };
-  const materials = new Map(input.materials.map((m) => [m.id, m]));
-  const methods = new Map(input.methods.map((m) => [m.id, m]));
-  const dielectric = new Map((input.dielectric ?? []).map((d) => [`${d.materialId}|${d.methodId}`, d]));
-  const out: QualityRecord[] = [];
-  const notApplied: NotApplied = [];
-  for (const [key, calcs] of calcsByMaterialMethod) {
-    const [materialId, methodId] = key.split('|');
-    const material = materials.get(materialId);
-    const method = methods.get(methodId);
-    if (!material || !method) continue;
-    const stored = dielectric.get(key);
-    try {
-      const report = qualityReport({
-        modes: qualityModes(calcs),
-        atomsInCell: material.atomsInCell ?? undefined,
-        spaceGroupNumber: material.spaceGroup ?? undefined,
-        kGrid: method.kGrid ?? undefined,
-        qGrid: method.qGrid ?? undefined,
-        dielectric: stored && stored.epsInf !== null && stored.eps0 !== null ? { epsInf: stored.epsInf, eps0: stored.eps0 } : undefined,
-        // One isotropic charge per atom: the diagonal tensor Z·I.
-        bornCharges: stored && stored.bornCharges.length ? stored.bornCharges.map((z) => [[z, 0, 0], [0, z, 0], [0, 0, z]]) : undefined,
-        thresholds: input.qualityThresholds,
-      });
-      for (const f of report.flags) out.push({ methodId, materialId, code: f.code, severity: f.severity, message: f.message, ...(f.value !== undefined ? { value: f.value } : {}) });
-      for (const n of report.notApplied) notApplied.push({ methodId, materialId, code: n.code, reason: n.reason });
-    } catch (error) {
-      if (!(error instanceof ScienceInputError)) throw error;
-      out.push({ methodId, materialId, code: 'invalid-input', severity: 'error', message: error.message });
-    }
-  }
-  const order = (a: { methodId: string; materialId: string; code: string }, b: typeof a) =>
-    a.methodId.localeCompare(b.methodId) || a.materialId.localeCompare(b.materialId) || a.code.localeCompare(b.code);
-  return { records: out.sort(order), notApplied: notApplied.sort(order) };
-}
-
-/** Entropy values per mole of atoms instead of formula units (module header). */
-function perAtom<T extends ScopeMeasurement | ScopeCalculation>(rows: readonly T[], atoms: ReadonlyMap<string, number>): T[] {
-  return rows.map((r) => {
-    const a = atoms.get(r.materialId);
-    if (!a) return r;
-    return { ...r, value: r.value / a, uncertainty: r.uncertainty === null ? null : r.uncertainty / a };
-  });
-}
-
-function reducedAtoms(materials: BenchmarkInput['materials']): Map<string, number> {
-  const out = new Map<string, number>();
-  for (const m of materials) {
-    try {
-      out.set(m.id, atomsPerReducedFormulaUnit(m.formula));
-    } catch (error) {
-      if (!(error instanceof ScienceInputError)) throw error;
-    }
-  }
-  return out;
-}
-
 function push<K, V>(map: Map<K, V[]>, key: K, value: V): void {
   const list = map.get(key);
   if (list) list.push(value);
@@ -259,8 +198,8 @@ function push<K, V>(map: Map<K, V[]>, key: K, value: V): void {
 }
 
 /** Per material × method: the rows of the per-material table. */
-function materialRows(input: BenchmarkInput, byMethod: Map<string, PairRecord[]>, qualityRecords: QualityRecord[]): MaterialRow[] {
-  const materials = new Map(input.materials.map((m) => [m.id, m]));
+function materialRows(scopeMaterials: BenchmarkInput['materials'], byMethod: Map<string, PairRecord[]>, qualityRecords: QualityRecord[]): MaterialRow[] {
+  const materials = new Map(scopeMaterials.map((m) => [m.id, m]));
   const flags = new Map<string, number>();
   for (const q of qualityRecords) flags.set(`${q.methodId}|${q.materialId}`, (flags.get(`${q.methodId}|${q.materialId}`) ?? 0) + 1);
   const rows: MaterialRow[] = [];
@@ -295,41 +234,45 @@ function byKey(a: PairRecord, b: PairRecord): number {
 
 /** Runs the whole computation (module header) and returns the snapshot a Revision stores. */
 export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
-  const { rules, quantity } = input;
+  return finishBenchmark(input, pairMaterials(input));
+}
+
+/** What the statistics need besides the per-material pairing: every material in scope, the methods, decisions and pins. */
+export type FinishContext = Pick<BenchmarkInput, 'quantity' | 'rules' | 'materials' | 'methods' | 'decisions' | 'pins'>;
+
+/**
+ * From the per-material pairings (material-stage.ts) to the snapshot: decisions, merged repeats, outliers,
+ * statistics, ranking, breakdowns and comparisons, over every pair. The stages are not changed (pairs are copied),
+ * so a caller may keep them and hand them in again.
+ */
+export function finishBenchmark(context: FinishContext, stages: readonly MaterialStage[]): BenchmarkSnapshot {
+  const { rules, quantity } = context;
   const unit = unitOf(quantity);
-  const methods = [...input.methods].sort((a, b) => a.label.localeCompare(b.label) || a.id.localeCompare(b.id));
+  const methods = [...context.methods].sort((a, b) => a.label.localeCompare(b.label) || a.id.localeCompare(b.id));
   const methodIds = methods.map((m) => m.id);
-  const calcsByMaterialMethod = groupBy(
-    [...input.calculations].sort((a, b) => (a.id < b.id ? -1 : 1)),
-    (c) => `${c.materialId}|${c.methodId}`,
-  );
-  let measurements = [...input.measurements].sort((a, b) => (a.id < b.id ? -1 : 1));
+  const ordered = [...stages].sort((a, b) => (a.materialId < b.materialId ? -1 : a.materialId > b.materialId ? 1 : 0));
   const entropyBasis = quantity === 'entropy' ? (rules.entropyBasis ?? 'formula-unit') : undefined;
 
-  let pairs: PairRecord[];
-  let unpaired: Map<string, number>;
-  let measuredInScope = measurements.length;
-  if (quantity === 'frequency') {
-    const pins = [...input.pins].sort((a, b) => (a.id < b.id ? -1 : 1));
-    const context = {
-      atomsInCell: new Map(input.materials.map((m) => [m.id, m.atomsInCell])),
-      nonAnalyticCorrection: new Map(input.methods.map((m) => [m.id, m.nonAnalyticCorrection])),
-      acousticThresholdCm1: input.qualityThresholds?.acousticCm1,
-    };
-    ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod, methodIds, pins, rules, context));
-  } else {
-    const scope = { temperatureK: 298.15, toleranceK: 1, ...input.entropyWindow };
-    let calcs = calcsByMaterialMethod;
-    if (entropyBasis === 'atom') {
-      const atoms = reducedAtoms(input.materials);
-      measurements = perAtom(measurements, atoms);
-      calcs = new Map([...calcsByMaterialMethod].map(([k, v]) => [k, perAtom(v, atoms)]));
-    }
-    const near = (t: number | null) => t !== null && Math.abs(t - scope.temperatureK) <= scope.toleranceK;
-    measuredInScope = measurements.filter((m) => near(m.temperatureK)).length;
-    ({ pairs, unpaired } = pairEntropies(measurements, calcs, methodIds, scope.temperatureK, scope.toleranceK));
+  let pairs: PairRecord[] = [];
+  const unpaired = new Map<string, number>();
+  let measuredInScope = 0;
+  let measurementCount = 0;
+  let calculationCount = 0;
+  const qualityList: QualityRecord[] = [];
+  const notApplied: NonNullable<BenchmarkSnapshot['qualityNotApplied']> = [];
+  for (const s of ordered) {
+    for (const p of s.pairs) pairs.push({ ...p });
+    for (const [methodId, n] of Object.entries(s.unpaired)) unpaired.set(methodId, (unpaired.get(methodId) ?? 0) + n);
+    measuredInScope += s.measuredInScope;
+    measurementCount += s.measurements;
+    calculationCount += s.calculations;
+    for (const q of s.quality) qualityList.push({ ...q });
+    for (const n of s.notApplied) notApplied.push({ ...n });
   }
-  applyDecisions(pairs, input.decisions);
+  const qualityRecords = qualityList.sort(qualityOrder);
+  notApplied.sort(qualityOrder);
+
+  applyDecisions(pairs, context.decisions);
   if (rules.repeatedMeasurements === 'weighted-mean') pairs = mergeRepeatedMeasurements(pairs);
   pairs.sort(byKey);
 
@@ -341,7 +284,6 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
     markOutliers(list, rules.outlierRule, unit, outlierScale);
     included.set(id, list);
   }
-  const { records: qualityRecords, notApplied } = quality(input, calcsByMaterialMethod);
 
   const results: MethodResult[] = methods.map((m) => {
     const all = byMethod.get(m.id) ?? [];
@@ -364,7 +306,7 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
   const ranking = rankOnCommonGround(results, included, pairs, measuredInScope, rules.ranking);
   results.sort((a, b) => (a.rank ?? Infinity) - (b.rank ?? Infinity) || b.n - a.n || a.label.localeCompare(b.label));
 
-  const tagsOf = new Map(input.materials.map((m) => [m.id, m.tags.length ? m.tags : [UNTAGGED]]));
+  const tagsOf = new Map(context.materials.map((m) => [m.id, m.tags.length ? m.tags : [UNTAGGED]]));
   const includedAll = [...included.values()].flat().sort(byKey);
   const classGroups = new Map<string, PairRecord[]>();
   const bandGroups = new Map<string, PairRecord[]>();
@@ -392,7 +334,7 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
     species: breakdown(speciesGroups),
     branches: breakdown(branchGroups, ['TO', 'LO', NO_BRANCH]),
     techniques: breakdown(techniqueGroups),
-    materialRows: materialRows(input, byMethod, qualityRecords),
+    materialRows: materialRows(context.materials, byMethod, qualityRecords),
     ranking,
     entropyBasis,
     caution: quantity === 'entropy' ? ENTROPY_CAUTION : null,
@@ -401,24 +343,24 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
     comparisons: comparisons(methodIds, included),
     pairs,
     quality: qualityRecords,
-    decisions: [...input.decisions].sort((a, b) => a.createdAt - b.createdAt || (a.id < b.id ? -1 : 1)),
-    pins: [...input.pins].sort((a, b) => (a.id < b.id ? -1 : 1)),
+    decisions: [...context.decisions].sort((a, b) => a.createdAt - b.createdAt || (a.id < b.id ? -1 : 1)),
+    pins: [...context.pins].sort((a, b) => (a.id < b.id ? -1 : 1)),
     counts: {
-      measurements: input.measurements.length,
-      calculations: input.calculations.length,
-      materials: input.materials.length,
+      measurements: measurementCount,
+      calculations: calculationCount,
+      materials: context.materials.length,
       methods: methods.length,
       measuredInScope,
     },
-    empty: pairs.length === 0 ? emptyReason(input) : null,
+    empty: pairs.length === 0 ? emptyReason(context, measurementCount, calculationCount) : null,
   };
 }
 
-function emptyReason(input: BenchmarkInput): string {
+function emptyReason(input: FinishContext, measurements: number, calculations: number): string {
   const what = input.quantity === 'frequency' ? 'measured frequencies' : 'measured entropies';
   if (input.methods.length === 0) return 'No method is in scope: the benchmark names no method that exists, or the workspace has none.';
-  if (input.measurements.length === 0) return `No ${what} match the scope.`;
-  if (input.calculations.length === 0) return `The ${input.measurements.length} ${what} in scope have no calculation of the selected methods on the same materials.`;
+  if (measurements === 0) return `No ${what} match the scope.`;
+  if (calculations === 0) return `The ${measurements} ${what} in scope have no calculation of the selected methods on the same materials.`;
   return input.quantity === 'frequency'
     ? `No measured peak found a computed mode within the pairing window (±${Math.round(100 * input.rules.maxRelativeDeviation)} %) with a compatible activity and label.`
     : 'No measured and computed entropy of the same material lie within the temperature tolerance.';

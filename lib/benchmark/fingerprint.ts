@@ -1,10 +1,23 @@
 /**
- * Fingerprint of a benchmark computation: SHA-256 over the sorted ids and the
- * values of every row used, the scope, the rules, the quality thresholds, the
- * active decisions and pins. Equal fingerprints mean an identical snapshot, so a
- * new Revision is stored only when it changes. Row order never matters.
+ * Fingerprint of a benchmark computation: SHA-256 over the scope, the rules, the
+ * quality thresholds, the materials and methods in scope (their fields), the
+ * dielectric rows, the active decisions and pins, and the row set: the sequence
+ * numbers of the measurements and calculations used (row-set.ts encoding). Equal
+ * fingerprints mean an identical snapshot, so a new Revision is stored only when
+ * it changes. Row order never matters.
+ *
+ * A row's sequence number stands for its content: measurement and calculation
+ * rows are never edited once written (a correction is a retraction and a new
+ * row), and a sequence number is never reused. So the row set can be hashed
+ * without reading the rows, which is what lets the recomputation tell "nothing
+ * changed" from one cheap query.
+ *
+ * Rows without a sequence number (inputs built by hand) and revisions stored
+ * before row sets use the content fingerprint (every row's values):
+ * contentFingerprint, kept so those revisions can still be reproduced.
  */
 import { createHash } from 'node:crypto';
+import { encodeRowSet, type RowSet } from './row-set';
 import type { BenchmarkInput } from './types';
 
 /** Rows in id order. Sorting the id strings natively and mapping back is about twice as fast as sorting rows with a comparator. */
@@ -53,18 +66,57 @@ class LineHasher {
   }
 }
 
-export function benchmarkFingerprint(input: BenchmarkInput, scope: unknown): string {
-  const h = new LineHasher();
-  h.add(['scope', canonicalJson(scope), 'rules', canonicalJson(input.rules), canonicalJson(input.qualityThresholds ?? {})]);
-  h.add(['entropy', canonicalJson(input.entropyWindow ?? null)]);
-  for (const m of byId(input.measurements)) h.add(['M', m.id, m.materialId, m.sourceId, m.value, m.uncertainty, m.temperatureK, m.irrep, m.branch, m.technique]);
-  for (const c of byId(input.calculations)) h.add(['C', c.id, c.materialId, c.methodId, c.sourceId, c.value, c.uncertainty, c.temperatureK, c.irrep, c.branch, c.activity, c.degeneracy]);
-  for (const m of byId(input.materials)) h.add(['T', m.id, m.name, m.formula, m.atomsInCell, m.spaceGroup, [...m.tags].sort().join(',')]);
-  for (const m of byId(input.methods)) h.add(['K', m.id, m.label, m.kGrid?.join('x'), m.qGrid?.join('x'), m.nonAnalyticCorrection === undefined ? undefined : String(m.nonAnalyticCorrection)]);
-  for (const d of [...(input.dielectric ?? [])].sort((a, b) => (`${a.materialId}|${a.methodId}` < `${b.materialId}|${b.methodId}` ? -1 : 1))) {
+/** Everything but the rows that a fingerprint covers. */
+export type FingerprintParts = Pick<BenchmarkInput, 'rules' | 'qualityThresholds' | 'entropyWindow' | 'materials' | 'methods' | 'dielectric' | 'decisions' | 'pins'>;
+
+function addParts(h: LineHasher, parts: FingerprintParts, scope: unknown, rowLines?: () => void): void {
+  h.add(['scope', canonicalJson(scope), 'rules', canonicalJson(parts.rules), canonicalJson(parts.qualityThresholds ?? {})]);
+  h.add(['entropy', canonicalJson(parts.entropyWindow ?? null)]);
+  rowLines?.();
+  for (const m of byId(parts.materials)) h.add(['T', m.id, m.name, m.formula, m.atomsInCell, m.spaceGroup, [...m.tags].sort().join(',')]);
+  for (const m of byId(parts.methods)) h.add(['K', m.id, m.label, m.kGrid?.join('x'), m.qGrid?.join('x'), m.nonAnalyticCorrection === undefined ? undefined : String(m.nonAnalyticCorrection)]);
+  for (const d of [...(parts.dielectric ?? [])].sort((a, b) => (`${a.materialId}|${a.methodId}` < `${b.materialId}|${b.methodId}` ? -1 : 1))) {
     h.add(['E', d.materialId, d.methodId, d.epsInf, d.eps0, d.bornCharges.join(',')]);
   }
-  for (const d of byId(input.decisions)) h.add(['D', d.id, d.kind, d.measurementId, d.methodId, d.reason]);
-  for (const p of byId(input.pins)) h.add(['P', p.id, p.methodId, p.measurementId, p.calculationId]);
+  for (const d of byId(parts.decisions)) h.add(['D', d.id, d.kind, d.measurementId, d.methodId, d.reason]);
+  for (const p of byId(parts.pins)) h.add(['P', p.id, p.methodId, p.measurementId, p.calculationId]);
+}
+
+/** The fingerprint of a computation over exactly these rows (module header). */
+export function rowSetFingerprint(parts: FingerprintParts, scope: unknown, rows: RowSet): string {
+  const h = new LineHasher();
+  h.add(['rows', Buffer.from(encodeRowSet(rows)).toString('base64')]);
+  addParts(h, parts, scope);
+  return h.digest();
+}
+
+/** The rows' sequence numbers, sorted; null when a row has none. */
+export function rowSetOf(input: Pick<BenchmarkInput, 'measurements' | 'calculations'>): RowSet | null {
+  const seqs = (rows: ReadonlyArray<{ seq?: number }>) => {
+    const out: number[] = [];
+    for (const r of rows) {
+      if (r.seq === undefined) return null;
+      out.push(r.seq);
+    }
+    return out.sort((a, b) => a - b);
+  };
+  const measurements = seqs(input.measurements);
+  const calculations = seqs(input.calculations);
+  return measurements && calculations ? { measurements, calculations } : null;
+}
+
+/** The fingerprint of a full input: by row set when every row has a sequence number, else by content. */
+export function benchmarkFingerprint(input: BenchmarkInput, scope: unknown): string {
+  const rows = rowSetOf(input);
+  return rows ? rowSetFingerprint(input, scope, rows) : contentFingerprint(input, scope);
+}
+
+/** The fingerprint over every row's values (module header): revisions stored before row sets, and hand-built inputs. */
+export function contentFingerprint(input: BenchmarkInput, scope: unknown): string {
+  const h = new LineHasher();
+  addParts(h, input, scope, () => {
+    for (const m of byId(input.measurements)) h.add(['M', m.id, m.materialId, m.sourceId, m.value, m.uncertainty, m.temperatureK, m.irrep, m.branch, m.technique]);
+    for (const c of byId(input.calculations)) h.add(['C', c.id, c.materialId, c.methodId, c.sourceId, c.value, c.uncertainty, c.temperatureK, c.irrep, c.branch, c.activity, c.degeneracy]);
+  });
   return h.digest();
 }

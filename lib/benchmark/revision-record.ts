@@ -52,13 +52,6 @@ export interface RevisionRecord {
   flags: RevisionFlag[];
 }
 
-interface InputRow {
-  id: string;
-  /** The row's stable sequence number; every row read from the database has one. */
-  seq?: number;
-  importId: string | null;
-}
-
 /** What is in `now` and not in `before`, and the reverse, each in its list's order. */
 export function setDiff<T>(now: readonly T[], before: readonly T[]): { added: T[]; removed: T[] } {
   const a = new Set(now);
@@ -69,22 +62,16 @@ export function setDiff<T>(now: readonly T[], before: readonly T[]): { added: T[
 export function revisionRecord(input: {
   fingerprint: string;
   snapshot: BenchmarkSnapshot;
-  measurements: readonly InputRow[];
-  calculations: readonly InputRow[];
+  /** Sequence numbers of exactly the rows used, sorted. */
+  rows: RowSet;
+  /** The imports of the rows that are in `rows` and not in the baseline's, with how many each. */
+  imports: Array<{ id: string; rows: number }>;
   reported: RecomputeCause[];
   baseline: RevisionBaseline | null;
 }): RevisionRecord {
-  const { snapshot, baseline } = input;
-  const rows: RowSet = { measurements: seqsOf(input.measurements), calculations: seqsOf(input.calculations) };
+  const { snapshot, baseline, rows } = input;
   const m = setDiff(rows.measurements, baseline?.rows?.measurements ?? []);
   const c = setDiff(rows.calculations, baseline?.rows?.calculations ?? []);
-  const added = { measurements: new Set(m.added), calculations: new Set(c.added) };
-  const importRows = new Map<string, number>();
-  const count = (list: readonly InputRow[], addedSeqs: Set<number>) => {
-    for (const row of list) if (row.importId && addedSeqs.has(row.seq!)) importRows.set(row.importId, (importRows.get(row.importId) ?? 0) + 1);
-  };
-  count(input.measurements, added.measurements);
-  count(input.calculations, added.calculations);
   const d = setDiff(
     snapshot.decisions.map((x) => x.id),
     baseline?.decisionIds ?? [],
@@ -96,7 +83,7 @@ export function revisionRecord(input: {
   const cause: RevisionCause = {
     reported: input.reported,
     rows: { measurementsAdded: m.added.length, measurementsRemoved: m.removed.length, calculationsAdded: c.added.length, calculationsRemoved: c.removed.length },
-    imports: [...importRows].map(([id, rows]) => ({ id, rows })).sort((a, b) => b.rows - a.rows),
+    imports: [...input.imports].sort((a, b) => b.rows - a.rows || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)),
     decisions: { added: d.added, reverted: d.removed },
     pins: { added: p.added, revoked: p.removed },
   };
@@ -121,13 +108,4 @@ export function revisionRecord(input: {
     })),
   ];
   return { fingerprint: input.fingerprint, snapshot, rows, cause, flags };
-}
-
-function seqsOf(list: readonly InputRow[]): number[] {
-  return list
-    .map((row) => {
-      if (row.seq === undefined) throw new Error(`row ${row.id} has no sequence number`);
-      return row.seq;
-    })
-    .sort((a, b) => a - b);
 }

@@ -103,7 +103,8 @@ function readRuns(r: Reader): Array<[number, number]> {
   return out;
 }
 
-function expand(runs: Array<[number, number]>): number[] {
+/** The numbers of sorted runs, in order. */
+export function expandRuns(runs: ReadonlyArray<readonly [number, number]>): number[] {
   const out: number[] = [];
   for (const [first, last] of runs) for (let s = first; s <= last; s++) out.push(s);
   return out;
@@ -133,6 +134,27 @@ export function runsHave(runs: ReadonlyArray<readonly [number, number]>, seq: nu
   return false;
 }
 
+/** The runs of the numbers in `a` and not in `b` (both sorted, disjoint runs): what entered or left a row set, without listing every number. */
+export function subtractRuns(a: ReadonlyArray<readonly [number, number]>, b: ReadonlyArray<readonly [number, number]>): Array<[number, number]> {
+  const out: Array<[number, number]> = [];
+  let j = 0;
+  for (const [first, last] of a) {
+    let lo = first;
+    while (j < b.length && b[j][1] < lo) j++;
+    let k = j;
+    while (lo <= last) {
+      if (k >= b.length || b[k][0] > last) {
+        out.push([lo, last]);
+        break;
+      }
+      if (b[k][0] > lo) out.push([lo, b[k][0] - 1]);
+      lo = Math.max(lo, b[k][1] + 1);
+      k++;
+    }
+  }
+  return out;
+}
+
 /** How many numbers of the range [first, last] the runs hold. */
 export function overlapCount(runs: ReadonlyArray<readonly [number, number]>, first: number, last: number): number {
   let n = 0;
@@ -155,5 +177,5 @@ export function encodeRowSet(set: RowSet): Uint8Array {
 /** The sorted sequence numbers of an encoded set; throws on bytes that are not one. */
 export function decodeRowSet(bytes: Uint8Array): RowSet {
   const runs = decodeRowSetRuns(bytes);
-  return { measurements: expand(runs.measurements), calculations: expand(runs.calculations) };
+  return { measurements: expandRuns(runs.measurements), calculations: expandRuns(runs.calculations) };
 }

@@ -9,7 +9,7 @@ import 'server-only';
 import { loadBenchmarkInput, requireBenchmark, rowsOfRowSet } from '@/db/queries/benchmarks';
 import { requireRevision, revisionRowSet } from '@/db/queries/revisions';
 import { computeBenchmark } from '@/lib/benchmark/compute';
-import { benchmarkFingerprint } from '@/lib/benchmark/fingerprint';
+import { benchmarkFingerprint, contentFingerprint } from '@/lib/benchmark/fingerprint';
 import { setDiff } from '@/lib/benchmark/revision-record';
 import { AppError } from '@/lib/errors';
 
@@ -27,8 +27,10 @@ export async function reproduceRevision(workspaceId: string, benchmarkId: string
     decisions: revision.statistics.decisions,
     pins: revision.statistics.pins,
   };
+  // Revisions stored before fingerprints covered the row set carry the content fingerprint (fingerprint.ts).
   const fingerprint = benchmarkFingerprint(input, bm.scope);
-  return { revision, rows, fingerprint, matches: fingerprint === revision.fingerprint, snapshot: computeBenchmark(input) };
+  const matches = fingerprint === revision.fingerprint || contentFingerprint(input, bm.scope) === revision.fingerprint;
+  return { revision, rows, fingerprint, matches, snapshot: computeBenchmark(input) };
 }
 
 /** The rows that entered and left between two revisions of a benchmark (by sequence number). */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { decodeRowSet, decodeRowSetRuns, encodeRowSet, overlapCount, runsHave, runsOf } from '@/lib/benchmark/row-set';
+import { decodeRowSet, decodeRowSetRuns, encodeRowSet, expandRuns, overlapCount, runsHave, runsOf, subtractRuns } from '@/lib/benchmark/row-set';
 
 // The compact row set of a revision (lib/benchmark/row-set.ts): runs of consecutive sequence numbers as varints.
 describe('row sets', () => {
@@ -47,5 +47,20 @@ describe('row sets', () => {
     expect(() => decodeRowSet(Uint8Array.from([1, 0, 0, 7]))).toThrow('trailing bytes');
     expect(() => decodeRowSet(Uint8Array.from([1, 1, 3, 0, 0]))).toThrow('empty run');
     expect(() => encodeRowSet({ measurements: [-1], calculations: [] })).toThrow('not a non-negative integer');
+  });
+
+  it('subtracts runs as sets: what entered or left a row set (fast-check against Set difference)', () => {
+    const seqs = fc.uniqueArray(fc.integer({ min: 1, max: 300 }), { maxLength: 150 });
+    fc.assert(
+      fc.property(seqs, seqs, (a, b) => {
+        const out = subtractRuns(runsOf(a), runsOf(b));
+        const gone = new Set(b);
+        expect(expandRuns(out)).toEqual(a.filter((x) => !gone.has(x)).sort((x, y) => x - y));
+        // Still runs: sorted, disjoint and not touching.
+        for (let i = 1; i < out.length; i++) expect(out[i][0]).toBeGreaterThan(out[i - 1][1] + 1);
+      }),
+    );
+    // Worked case: [1–10] minus [3–4] and [8–12] is [1–2] and [5–7].
+    expect(subtractRuns([[1, 10]], [[3, 4], [8, 12]])).toEqual([[1, 2], [5, 7]]);
   });
 });
