@@ -3,6 +3,7 @@ import { and, asc, desc, eq, gt, gte, inArray, isNull, like, lt, lte, or, sql } 
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { CauseLookups } from '@/lib/alerts/causes';
 import { db } from '@/db/client';
+import { snapshotOfRow } from '@/db/snapshot-bytes';
 import { auditLog, decision, importBatch, mailOutbox, method, pairPin, revision, user, watch, type NewMail } from '@/db/schema';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 import type { RevisionCause } from '@/lib/benchmark/revision-record';
@@ -22,12 +23,13 @@ async function loadSnapshot(workspaceId: string, id: string): Promise<AlertRevis
   const hit = cache.get(id);
   if (hit) return hit;
   const rows = await db
-    .select({ id: revision.id, number: revision.number, createdAt: revision.createdAt, statistics: revision.statistics })
+    .select({ id: revision.id, number: revision.number, createdAt: revision.createdAt, statistics: revision.statistics, snapshot: revision.snapshot })
     .from(revision)
     .where(and(eq(revision.workspaceId, workspaceId), eq(revision.id, id), eq(revision.status, 'ready')))
     .limit(1);
   if (!rows[0]) return null;
-  const found = { ...rows[0], statistics: rows[0].statistics as BenchmarkSnapshot };
+  const { snapshot, ...head } = rows[0];
+  const found = { ...head, statistics: snapshotOfRow(head.statistics, snapshot) };
   cache.set(id, found);
   if (cache.size > 6) cache.delete(cache.keys().next().value!);
   return found;

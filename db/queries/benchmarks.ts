@@ -2,6 +2,7 @@ import 'server-only';
 import { and, asc, eq, gte, inArray, isNotNull, isNull, lte, or, sql, type SQL } from 'drizzle-orm';
 import { db, type Executor } from '@/db/client';
 import {
+  auditLog,
   benchmark,
   calculation,
   decision,
@@ -343,7 +344,7 @@ export type BenchmarkContext = Omit<BenchmarkInput, 'measurements' | 'calculatio
 export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRecord, options: { materialIds?: string[] } = {}): Promise<BenchmarkContext> {
   const { scope, rules } = bm;
   const { methodWhere, methodIds, scopedMaterials } = scopeConditions(workspaceId, bm, options);
-  const [materials, tags, methods, pins, decisions, settings, dielectricRows] = await Promise.all([
+  const [materials, tags, methods, pins, decisions, settings, dielectricRows, [merges]] = await Promise.all([
     db
       .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell, spaceGroup: material.spaceGroup })
       .from(material)
@@ -394,6 +395,10 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
             ),
           )
       : Promise.resolve([]),
+    db
+      .select({ n: sql<number>`count(*)` })
+      .from(auditLog)
+      .where(and(eq(auditLog.workspaceId, workspaceId), eq(auditLog.entityType, 'source'), eq(auditLog.action, 'merge'))),
   ]);
 
   const tagsByMaterial = new Map<string, string[]>();
@@ -425,6 +430,7 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
         }
       : undefined,
     entropyWindow: scope.quantity === 'entropy' ? { temperatureK: scope.entropyTemperatureK, toleranceK: scope.entropyToleranceK } : undefined,
+    ...(merges.n > 0 ? { sourceMerges: Number(merges.n) } : {}),
     dielectric: [...dielectric.values()].map(({ born, ...d }) => ({
       ...d,
       bornCharges: born.sort((a, b) => a.index - b.index || (a.id < b.id ? -1 : 1)).map((b) => b.z),

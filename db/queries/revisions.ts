@@ -7,6 +7,7 @@ import { AppError } from '@/lib/errors';
 import type { RevisionBaseline, RevisionCause, RevisionRecord } from '@/lib/benchmark/revision-record';
 import type { RowSet } from '@/lib/benchmark/row-set';
 import { packRowSet, unpackRowSet, unpackRowSetRuns } from '@/db/row-set-bytes';
+import { snapshotOfRow, storedSnapshot } from '@/db/snapshot-bytes';
 import { overlapCount, runsHave } from '@/lib/benchmark/row-set';
 import type { BenchmarkSnapshot, MethodResult } from '@/lib/benchmark/types';
 
@@ -83,7 +84,7 @@ export async function insertRevision(workspaceId: string, benchmarkId: string, r
         number: (last ?? 0) + 1,
         fingerprint: record.fingerprint,
         status: 'ready',
-        statistics: record.snapshot,
+        ...storedSnapshot(record.snapshot),
         rowSet: packRowSet(record.rows),
         cause: record.cause,
         completedAt: new Date(),
@@ -137,13 +138,15 @@ export async function getRevision(workspaceId: string, benchmarkId: string, numb
       fingerprint: revision.fingerprint,
       createdAt: revision.createdAt,
       statistics: revision.statistics,
+      snapshot: revision.snapshot,
       cause: revision.cause,
     })
     .from(revision)
     .where(eq(revision.id, id));
+  const { snapshot, ...head } = row;
   const view: RevisionView = {
-    ...row,
-    statistics: row.statistics as BenchmarkSnapshot,
+    ...head,
+    statistics: snapshotOfRow(row.statistics, snapshot),
     cause: (row.cause as RevisionCause | null) ?? null,
     isLatest: wanted === latest.number,
   };

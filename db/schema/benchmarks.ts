@@ -43,7 +43,10 @@ export const revision = sqliteTable(
     number: integer().notNull(),
     fingerprint: text().notNull(),
     status: text({ enum: ['computing', 'ready', 'failed'] }).notNull().default('computing'),
+    /** The whole snapshot (older revisions), or its head when `snapshot` holds the rest (db/snapshot-bytes.ts). */
     statistics: text({ mode: 'json' }).$type<unknown>(),
+    /** The snapshot without its head, packed (lib/benchmark/snapshot-pack.ts) and deflated; null on older revisions. */
+    snapshot: blob({ mode: 'buffer' }),
     /** Revisions stored before row sets: the row ids as JSON (db/revision-backfill.ts converts them). */
     rowIds: text({ mode: 'json' }).$type<{ measurements: string[]; calculations: string[] }>(),
     /** The rows used, as their sequence numbers: lib/benchmark/row-set.ts encoding, deflated (db/queries/revisions.ts). */

@@ -1,14 +1,17 @@
 /**
  * Fingerprint of a benchmark computation: SHA-256 over the scope, the rules, the
  * quality thresholds, the materials and methods in scope (their fields), the
- * dielectric rows, the active decisions and pins, and the row set: the sequence
+ * dielectric rows, the active decisions and pins, the workspace's count of source
+ * merges (when not zero), and the row set: the sequence
  * numbers of the measurements and calculations used (row-set.ts encoding). Equal
  * fingerprints mean an identical snapshot, so a new Revision is stored only when
  * it changes. Row order never matters.
  *
  * A row's sequence number stands for its content: measurement and calculation
  * rows are never edited once written (a correction is a retraction and a new
- * row), and a sequence number is never reused. So the row set can be hashed
+ * row; the database refuses an edit, drizzle/0010), and a sequence number is
+ * never reused. The one exception is a source merge, which re-points rows to the
+ * kept source: hence the merge count. So the row set can be hashed
  * without reading the rows, which is what lets the recomputation tell "nothing
  * changed" from one cheap query.
  *
@@ -67,11 +70,13 @@ class LineHasher {
 }
 
 /** Everything but the rows that a fingerprint covers. */
-export type FingerprintParts = Pick<BenchmarkInput, 'rules' | 'qualityThresholds' | 'entropyWindow' | 'materials' | 'methods' | 'dielectric' | 'decisions' | 'pins'>;
+export type FingerprintParts = Pick<BenchmarkInput, 'rules' | 'qualityThresholds' | 'entropyWindow' | 'materials' | 'methods' | 'dielectric' | 'decisions' | 'pins' | 'sourceMerges'>;
 
 function addParts(h: LineHasher, parts: FingerprintParts, scope: unknown, rowLines?: () => void): void {
   h.add(['scope', canonicalJson(scope), 'rules', canonicalJson(parts.rules), canonicalJson(parts.qualityThresholds ?? {})]);
   h.add(['entropy', canonicalJson(parts.entropyWindow ?? null)]);
+  // only when there was one, so a workspace without merges keeps its fingerprints
+  if (parts.sourceMerges) h.add(['source-merges', parts.sourceMerges]);
   rowLines?.();
   for (const m of byId(parts.materials)) h.add(['T', m.id, m.name, m.formula, m.atomsInCell, m.spaceGroup, [...m.tags].sort().join(',')]);
   for (const m of byId(parts.methods)) h.add(['K', m.id, m.label, m.kGrid?.join('x'), m.qGrid?.join('x'), m.nonAnalyticCorrection === undefined ? undefined : String(m.nonAnalyticCorrection)]);

@@ -6,6 +6,7 @@
  * client rebuilds exactly those rows with decodePlotColumns. Pure, so the server
  * encodes and the browser decodes with the same code.
  */
+import { Interner } from './interner';
 import type { PlotPoint } from './pairs-export';
 
 export const PLOT_COLUMNS_FORMAT = 'plot-columns/1';
@@ -40,20 +41,6 @@ export interface PlotColumns {
     error: number[] | null;
     flags: number[];
   };
-}
-
-class Interner {
-  readonly values: string[] = [];
-  private readonly index = new Map<string, number>();
-  of(value: string): number {
-    let i = this.index.get(value);
-    if (i === undefined) {
-      i = this.values.length;
-      this.values.push(value);
-      this.index.set(value, i);
-    }
-    return i;
-  }
 }
 
 export function encodePlotColumns(points: readonly PlotPoint[], meta: { revision: number; unit: string }): PlotColumns {

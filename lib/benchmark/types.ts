@@ -102,6 +102,12 @@ export interface BenchmarkInput {
   entropyWindow?: { temperatureK: number; toleranceK: number };
   /** Dielectric constants and Born charges where stored (see ScopeDielectric). */
   dielectric?: ScopeDielectric[];
+  /**
+   * How many source merges the workspace has seen: a merge re-points rows to the
+   * kept source (the one edit of a stored row), which changes the pairs' sources
+   * without changing the row set, so the fingerprint covers this count.
+   */
+  sourceMerges?: number;
 }
 
 /**

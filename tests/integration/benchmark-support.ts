@@ -54,7 +54,7 @@ export async function addMeasurement(
 
 export async function addCalculation(
   workspaceId: string,
-  v: { materialId: string; sourceId: string; methodId: string; value: number; irrep?: string; activity?: 'raman' | 'acoustic' | 'ir' },
+  v: { materialId: string; sourceId: string; methodId: string; value: number; irrep?: string; activity?: 'raman' | 'acoustic' | 'ir'; importId?: string },
 ) {
   const [row] = await db
     .insert(calculation)
@@ -63,6 +63,7 @@ export async function addCalculation(
       materialId: v.materialId,
       sourceId: v.sourceId,
       methodId: v.methodId,
+      importId: v.importId ?? null,
       quantity: 'frequency',
       value: v.value,
       valueText: String(v.value),

@@ -46,6 +46,8 @@ interface KeptBenchmark {
 
 /** Benchmarks whose stages a process keeps; the least recently used goes first. */
 const KEPT_BENCHMARKS = 4;
+/** Materials whose rows one read loads. */
+const MATERIALS_PER_READ = 2000;
 const kept = new Map<string, KeptBenchmark>();
 
 function hash(value: unknown): string {
@@ -54,7 +56,7 @@ function hash(value: unknown): string {
 
 function pairingKeyOf(bm: BenchmarkRecord, context: BenchmarkContext): string {
   const methods = [...context.methods].sort((a, b) => (a.id < b.id ? -1 : 1));
-  return hash({ scope: bm.scope, rules: context.rules, thresholds: context.qualityThresholds ?? null, window: context.entropyWindow ?? null, methods });
+  return hash({ scope: bm.scope, rules: context.rules, thresholds: context.qualityThresholds ?? null, window: context.entropyWindow ?? null, methods, sourceMerges: context.sourceMerges ?? 0 });
 }
 
 export interface MaterialStages {
@@ -109,9 +111,11 @@ export async function materialStages(
 
   const materials = new Map(base?.materials ?? []);
   for (const id of changed) materials.delete(id);
-  const toLoad = [...changed].filter((id) => inScope.has(id));
-  if (toLoad.length) {
-    const rows = await loadScopeRows(workspaceId, bm, base ? { onlyMaterials: toLoad } : {});
+  const toLoad = [...changed].filter((id) => inScope.has(id)).sort();
+  // In batches of materials, so a full computation never holds every row at once (the kept stages are far smaller).
+  for (let i = 0; i < toLoad.length; i += MATERIALS_PER_READ) {
+    const batch = toLoad.slice(i, i + MATERIALS_PER_READ);
+    const rows = await loadScopeRows(workspaceId, bm, { onlyMaterials: batch });
     const seqs = new Map<string, { measurements: number[]; calculations: number[] }>();
     const seqsOf = (id: string) => seqs.get(id) ?? seqs.set(id, { measurements: [], calculations: [] }).get(id)!;
     for (const r of rows.measurements) seqsOf(r.materialId).measurements.push(r.seq!);
