@@ -8,6 +8,7 @@ import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { createServer } from 'node:http';
 import { fileURLToPath } from 'node:url';
+import { createWorkerChannel, OFF_LOOP_CHANNEL } from './worker-channel.mjs';
 
 export const PEER_HEADER = 'x-ledger-peer';
 
@@ -35,13 +36,16 @@ export function jobWorkerMode(dev, env = process.env) {
 
 /**
  * Starts scripts/job-worker.ts and restarts it (after 1 s) when it dies; stopped with the server.
- * The server process then claims no jobs itself (LEDGER_JOBS_ELSEWHERE, read by lib/services/jobs/runner.ts).
+ * The server process then claims no jobs itself (LEDGER_JOBS_ELSEWHERE, read by lib/services/jobs/runner.ts), and
+ * hands the heavy part of value imports to the worker over IPC (lib/services/off-loop.ts) once it says it is ready.
  */
 function startJobWorker() {
   let stopping = false;
   let child;
+  const channel = createWorkerChannel();
   const launch = () => {
     child = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/job-worker.ts'], { stdio: ['inherit', 'inherit', 'inherit', 'ipc'], env: { ...process.env, LEDGER_JOBS_ELSEWHERE: '' } });
+    channel.attach(child);
     child.on('exit', (code, signal) => {
       if (stopping) return;
       console.error(`The job worker stopped (${signal ?? `exit ${code}`}); starting another in 1 s.`);
@@ -49,6 +53,7 @@ function startJobWorker() {
     });
   };
   launch();
+  globalThis[OFF_LOOP_CHANNEL] = channel;
   const stop = () => {
     stopping = true;
     child?.kill('SIGTERM');

@@ -41,11 +41,24 @@ export interface ImportOutcome {
   createdMethods?: number;
 }
 
+/**
+ * Atoms per reduced formula unit of a stored material. A formula that no longer parses (written before the parser
+ * knew its notation, or by hand) falls back to the count stored with it, so one odd material does not stop every
+ * import of the workspace.
+ */
+function storedAtomsPerFormulaUnit(m: { reducedFormula: string; atomsPerFormulaUnit: number }): number {
+  try {
+    return atomsPerReducedFormulaUnit(m.reducedFormula);
+  } catch {
+    return m.atomsPerFormulaUnit;
+  }
+}
+
 /** The handles an import (CSV, JSON rows or DOS) may use, for validation on the server and in the browser. */
 export async function loadImportReferences(workspaceId: string): Promise<ImportReferences & DosReferences> {
   const [materials, sources, methods] = await Promise.all([
     db
-      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsInCell: material.atomsInCell })
+      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsPerFormulaUnit: material.atomsPerFormulaUnit, atomsInCell: material.atomsInCell })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
     db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
@@ -53,7 +66,7 @@ export async function loadImportReferences(workspaceId: string): Promise<ImportR
   ]);
   return {
     // Values per formula unit are per the reduced formula's unit (GaN, not Ga2N2).
-    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: atomsPerReducedFormulaUnit(m.reducedFormula), atomsInCell: m.atomsInCell }])),
+    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: storedAtomsPerFormulaUnit(m), atomsInCell: m.atomsInCell }])),
     sources: new Map(sources.map((s) => [s.key, s.id])),
     methods: new Map(methods.map((m) => [m.label, m.id])),
   };

@@ -5,6 +5,7 @@ import { readFile } from 'node:fs/promises';
 import type { ImportActor, ImportOutcome } from '@/db/queries/imports';
 import { commitImport } from './commit-values';
 import { dataChanged } from '@/lib/services/data-changed';
+import { offLoop } from '@/lib/services/off-loop';
 import type { ImportableKind, TableKind } from '@/lib/import/columns';
 import { isCatalogKind } from '@/lib/import/catalog-columns';
 import type { WorkspaceRole } from '@/lib/permissions';
@@ -64,7 +65,7 @@ export async function importFile(input: CsvImportInput & { kind: TableKind }): P
 
 /**
  * The one server path for a CSV file of values, from the wizard and from the API alike:
- * spool and hash the bytes, then validate and commit atomically.
+ * spool and hash the bytes, then validate and commit atomically (in the worker process when one runs).
  */
 export async function importCsvFile(input: CsvImportInput & { kind: ImportableKind }): Promise<ImportOutcome> {
   // Callers that pass no role (benches, older tests) get the least role that may import.
@@ -73,16 +74,19 @@ export async function importCsvFile(input: CsvImportInput & { kind: ImportableKi
   const spooled = await spool(input.body);
   try {
     if (spooled.byteCount === 0) throw importRefusal('The file is empty.', [{ row: 0, column: null, reason: 'The file is empty.' }]);
-    const kind = input.kind;
-    const stream = createReadStream(/*turbopackIgnore: true*/ spooled.path, { highWaterMark: READ_CHUNK_BYTES }) as AsyncIterable<Buffer>;
-    const table = await openCsvTable(stream, kind, input.mapping);
-    const outcome = await commitImport({
-      createMissing: input.createMissing,
+    // Validating and storing run in the worker process when there is one (off-loop.ts); the spool stays ours to clean up.
+    const outcome = await offLoop('import-values', {
       workspaceId: input.workspaceId,
       actor: input.actor,
-      file: { kind, fileName: input.fileName, sha256: spooled.sha256, byteCount: spooled.byteCount, via: input.via },
-      table,
+      kind: input.kind,
+      fileName: input.fileName,
+      via: input.via,
+      path: spooled.path,
+      sha256: spooled.sha256,
+      byteCount: spooled.byteCount,
+      mapping: input.mapping,
       units: input.units,
+      createMissing: input.createMissing,
     });
     return recomputeAfter(input.workspaceId, input.actor, outcome);
   } finally {

@@ -1,0 +1,105 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { afterAll, afterEach, describe, expect, it } from 'vitest';
+import { and, eq } from 'drizzle-orm';
+import { db } from '@/db/client';
+import { importBatch, measurement } from '@/db/schema';
+import { AppError } from '@/lib/errors';
+import { importCsvFile } from '@/lib/services/imports/csv-import';
+import { stopJobRunner } from '@/lib/services/jobs/runner';
+import { createWorkerChannel, OFF_LOOP_CHANNEL } from '../../scripts/worker-channel.mjs';
+import { createWorkspaceWith } from '@/tests/support/users';
+import { addMaterial, addSource } from './benchmark-support';
+
+// The production server hands value imports to its worker process (lib/services/off-loop.ts, scripts/server.mjs).
+// Here the worker is the real scripts/job-worker.ts on this test's database file, and this process plays the server.
+const children: ChildProcess[] = [];
+afterAll(() => children.forEach((c) => c.exitCode === null && c.kill('SIGKILL')));
+afterEach(() => {
+  delete (globalThis as Record<symbol, unknown>)[OFF_LOOP_CHANNEL];
+});
+
+async function worker() {
+  stopJobRunner();
+  const proc = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/job-worker.ts'], {
+    stdio: ['ignore', 'ignore', 'inherit', 'ipc'],
+    // its job runner polls rarely: this test is about imports
+    env: { ...process.env, LEDGER_JOBS_ELSEWHERE: '', JOB_POLL_MS: '60000' },
+  });
+  children.push(proc);
+  const channel = createWorkerChannel();
+  channel.attach(proc);
+  const deadline = Date.now() + 60_000;
+  while (!channel.available()) {
+    if (Date.now() > deadline || proc.exitCode !== null) throw new Error('the worker did not start');
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  (globalThis as Record<symbol, unknown>)[OFF_LOOP_CHANNEL] = channel;
+  return proc;
+}
+
+async function workspace() {
+  const ws = await createWorkspaceWith(['contributor']);
+  await addSource(ws.workspaceId, 'lab2026');
+  for (let i = 0; i < 3; i++) await addMaterial(ws.workspaceId, `Crystal-${i}`, ['oxide']);
+  return { w: ws.workspaceId, actor: { userId: ws.members.contributor.id, tokenId: null } };
+}
+
+const HEADER = 'material,quantity,value,unit,uncertainty,temperature_K,irrep,technique,source\n';
+const line = (i: number, value: string | number = 300 + (i % 500) / 10) => `Crystal-${i % 3},frequency,${value},cm-1,1,295,A${i % 7}g,raman,lab2026\n`;
+
+function importOf(s: { w: string; actor: { userId: string; tokenId: null } }, name: string, csv: string) {
+  return importCsvFile({
+    workspaceId: s.w,
+    actor: s.actor,
+    via: 'api',
+    kind: 'measurements',
+    fileName: name,
+    body: (async function* () {
+      yield new TextEncoder().encode(csv);
+    })(),
+  });
+}
+
+const refusal = (p: Promise<unknown>) =>
+  p.then(
+    () => null,
+    (e: unknown) => (e instanceof AppError ? { code: e.code, message: e.message, errors: e.errors, errorCount: e.errorCount } : { thrown: String(e) }),
+  );
+
+describe('value imports in the worker process', () => {
+  it('stores the rows and answers with the same outcome and the same refusals as in the server process', async () => {
+    const s = await workspace();
+    await worker();
+    const rows = Array.from({ length: 40 }, (_, i) => line(i)).join('');
+    const outcome = await importOf(s, 'good.csv', HEADER + rows);
+    expect(outcome.insertedCount).toBe(40);
+    const stored = await db.select({ id: measurement.id }).from(measurement).where(eq(measurement.importId, outcome.importId!));
+    expect(stored).toHaveLength(40);
+
+    // The same bad file through the worker and here: one answer, row errors included (row, column, reason).
+    const bad = HEADER + line(1) + line(2, 'abc') + 'Nowhere-9,frequency,100,cm-1,1,295,A1g,raman,lab2026\n';
+    const viaWorker = await refusal(importOf(s, 'bad.csv', bad));
+    delete (globalThis as Record<symbol, unknown>)[OFF_LOOP_CHANNEL];
+    const here = await refusal(importOf(s, 'bad.csv', bad));
+    expect(viaWorker).not.toBeNull();
+    expect(viaWorker).toEqual(here);
+    expect(viaWorker).toMatchObject({ errorCount: 2 });
+    // And a file sent twice is refused the same way (the duplicate-file rule runs in the worker too).
+    await worker();
+    expect(await refusal(importOf(s, 'good-again.csv', HEADER + rows))).toMatchObject({ code: 'conflict' });
+  }, 120_000);
+
+  it('leaves nothing when the worker dies in the middle of an import, and says so', async () => {
+    const s = await workspace();
+    const proc = await worker();
+    const big = HEADER + Array.from({ length: 60_000 }, (_, i) => line(i, (300 + i / 1000).toFixed(3))).join('');
+    const pending = refusal(importOf(s, 'big.csv', big));
+    await new Promise((r) => setTimeout(r, 700));
+    proc.kill('SIGKILL');
+    expect(await pending).toEqual({ thrown: expect.stringMatching(/worker process stopped .* nothing of it was stored/) });
+    const batches = await db.select({ id: importBatch.id }).from(importBatch).where(and(eq(importBatch.workspaceId, s.w), eq(importBatch.fileName, 'big.csv')));
+    expect(batches).toHaveLength(0);
+    const rows = await db.select({ id: measurement.id }).from(measurement).where(eq(measurement.workspaceId, s.w));
+    expect(rows).toHaveLength(0);
+  }, 120_000);
+});
