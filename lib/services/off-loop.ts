@@ -2,7 +2,9 @@ import 'server-only';
 /**
  * Heavy request work handed to the worker process, so the web server's event
  * loop stays free for other requests while a 200,000-row file is validated and
- * stored. scripts/server.mjs starts the worker (scripts/job-worker.ts) with an
+ * stored: value files (CSV), JSON import bodies, and DOS files (parsed and
+ * integrated there). Catalogue files stay in the web process (small by their
+ * limits). scripts/server.mjs starts the worker (scripts/job-worker.ts) with an
  * IPC channel and puts a requester on globalThis under OFF_LOOP_CHANNEL; the
  * worker answers with serveOffLoop. Without a channel (`npm run dev`, tests,
  * JOB_WORKER=inline, or while a dead worker is restarted) the work runs in this
@@ -11,10 +13,14 @@ import 'server-only';
  * that dies mid-import leaves nothing: its write transaction never committed.
  */
 import { AppError, type AppErrorCode } from '@/lib/errors';
+import { commitSpooledDos } from './imports/dos-commit';
+import { commitJsonBody } from './imports/json-body';
 import { commitSpooledValues } from './imports/spooled-values';
 
 const OPS = {
   'import-values': commitSpooledValues,
+  'import-json': commitJsonBody,
+  'import-dos': commitSpooledDos,
 };
 
 export type OffLoopOp = keyof typeof OPS;

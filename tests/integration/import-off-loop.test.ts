@@ -4,7 +4,10 @@ import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { importBatch, measurement } from '@/db/schema';
 import { AppError } from '@/lib/errors';
-import { importCsvFile } from '@/lib/services/imports/csv-import';
+import { importCsvFile, importJsonBody } from '@/lib/services/imports/csv-import';
+import { importDosFile } from '@/lib/services/imports/dos-import';
+import { material } from '@/db/schema';
+import { seedCatalogue } from './import-fixtures';
 import { stopJobRunner } from '@/lib/services/jobs/runner';
 import { createWorkerChannel, OFF_LOOP_CHANNEL } from '../../scripts/worker-channel.mjs';
 import { createWorkspaceWith } from '@/tests/support/users';
@@ -87,6 +90,35 @@ describe('value imports in the worker process', () => {
     // And a file sent twice is refused the same way (the duplicate-file rule runs in the worker too).
     await worker();
     expect(await refusal(importOf(s, 'good-again.csv', HEADER + rows))).toMatchObject({ code: 'conflict' });
+  }, 120_000);
+
+  it('takes JSON bodies and DOS files the same way: one outcome, one refusal, through the worker or here', async () => {
+    const ws = await createWorkspaceWith(['contributor']);
+    const cat = await seedCatalogue(ws.workspaceId);
+    await db.update(material).set({ atomsInCell: 4 }).where(eq(material.id, cat.gan.id));
+    const actor = { userId: ws.members.contributor.id, tokenId: null };
+    const json = (rows: unknown[], fileName: string) =>
+      importJsonBody({ workspaceId: ws.workspaceId, actor, role: 'contributor', bytes: new TextEncoder().encode(JSON.stringify({ kind: 'measurements', fileName, rows })) });
+    const row = (value: unknown) => ({ material: 'GaN-wz', quantity: 'frequency', value, unit: 'cm-1', irrep: 'E2(high)', technique: 'raman', source: 'azuhata1995' });
+    // Invented DOS for the test: all weight on one point (an Einstein-like spectrum).
+    const dos = (peak: number) =>
+      ['material,method,source,unit,frequency,density', ...[0, peak - 1, peak, peak + 1].map((f) => `GaN-wz,PBEsol-PAW-600,inhouse-2026,cm-1,${f},${f === peak ? 1 : 0}`)].join('\n') + '\n';
+    const dosImport = (text: string, fileName: string) =>
+      importDosFile({ workspaceId: ws.workspaceId, actor, via: 'api', fileName, temperatures: [298.15], body: (async function* () { yield new TextEncoder().encode(text); })() });
+
+    await worker();
+    const good = await json([row(568.2), row(144.1)], 'good.json');
+    expect(good.importId).not.toBeNull();
+    expect((await db.select({ id: measurement.id }).from(measurement).where(eq(measurement.importId, good.importId!))).length).toBe(2);
+    const dosOutcome = await dosImport(dos(400), 'einstein.csv');
+    expect(dosOutcome).toMatchObject({ dosCount: 1, computedCount: 2 });
+    const badJson = await refusal(json([row('57x'), { ...row(1), material: 'Unobtainium' }], 'bad.json'));
+    const badDos = await refusal(dosImport(dos(400).replace('GaN-wz,', 'Nowhere,'), 'bad-dos.csv'));
+    delete (globalThis as Record<symbol, unknown>)[OFF_LOOP_CHANNEL];
+    expect(await refusal(json([row('57x'), { ...row(1), material: 'Unobtainium' }], 'bad.json'))).toEqual(badJson);
+    expect(await refusal(dosImport(dos(400).replace('GaN-wz,', 'Nowhere,'), 'bad-dos.csv'))).toEqual(badDos);
+    expect(badJson).toMatchObject({ code: 'unprocessable' });
+    expect(badDos).toMatchObject({ code: 'unprocessable' });
   }, 120_000);
 
   it('leaves nothing when the worker dies in the middle of an import, and says so', async () => {

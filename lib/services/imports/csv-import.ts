@@ -1,24 +1,21 @@
 import 'server-only';
-import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import type { ImportActor, ImportOutcome } from '@/db/queries/imports';
-import { commitImport } from './commit-values';
-import { dataChanged } from '@/lib/services/data-changed';
 import { offLoop } from '@/lib/services/off-loop';
 import type { ImportableKind, TableKind } from '@/lib/import/columns';
 import { isCatalogKind } from '@/lib/import/catalog-columns';
 import type { WorkspaceRole } from '@/lib/permissions';
 import { importCatalogTable, importReferenceText, type CatalogImportOutcome, type OnChange } from './catalog-import';
+import { recomputeAfter } from './after-import';
 import type { Prefer } from '@/lib/import/structure-column';
 import { assertCreateMissingPermissions } from './create-missing';
 import { decodeUtf8Strict } from '@/lib/import/decode';
-import { excerpt, MAX_REPORTED_ERRORS, type RowError, importRefusal } from '@/lib/import/errors';
+import { importRefusal } from '@/lib/import/errors';
 import type { ColumnMapping } from '@/lib/import/header';
 import { spool } from '@/lib/import/spool';
-import { jsonTable, openCsvTable } from '@/lib/import/table';
+import { openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
-import { importRequestSchema } from '@/lib/api/schemas';
 
 const READ_CHUNK_BYTES = 1 << 20;
 
@@ -96,54 +93,19 @@ export async function importCsvFile(input: CsvImportInput & { kind: ImportableKi
 
 /**
  * A JSON import body `{ kind, fileName?, units?, rows }`: its bytes are hashed
- * like a file (the same body twice is refused), the rows validated like CSV rows.
+ * like a file (the same body twice is refused), the rows validated like CSV rows
+ * (json-body.ts), in the worker process when one runs: the body is spooled to a
+ * file so only its path crosses.
  */
 export async function importJsonBody(input: { workspaceId: string; actor: ImportActor; role: WorkspaceRole; bytes: Uint8Array }): Promise<ImportOutcome | CatalogImportOutcome> {
-  const text = decodeUtf8Strict(input.bytes, { csv: false });
-  let json: unknown;
+  const spooled = await spool(
+    (async function* () {
+      yield input.bytes;
+    })(),
+  );
   try {
-    json = JSON.parse(text);
-  } catch (e) {
-    throw importRefusal('The body is not valid JSON.', [{ row: 0, column: null, reason: `The body is not valid JSON: ${(e as Error).message}` }]);
+    return await offLoop('import-json', { workspaceId: input.workspaceId, actor: input.actor, role: input.role, path: spooled.path, sha256: spooled.sha256, byteCount: spooled.byteCount });
+  } finally {
+    await spooled.cleanup();
   }
-  const parsed = importRequestSchema.safeParse(json);
-  if (!parsed.success) {
-    // Keys and messages can carry the client's text: list a bounded number, each cut short.
-    const errors: RowError[] = parsed.error.issues.slice(0, MAX_REPORTED_ERRORS).map((issue) => {
-      const [top, index, key] = issue.path;
-      const reason = excerpt(issue.message, 200);
-      if (top === 'rows' && typeof index === 'number') {
-        const column = typeof key === 'string' ? key : issue.code === 'unrecognized_keys' ? issue.keys.slice(0, 5).map((k) => excerpt(k)).join(', ') : null;
-        return { row: index + 1, column: column === null ? null : excerpt(column, 200), reason };
-      }
-      return { row: 0, column: excerpt(issue.path.join('.'), 200) || null, reason };
-    });
-    throw importRefusal('The request body does not match the import schema.', errors, parsed.error.issues.length);
-  }
-  const body = parsed.data;
-  const sha256 = createHash('sha256').update(input.bytes).digest('hex');
-  if (isCatalogKind(body.kind)) {
-    const catalog = body as { kind: typeof body.kind & ('materials' | 'methods' | 'sources'); fileName?: string; onChange?: OnChange; prefer?: Prefer; rows: Array<Record<string, unknown>> };
-    return importCatalogTable(
-      { workspaceId: input.workspaceId, actor: input.actor, role: input.role, via: 'api', kind: catalog.kind, fileName: catalog.fileName ?? null, sha256, byteCount: input.bytes.byteLength, onChange: catalog.onChange, prefer: catalog.prefer },
-      jsonTable(catalog.kind, catalog.rows),
-    );
-  }
-  const values = body as { kind: 'measurements' | 'calculations'; fileName?: string; units?: unknown; createMissing?: boolean; rows: Array<Record<string, unknown>> };
-  if (values.createMissing) assertCreateMissingPermissions(input.role);
-  const outcome = await commitImport({
-    createMissing: values.createMissing,
-    workspaceId: input.workspaceId,
-    actor: input.actor,
-    file: { kind: values.kind, fileName: values.fileName ?? null, sha256, byteCount: input.bytes.byteLength, via: 'api' },
-    table: jsonTable(values.kind, values.rows),
-    units: values.units as DefaultUnits | undefined,
-  });
-  return recomputeAfter(input.workspaceId, input.actor, outcome);
-}
-
-/** New rows may move every benchmark of the workspace: queue their recomputation (a job), never waiting for it. */
-async function recomputeAfter(workspaceId: string, actor: ImportActor, outcome: ImportOutcome): Promise<ImportOutcome> {
-  if (outcome.insertedCount > 0) await dataChanged(workspaceId, { cause: { trigger: 'import', importId: outcome.importId, userId: actor.userId } });
-  return outcome;
 }
