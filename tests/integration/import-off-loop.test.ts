@@ -2,6 +2,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { afterAll, afterEach, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { db } from '@/db/client';
+import { connect } from '@/db/connection';
 import { importBatch, measurement } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { importCsvFile, importJsonBody } from '@/lib/services/imports/csv-import';
@@ -134,4 +135,31 @@ describe('value imports in the worker process', () => {
     const rows = await db.select({ id: measurement.id }).from(measurement).where(eq(measurement.workspaceId, s.w));
     expect(rows).toHaveLength(0);
   }, 120_000);
+});
+
+describe('the write lock during an import', () => {
+  it('is not taken by a file with errors, and a good file takes it only to store its rows', async () => {
+    const s = await workspace();
+    // Another connection (as another process would) holds the write lock for 2 s.
+    const other = connect({ url: process.env.DATABASE_URL! });
+    const holder = await other.transaction('write');
+    await holder.execute({ sql: 'UPDATE organization SET name = name WHERE id = ?', args: [s.w] });
+    const released = new Promise<number>((resolve) =>
+      setTimeout(async () => {
+        await holder.commit();
+        resolve(Date.now());
+      }, 2000),
+    );
+    const start = Date.now();
+    const bad = HEADER + Array.from({ length: 3000 }, (_, i) => line(i)).join('') + line(1, 'abc');
+    expect(await refusal(importOf(s, 'bad-while-locked.csv', bad))).toMatchObject({ code: 'unprocessable', errorCount: 1 });
+    const refusedAfter = Date.now() - start;
+    expect(refusedAfter).toBeLessThan(1900); // answered while the lock was still held by the other connection
+    const good = await importOf(s, 'good-after-lock.csv', HEADER + Array.from({ length: 3000 }, (_, i) => line(i, (300 + i / 100).toFixed(2))).join(''));
+    const storedAt = Date.now();
+    const releasedAt = await released;
+    expect(good.insertedCount).toBe(3000);
+    expect(storedAt).toBeGreaterThanOrEqual(releasedAt); // it waited for the lock instead of failing
+    other.close();
+  }, 60_000);
 });

@@ -1,17 +1,20 @@
 import 'server-only';
 /**
- * Committing a measurements or calculations import: the rows are validated as
- * they stream in (lib/import/row-validator) and stored in chunks inside ONE
- * write transaction with the import row and its audit row (db/queries/imports).
- * Any row error, a duplicate file or any failure rolls everything back; once an
- * error is seen nothing more is stored, but validation goes on so that every
- * error is counted. Rows identical to live rows of the workspace (or to earlier
- * rows of the same file) are skipped and reported.
+ * Committing a measurements or calculations import: every row is validated
+ * first (lib/import/row-validator), with the valid ones staged on disk, and only
+ * then are they stored in chunks inside ONE write transaction with the import row
+ * and its audit row (db/queries/imports). So a file with errors never takes the
+ * write lock, and a good one holds it only while its rows are written. Any row
+ * error, a duplicate file or any failure rolls everything back; validation goes
+ * on after the first error so that every error is counted. Rows identical to
+ * live rows of the workspace (or to earlier rows of the same file) are skipped
+ * and reported.
  */
 import { duplicateFile, findImportBySha, loadImportReferences, openValueImport, type ImportActor, type ImportFileFacts, type ImportOutcome } from '@/db/queries/imports';
 import { insertMaterialRows, insertMethodRows, listRetractedMethodLabels } from '@/db/queries/catalog-import';
 import { MissingCatalog } from '@/lib/import/create-missing';
-import { RowValidator } from '@/lib/import/row-validator';
+import { RowValidator, type PendingRow } from '@/lib/import/row-validator';
+import { StagedChunks } from './staged-rows';
 import type { ImportTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
 
@@ -31,36 +34,47 @@ export async function commitImport(args: {
   const columnName = (key: string) => table.columnName(key);
   const missing = args.createMissing && file.kind === 'calculations' ? new MissingCatalog(references, columnName, await listRetractedMethodLabels(workspaceId)) : undefined;
   const validator = new RowValidator({ kind: file.kind, references, units: args.units, columnName, missing }, references);
-  const writer = await openValueImport(workspaceId, actor, file);
-  let insertedCount = 0;
-  const store = async (rows: Parameters<typeof writer.insertValueRows>[0]) => {
-    if (missing) {
-      const fresh = missing.takeNew();
-      if (fresh.materials.length || fresh.methods.length) {
-        await writer.within(async (raw, tx) => {
-          await insertMaterialRows(raw, workspaceId, writer.importId, actor.userId, fresh.materials);
-          await insertMethodRows(tx, workspaceId, writer.importId, actor.userId, fresh.methods);
-        });
-      }
-    }
-    const { inserted, identical } = await writer.insertValueRows(rows);
-    insertedCount += inserted;
-    for (const d of identical) validator.skipDuplicate(d.row, d.sameFile ? 'Identical to an earlier row of this file; skipped.' : 'Identical to a row already in the workspace; skipped.');
-  };
+  // Every row is validated before the write lock is taken: a file with errors never takes it, and a good one holds
+  // it only while its rows are stored. The valid chunks wait on disk (staged-rows.ts), with the catalogue records
+  // a createMissing import must write before them.
+  type Staged = { rows: PendingRow[]; fresh: ReturnType<MissingCatalog['takeNew']> | null };
+  const staged = await StagedChunks.open<Staged>();
   try {
+    const stage = async (rows: PendingRow[]) => {
+      const fresh = missing ? missing.takeNew() : null;
+      if (rows.length || (fresh && (fresh.materials.length || fresh.methods.length))) await staged.push({ rows, fresh });
+    };
     for await (const rows of table.batches()) {
-      for (const chunk of validator.accept(rows)) await store(chunk);
+      for (const chunk of validator.accept(rows)) await stage(chunk);
     }
-    await store(validator.finish(table.format));
-    await writer.commit(
-      { rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount },
-      missing ? { createMissing: true, createdMaterials: missing.createdMaterialCount, createdMethods: missing.createdMethodCount } : undefined,
-    );
-  } catch (e) {
-    await writer.abort();
-    throw e;
+    await stage(validator.finish(table.format));
+
+    const writer = await openValueImport(workspaceId, actor, file);
+    let insertedCount = 0;
+    try {
+      for await (const { rows, fresh } of staged.chunks()) {
+        if (fresh && (fresh.materials.length || fresh.methods.length)) {
+          await writer.within(async (raw, tx) => {
+            await insertMaterialRows(raw, workspaceId, writer.importId, actor.userId, fresh.materials);
+            await insertMethodRows(tx, workspaceId, writer.importId, actor.userId, fresh.methods);
+          });
+        }
+        const { inserted, identical } = await writer.insertValueRows(rows);
+        insertedCount += inserted;
+        for (const d of identical) validator.skipDuplicate(d.row, d.sameFile ? 'Identical to an earlier row of this file; skipped.' : 'Identical to a row already in the workspace; skipped.');
+      }
+      await writer.commit(
+        { rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount },
+        missing ? { createMissing: true, createdMaterials: missing.createdMaterialCount, createdMethods: missing.createdMethodCount } : undefined,
+      );
+    } catch (e) {
+      await writer.abort();
+      throw e;
+    }
+    const { warnings, warningCount } = validator.warnings();
+    const created = missing ? { createdMaterials: missing.createdMaterialCount, createdMethods: missing.createdMethodCount } : {};
+    return { importId: writer.importId, rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount, duplicates: validator.duplicates, warnings, warningCount, ...created };
+  } finally {
+    await staged.dispose();
   }
-  const { warnings, warningCount } = validator.warnings();
-  const created = missing ? { createdMaterials: missing.createdMaterialCount, createdMethods: missing.createdMethodCount } : {};
-  return { importId: writer.importId, rowCount: validator.rowCount, insertedCount, duplicateCount: validator.duplicateCount, duplicates: validator.duplicates, warnings, warningCount, ...created };
 }
