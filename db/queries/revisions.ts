@@ -66,6 +66,8 @@ export async function revisionBaseline(workspaceId: string, revisionId: string):
  * that writes to an existing one.
  */
 export async function insertRevision(workspaceId: string, benchmarkId: string, record: RevisionRecord): Promise<RevisionHead & { created: boolean }> {
+  // Packed before the write transaction: packing and deflating the pairs takes a few hundred ms, not worth a held lock.
+  const stored = storedSnapshot(record.snapshot);
   return db.transaction(async (tx) => {
     // Inside the write transaction: two processes that computed the same rows store one revision, not two.
     const [latest] = await tx
@@ -84,7 +86,7 @@ export async function insertRevision(workspaceId: string, benchmarkId: string, r
         number: (last ?? 0) + 1,
         fingerprint: record.fingerprint,
         status: 'ready',
-        ...storedSnapshot(record.snapshot),
+        ...stored,
         rowSet: packRowSet(record.rows),
         cause: record.cause,
         completedAt: new Date(),

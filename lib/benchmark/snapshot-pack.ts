@@ -192,8 +192,31 @@ function packPairs(pairs: readonly PairRecord[], fields: string[], ids: Interner
 
 type Decoder = (p: Record<string, unknown>, i: number) => void;
 
+/** Reads an id-list column pair in pair order: each call returns the next pair's list (indices stored as deltas). */
+function listReader(columns: PairColumns['columns'], field: string, ids: readonly string[]): (i: number) => string[] {
+  const lengths = columns[`${field}.length`] as number[];
+  const deltas = columns[`${field}.delta`] as number[];
+  let at = 0;
+  let last = 0;
+  return (i) => {
+    const len = lengths[i];
+    const list: string[] = new Array(len);
+    for (let k = 0; k < len; k++) {
+      last += deltas[at++];
+      list[k] = ids[last];
+    }
+    return list;
+  };
+}
+
+/** Whether pair i has an exception stored for a derived field. */
+function hasException(given: Record<string, unknown> | null | undefined, i: number): given is Record<string, unknown> {
+  return given != null && Object.prototype.hasOwnProperty.call(given, i);
+}
+
 function unpackPairs(packed: PairColumns, ids: readonly string[], strings: readonly string[]): PairRecord[] {
   const { n, fields, columns, exceptions } = packed;
+  if (fields.join(',') === CANONICAL_FIELDS) return unpackCanonical(packed, ids, strings);
   // One decoder per field, built once; a derived field gets a placeholder that keeps the field order and is filled after.
   const decoders: Decoder[] = fields.map((f): Decoder => {
     const col = columns[f] as number[] | undefined;
@@ -214,18 +237,9 @@ function unpackPairs(packed: PairColumns, ids: readonly string[], strings: reado
           p[f] = at < 0 ? null : ids[at];
         };
       case 'ids': {
-        const lengths = columns[`${f}.length`] as number[];
-        const deltas = columns[`${f}.delta`] as number[];
-        let at = 0;
-        let last = 0;
+        const next = listReader(columns, f, ids);
         return (p, i) => {
-          const len = lengths[i];
-          const list: string[] = new Array(len);
-          for (let k = 0; k < len; k++) {
-            last += deltas[at++];
-            list[k] = ids[last];
-          }
-          p[f] = list;
+          p[f] = next(i);
         };
       }
       case 'string':
@@ -248,19 +262,17 @@ function unpackPairs(packed: PairColumns, ids: readonly string[], strings: reado
         };
     }
   });
-  if (fields.join(',') === CANONICAL_FIELDS) return unpackCanonical(packed, ids, strings);
   const given = (f: string) => (fields.includes(f) ? (exceptions[f] ?? {}) : null);
   const keys = given('key');
   const errors = given('error');
   const relative = given('relativeError');
-  const has = (o: Record<string, unknown>, i: number) => Object.prototype.hasOwnProperty.call(o, i);
   const out: PairRecord[] = new Array(n);
   for (let i = 0; i < n; i++) {
     const p: Record<string, unknown> = {};
     for (const decode of decoders) decode(p, i);
-    if (keys) p.key = has(keys, i) ? keys[i] : pairKey(p.methodId as string, p.measurementIds as string[]);
-    if (errors) p.error = has(errors, i) ? errors[i] : (p.calculated as number) - (p.measured as number);
-    if (relative) p.relativeError = has(relative, i) ? relative[i] : (p.error as number) / (p.measured as number);
+    if (keys) p.key = hasException(keys, i) ? keys[i] : pairKey(p.methodId as string, p.measurementIds as string[]);
+    if (errors) p.error = hasException(errors, i) ? errors[i] : (p.calculated as number) - (p.measured as number);
+    if (relative) p.relativeError = hasException(relative, i) ? relative[i] : (p.error as number) / (p.measured as number);
     out[i] = p as unknown as PairRecord;
   }
   return out;
@@ -278,26 +290,10 @@ function unpackCanonical(packed: PairColumns, ids: readonly string[], strings: r
     'methodId', 'materialId', 'label', 'species', 'branch', 'technique', 'basis', 'ambiguous', 'excluded', 'excludedBy', 'outlier',
   ].map(col);
   const [measured, calculated, measuredUncertainty, calculatedUncertainty, temperatureK] = ['measured', 'calculated', 'measuredUncertainty', 'calculatedUncertainty', 'temperatureK'].map(num);
-  const list = (f: string) => {
-    const lengths = col(`${f}.length`);
-    const deltas = col(`${f}.delta`);
-    let at = 0;
-    let last = 0;
-    return (i: number): string[] => {
-      const len = lengths[i];
-      const out: string[] = new Array(len);
-      for (let k = 0; k < len; k++) {
-        last += deltas[at++];
-        out[k] = ids[last];
-      }
-      return out;
-    };
-  };
-  const measurementIds = list('measurementIds');
-  const calculationIds = list('calculationIds');
-  const sourceIds = list('sourceIds');
+  const measurementIds = listReader(c, 'measurementIds', ids);
+  const calculationIds = listReader(c, 'calculationIds', ids);
+  const sourceIds = listReader(c, 'sourceIds', ids);
   const text = (at: number) => (at < 0 ? null : strings[at]);
-  const has = (o: Record<string, unknown> | undefined, i: number) => o !== undefined && Object.prototype.hasOwnProperty.call(o, i);
   const { key: keys, error: errors, relativeError: relative } = exceptions;
   const out: PairRecord[] = new Array(n);
   for (let i = 0; i < n; i++) {
@@ -305,9 +301,9 @@ function unpackCanonical(packed: PairColumns, ids: readonly string[], strings: r
     const calc = calculated[i] as number;
     const method = ids[methodId[i]];
     const mIds = measurementIds(i);
-    const error = has(errors, i) ? (errors[i] as number) : calc - m;
+    const error = hasException(errors, i) ? (errors[i] as number) : calc - m;
     out[i] = {
-      key: has(keys, i) ? (keys[i] as string) : pairKey(method, mIds),
+      key: hasException(keys, i) ? (keys[i] as string) : pairKey(method, mIds),
       methodId: method,
       materialId: ids[materialId[i]],
       measurementIds: mIds,
@@ -315,7 +311,7 @@ function unpackCanonical(packed: PairColumns, ids: readonly string[], strings: r
       measured: m,
       calculated: calc,
       error,
-      relativeError: has(relative, i) ? (relative[i] as number) : error / m,
+      relativeError: hasException(relative, i) ? (relative[i] as number) : error / m,
       measuredUncertainty: measuredUncertainty[i],
       calculatedUncertainty: calculatedUncertainty[i],
       label: text(label[i]),

@@ -3,6 +3,7 @@ import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import type { ImportActor, ImportOutcome } from '@/db/queries/imports';
 import { offLoop } from '@/lib/services/off-loop';
+import { READ_CHUNK_BYTES } from './spooled-values';
 import type { ImportableKind, TableKind } from '@/lib/import/columns';
 import { isCatalogKind } from '@/lib/import/catalog-columns';
 import type { WorkspaceRole } from '@/lib/permissions';
@@ -16,8 +17,6 @@ import type { ColumnMapping } from '@/lib/import/header';
 import { spool } from '@/lib/import/spool';
 import { openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
-
-const READ_CHUNK_BYTES = 1 << 20;
 
 export interface CsvImportInput {
   workspaceId: string;

@@ -1,19 +1,14 @@
 import 'server-only';
 import type { DosImportOutcome } from '@/db/queries/dos-import';
-import type { ImportActor } from '@/db/queries/imports';
+import type { SpooledDos } from './dos-commit';
 import { importRefusal } from '@/lib/import/errors';
 import { spool } from '@/lib/import/spool';
 import { offLoop } from '@/lib/services/off-loop';
 
-export interface DosImportInput {
-  workspaceId: string;
-  actor: ImportActor;
-  via: 'wizard' | 'api';
-  fileName: string | null;
-  temperatures: number[];
+export type DosImportInput = Omit<SpooledDos, 'path' | 'sha256' | 'byteCount'> & {
   /** The file's bytes as they arrive (already limited to IMPORT_MAX_BYTES by the caller). */
   body: AsyncIterable<Uint8Array>;
-}
+};
 
 /**
  * The one server path of a DOS file (wizard and API): spool and hash the bytes,

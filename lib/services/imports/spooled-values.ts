@@ -7,7 +7,8 @@ import { openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
 import { commitImport } from './commit-values';
 
-const READ_CHUNK_BYTES = 1 << 20;
+/** Bytes read from a spooled file at a time. */
+export const READ_CHUNK_BYTES = 1 << 20;
 
 /** A values file already spooled to disk and hashed, and what to do with it: plain data, so it can cross to the worker process. */
 export interface SpooledValueImport {
