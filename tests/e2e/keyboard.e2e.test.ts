@@ -46,8 +46,14 @@ describe('keyboard only', () => {
   });
 
   it('imports a file: choose it, map a column, commit, open the import', async () => {
+    // The wizard asks for the workspace's reference lists once it has hydrated: wait for that answer, so
+    // the keys below reach React's handlers and not only the server-rendered markup (a loaded CI machine
+    // can hydrate well after the load event).
+    const hydrated = page.waitForResponse((r) => r.url().includes('/imports/references'));
     await page.goto(`${base}/w/${DEMO_SLUG}/imports/new`);
+    await hydrated;
     await tabTo(page, (f) => f.label === 'CSV file to import', 'the file input');
+    expect((await focused(page)).label, 'focus stayed on the file input').toBe('CSV file to import');
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
     await chooser.setFiles({ name: 'keyboard-entropy-450K.csv', mimeType: 'text/csv', buffer: Buffer.from(CSV) });
 
