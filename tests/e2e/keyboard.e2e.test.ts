@@ -52,9 +52,13 @@ describe('keyboard only', () => {
     const hydrated = page.waitForResponse((r) => r.url().includes('/imports/references'));
     await page.goto(`${base}/w/${DEMO_SLUG}/imports/new`);
     await hydrated;
+    // Listen for the chooser before tabbing: the listener switches on the browser's file-chooser
+    // interception, and a single key press sent right after it can reach the page first.
+    const chosen = page.waitForEvent('filechooser');
     await tabTo(page, (f) => f.label === 'CSV file to import', 'the file input');
     expect((await focused(page)).label, 'focus stayed on the file input').toBe('CSV file to import');
-    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
+    await page.keyboard.press('Space');
+    const chooser = await chosen;
     await chooser.setFiles({ name: 'keyboard-entropy-450K.csv', mimeType: 'text/csv', buffer: Buffer.from(CSV) });
 
     const mapping = page.locator('#map-temperature_K');
