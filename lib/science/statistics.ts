@@ -21,7 +21,9 @@
  * the origin the left-out residuals are never smaller in norm, so the out-of-sample
  * value is ≥ the in-sample one. It needs at least two clusters; with one cluster, or
  * when the others' Σω² is 0, it is absent. A cluster bootstrap of fewer than two
- * clusters would be a single value, so it is absent too.
+ * clusters would be a single value, so it is absent too. When every calculated value
+ * is 0 (Σω² = 0), no λ fits: λ and every RMSE after scaling are absent and
+ * `scaleFactorUndefined` says why; the other statistics are still returned.
  *
  * Correlations: Pearson r is absent when the measured or the calculated values are
  * all equal (r = s_xy / √(s_xx s_yy) is 0/0), and Lin's concordance when both are the
@@ -59,8 +61,11 @@ export interface ErrorStatistics {
   meanAbsolutePercentageError: number;
   /** mean(|e| / |measured|), a fraction. */
   meanAbsoluteRelativeError: number;
-  scaleFactor: number;
-  rmseAfterScaling: number;
+  /** λ = Σ ων / Σ ω²; absent when every calculated value is 0 (`scaleFactorUndefined` says so). */
+  scaleFactor?: number;
+  rmseAfterScaling?: number;
+  /** Why there is no scale factor, in words. */
+  scaleFactorUndefined?: string;
   /** RMSE after scaling with λ fitted without the pair's own cluster (module header); absent below two clusters. */
   rmseAfterScalingOutOfSample?: number;
   /** Standard error of λ, robust to errors shared within a cluster (scaleFactorStandardError); absent below two clusters. */
@@ -279,13 +284,17 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
     calculatedSquares[i] = calculated[i] * calculated[i];
   }
   const calculatedSquareSum = compensatedSum(calculatedSquares);
-  if (calculatedSquareSum === 0) throw new ScienceInputError('pairs', 'all calculated values are 0; the scale factor is undefined');
-  const lambda = compensatedSum(products) / calculatedSquareSum;
-  for (let i = 0; i < n; i++) {
-    const r = lambda * calculated[i] - measured[i];
-    squares[i] = r * r;
+  // Σω² = 0 (every calculated value is 0): no λ fits, but every other statistic is still defined.
+  const scaling: Pick<ErrorStatistics, 'scaleFactor' | 'rmseAfterScaling'> = {};
+  if (calculatedSquareSum > 0) {
+    const lambda = compensatedSum(products) / calculatedSquareSum;
+    for (let i = 0; i < n; i++) {
+      const r = lambda * calculated[i] - measured[i];
+      squares[i] = r * r;
+    }
+    scaling.scaleFactor = lambda;
+    scaling.rmseAfterScaling = Math.sqrt(compensatedSum(squares) / n);
   }
-  const rmseAfterScaling = Math.sqrt(compensatedSum(squares) / n);
 
   const statistics: ErrorStatistics = {
     n,
@@ -299,8 +308,7 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
     maxAbsoluteErrorIndex,
     meanAbsolutePercentageError: (100 * compensatedSum(relative)) / n,
     meanAbsoluteRelativeError: compensatedSum(relative) / n,
-    scaleFactor: lambda,
-    rmseAfterScaling,
+    ...scaling,
     blandAltman: {
       bias: meanSignedError,
       lower: meanSignedError - BLAND_ALTMAN_Z * standardDeviation,
@@ -313,10 +321,14 @@ export function errorStatistics(pairs: PairValue[], options: ErrorStatisticsOpti
   const shift = moments.meanX - moments.meanY;
   if (moments.sxx / n + moments.syy / n + shift * shift > 0) statistics.concordance = concordanceFromMoments(moments, n);
   else statistics.correlationUndefined = 'measured and calculated are the same constant, so neither Pearson r nor the concordance is defined';
-  const outOfSample = outOfSampleRmseAfterScaling(measured, calculated, clusterOf);
-  if (outOfSample !== undefined) statistics.rmseAfterScalingOutOfSample = outOfSample;
-  const lambdaError = scaleFactorStandardError(calculated, measured, clusterOf);
-  if (lambdaError !== undefined) statistics.scaleFactorStandardError = lambdaError;
+  if (scaling.scaleFactor === undefined) {
+    statistics.scaleFactorUndefined = 'every calculated value is 0, so no scale factor fits';
+  } else {
+    const outOfSample = outOfSampleRmseAfterScaling(measured, calculated, clusterOf);
+    if (outOfSample !== undefined) statistics.rmseAfterScalingOutOfSample = outOfSample;
+    const lambdaError = scaleFactorStandardError(calculated, measured, clusterOf);
+    if (lambdaError !== undefined) statistics.scaleFactorStandardError = lambdaError;
+  }
   if (clusters) {
     const sums = clusterSums(errors, clusterOf);
     statistics.clusterCount = sums.length;

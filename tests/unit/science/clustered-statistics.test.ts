@@ -114,7 +114,7 @@ describe('out-of-sample RMSE after scaling', () => {
           const pairs = rows.map((r) => ({ measured: r.measured, calculated: r.measured * r.factor }));
           const s = errorStatistics(pairs, { bootstrapSamples: 0, clusters: rows.map((r) => r.cluster) });
           if (s.rmseAfterScalingOutOfSample === undefined) return;
-          expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling * (1 - 1e-9));
+          expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling! * (1 - 1e-9));
         },
       ),
       { numRuns: 100 },

@@ -83,6 +83,25 @@ describe('ScienceInputError: invalid input never becomes a silent NaN', () => {
     expect(constant.pearsonR).toBeUndefined();
     expect(constant.correlationUndefined).toMatch(/constant|all equal/);
     for (const [key, value] of Object.entries(constant)) if (typeof value === 'number') expect(Number.isNaN(value), key).toBe(false);
+    // every calculated value 0 (calculations may be ≤ 0): no λ, the reason in words, the rest computed.
+    // Worked case: errors −100, −200, −300 → MAE 200, RMSE √(140000/3) = 216.0247, SD 100.
+    const zeros = errorStatistics(
+      [
+        { measured: 100, calculated: 0 },
+        { measured: 200, calculated: 0 },
+        { measured: 300, calculated: 0 },
+      ],
+      { bootstrapSamples: 0, clusters: ['a', 'b', 'c'] },
+    );
+    expect(zeros.scaleFactor).toBeUndefined();
+    expect(zeros.rmseAfterScaling).toBeUndefined();
+    expect(zeros.rmseAfterScalingOutOfSample).toBeUndefined();
+    expect(zeros.scaleFactorStandardError).toBeUndefined();
+    expect(zeros.scaleFactorUndefined).toMatch(/every calculated value is 0/);
+    expect(zeros.meanAbsoluteError).toBe(200);
+    expect(zeros.rootMeanSquareError).toBeCloseTo(216.0247, 4);
+    expect(zeros.standardDeviation).toBeCloseTo(100, 12);
+    expect(zeros.meanAbsoluteRelativeError).toBe(1);
     expectInputError(() => scaleFactor([1, 2], [1]), 'measured', /same length/);
     expectInputError(() => scaleFactor([0, 0], [1, 2]), 'calculated', /all values are 0/);
   });

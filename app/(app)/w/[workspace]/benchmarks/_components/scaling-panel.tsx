@@ -9,7 +9,7 @@ import { fixed, header, stat } from '@/lib/format';
 export function ScalingPanel({ methods, unit }: { methods: MethodResult[]; unit: string }) {
   const rows = methods.filter((m) => m.statistics);
   if (rows.length === 0) return <p className="text-sm text-ink-muted">No method has enough pairs for a scale factor.</p>;
-  const widest = Math.max(...rows.map((m) => Math.max(m.statistics!.rootMeanSquareError, m.statistics!.rmseAfterScalingOutOfSample ?? m.statistics!.rmseAfterScaling)));
+  const widest = Math.max(...rows.map((m) => Math.max(m.statistics!.rootMeanSquareError, m.statistics!.rmseAfterScalingOutOfSample ?? m.statistics!.rmseAfterScaling ?? 0)));
   const width = (v: number | undefined) => (v === undefined || widest <= 0 ? 0 : Math.max(1, (100 * v) / widest));
   return (
     <div className="space-y-3">
@@ -25,7 +25,13 @@ export function ScalingPanel({ methods, unit }: { methods: MethodResult[]; unit:
               <p className="text-sm font-medium">{m.label}</p>
               <p className="mt-1 text-lg leading-tight" data-stat="scale-factor">
                 <span className="text-ink-muted">λ = </span>
-                <span className="num font-semibold">{stat('scaleFactor', s.scaleFactor)}</span>
+                {s.scaleFactor === undefined ? (
+                  <span className="text-sm text-ink-muted" data-stat="scale-factor-undefined">
+                    none: {s.scaleFactorUndefined ?? 'not fitted in this revision'}
+                  </span>
+                ) : (
+                  <span className="num font-semibold">{stat('scaleFactor', s.scaleFactor)}</span>
+                )}
                 {s.scaleFactorStandardError !== undefined ? (
                   <span className="num text-sm text-ink-muted" data-stat="scale-factor-error">
                     {' '}
@@ -51,7 +57,7 @@ export function ScalingPanel({ methods, unit }: { methods: MethodResult[]; unit:
                 <p className="flex justify-between gap-2 text-ink-muted">
                   <span>{header('RMSE scaled, in sample', unit)}</span>
                   <span className="num" data-stat="rmse-in-sample">
-                    {stat('error', s.rmseAfterScaling)}
+                    {s.rmseAfterScaling === undefined ? <span className="text-ink-faint">—</span> : stat('error', s.rmseAfterScaling)}
                   </span>
                 </p>
               </div>
