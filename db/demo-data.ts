@@ -93,6 +93,13 @@ const entropyRow = z.object({
   temperature_K: optionalNumber,
   source: z.string(),
 });
+const heatCapacityRow = z.object({
+  material: z.string(),
+  heat_capacity_J_per_mol_K: z.string().min(1),
+  temperature_K: z.coerce.number().positive(),
+  source: z.string(),
+});
+const HEAT_CAPACITY_NOTE = 'Cp° recalled from memory of the NIST-JANAF tables, not checked against them (demo data).';
 const methodsFile = z.object({
   seed: z.number().int(),
   methods: z.array(
@@ -110,6 +117,8 @@ const methodsFile = z.object({
       frequencyNoise: z.number(),
       entropyBias: z.number(),
       entropyNoise: z.number(),
+      heatCapacityBias: z.number(),
+      heatCapacityNoise: z.number(),
       overrides: z
         .array(z.object({ material: z.string(), irrep: z.string(), branch: z.string().optional(), nth: z.number().int(), valueCm1: z.number().optional(), scale: z.number().optional() }))
         .default([]),
@@ -139,6 +148,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
   const materials = readCsv('materials.csv', materialRow);
   const modes = readCsv('modes.csv', modeRow);
   const entropies = readCsv('entropies.csv', entropyRow);
+  const heatCapacities = readCsv('heat-capacities.csv', heatCapacityRow);
   const methodsSpec = methodsFile.parse(JSON.parse(readFileSync(fileURLToPath(new URL('methods.json', dataDir)), 'utf8')));
 
   const sourceIds = new Map<string, string>();
@@ -230,8 +240,29 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     });
   }
 
+  for (const c of heatCapacities) {
+    const mat = need(materialIds, c.material, 'material');
+    await tx.insert(measurement).values({
+      workspaceId,
+      materialId: mat.id,
+      sourceId: need(sourceIds, c.source, 'source'),
+      quantity: 'heat-capacity',
+      value: Number(c.heat_capacity_J_per_mol_K),
+      valueText: c.heat_capacity_J_per_mol_K,
+      unit: 'J/mol/K',
+      temperatureK: c.temperature_K,
+      technique: 'calorimetry',
+      sampleForm: 'powder',
+      notes: HEAT_CAPACITY_NOTE,
+      rowHash: demoRowHash(['measurement', c.material, 'heat-capacity', c.heat_capacity_J_per_mol_K, 'J/mol/K', c.temperature_K, c.source]),
+      contributorId: userId,
+    });
+  }
+
   // Methods and their synthetic calculations.
   const random = createRandom(methodsSpec.seed);
+  // heat capacities draw from their own generator, so adding them moved no other synthetic value
+  const heatRandom = createRandom(methodsSpec.seed + 1);
   const synthetic = need(sourceIds, 'demo-synthetic-2026', 'source');
   for (const spec of methodsSpec.methods) {
     const [row] = await tx
@@ -311,6 +342,24 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
         unit: 'J/mol/K',
         temperatureK: e.temperature_K,
         rowHash: demoRowHash(['calculation', e.material, spec.label, 'entropy', text, e.temperature_K]),
+        contributorId: userId,
+      });
+    }
+    for (const c of heatCapacities) {
+      const mat = need(materialIds, c.material, 'material');
+      const cv = Number(c.heat_capacity_J_per_mol_K) * (1 + spec.heatCapacityBias + spec.heatCapacityNoise * gaussian(heatRandom));
+      const text = cv.toFixed(2);
+      values.push({
+        workspaceId,
+        materialId: mat.id,
+        methodId: row.id,
+        sourceId: synthetic,
+        quantity: 'heat-capacity',
+        value: Number(text),
+        valueText: text,
+        unit: 'J/mol/K',
+        temperatureK: c.temperature_K,
+        rowHash: demoRowHash(['calculation', c.material, spec.label, 'heat-capacity', text, c.temperature_K]),
         contributorId: userId,
       });
     }

@@ -79,6 +79,13 @@ const DEMO_BENCHMARKS: BenchmarkDefinitionInput[] = [
     purpose: 'Computed harmonic vibrational entropies against calorimetric standard entropies. Invented demo benchmark.',
     scope: { quantity: 'entropy', entropyTemperatureK: 298.15 },
   },
+  {
+    name: 'Heat capacity at 298 K (demo)',
+    purpose: 'Computed harmonic Cv against calorimetric Cp° (NIST-JANAF values recalled from memory); the synthetic Cv values are invented. Invented demo benchmark.',
+    scope: { quantity: 'heat-capacity', entropyTemperatureK: 298.15 },
+    // eight crystals carry a Cp°: rank from N = 5 rather than the default 10
+    rules: { ranking: { minN: 5 } },
+  },
 ];
 
 async function ensureBenchmark(workspaceId: string, userId: string, definition: BenchmarkDefinitionInput) {

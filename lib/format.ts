@@ -188,7 +188,7 @@ export const CANONICAL_UNIT_SYMBOL: Record<string, string> = {
 };
 
 /** Canonical unit codes of the quantities the importer converts. */
-const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K' };
+const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K' };
 
 /**
  * A stored value as people should read it: the text as typed when it was typed in

@@ -242,6 +242,19 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                         ))}
                       </select>
                     </label>
+                    <label className="space-y-0.5 text-xs font-medium">
+                      Heat-capacity unit
+                      <select
+                        className={inputClass}
+                        value={units['heat-capacity'] ?? ''}
+                        onChange={(e) => setUnits({ ...units, 'heat-capacity': (e.target.value || undefined) as DefaultUnits['heat-capacity'] })}
+                      >
+                        <option value="">— choose —</option>
+                        {ENTROPY_UNITS.map((u) => (
+                          <option key={u}>{u}</option>
+                        ))}
+                      </select>
+                    </label>
                   </div>
                 )}
               </div>

@@ -30,6 +30,7 @@ import {
 } from '@/lib/benchmark/schemas';
 import type { BenchmarkInput, ScopeDecision } from '@/lib/benchmark/types';
 import { runsOf } from '@/lib/benchmark/row-set';
+import { isThermal } from '@/lib/benchmark/quantities';
 import { writeAudit, type Actor } from './audit';
 
 /** A benchmark with its scope, rules and thresholds parsed (defaults filled). */
@@ -227,7 +228,7 @@ function measurementScope(workspaceId: string, scope: BenchmarkScope): SQL {
     ),
   ];
   if (scope.techniques.length) conditions.push(inArray(measurement.technique, scope.techniques));
-  if (scope.quantity === 'entropy') {
+  if (isThermal(scope.quantity)) {
     conditions.push(gte(measurement.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
     conditions.push(lte(measurement.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
   } else {
@@ -329,7 +330,7 @@ function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { ma
     inArray(calculation.methodId, methodIds),
     inArray(calculation.materialId, scopedMaterials),
   ];
-  if (scope.quantity === 'entropy') {
+  if (isThermal(scope.quantity)) {
     calculationWhere.push(gte(calculation.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
     calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
   }
@@ -429,7 +430,7 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
           lstRelative: s.lstRelative,
         }
       : undefined,
-    entropyWindow: scope.quantity === 'entropy' ? { temperatureK: scope.entropyTemperatureK, toleranceK: scope.entropyToleranceK } : undefined,
+    entropyWindow: isThermal(scope.quantity) ? { temperatureK: scope.entropyTemperatureK, toleranceK: scope.entropyToleranceK } : undefined,
     ...(merges.n > 0 ? { sourceMerges: Number(merges.n) } : {}),
     dielectric: [...dielectric.values()].map(({ born, ...d }) => ({
       ...d,

@@ -34,7 +34,11 @@ const createMissingSchema = z
   .meta({ description: 'Calculations: create the materials and methods the rows name but the workspace lacks, from their material_… and method_… columns (needs materials:create and methods:create). Undo retracts them.' });
 
 const defaultUnitsSchema = z
-  .object({ frequency: z.enum(FREQUENCY_UNITS as [string, ...string[]]).optional(), entropy: z.enum(ENTROPY_UNITS as [string, ...string[]]).optional() })
+  .object({
+    frequency: z.enum(FREQUENCY_UNITS as [string, ...string[]]).optional(),
+    entropy: z.enum(ENTROPY_UNITS as [string, ...string[]]).optional(),
+    'heat-capacity': z.enum(ENTROPY_UNITS as [string, ...string[]]).optional(),
+  })
   .meta({ description: 'Unit for rows whose unit cell is empty.' });
 
 const MAX_JSON_ROWS = 1_000_000;
@@ -222,7 +226,7 @@ const valueFields = {
   sourceId: z.string(),
   importId: z.string().nullable(),
   quantity: z.string(),
-  value: z.number().meta({ description: 'Canonical: cm⁻¹ for frequencies, J mol⁻¹ K⁻¹ per formula unit for entropies.' }),
+  value: z.number().meta({ description: 'Canonical: cm⁻¹ for frequencies, J mol⁻¹ K⁻¹ per formula unit for entropies and heat capacities.' }),
   valueText: z.string().meta({ description: 'The number exactly as entered, in `unit`.' }),
   unit: z.string(),
   uncertainty: z.number().nullable(),
@@ -316,8 +320,9 @@ const storedStatisticsSchema = z
     maxAbsoluteErrorPair: z.string(),
     meanAbsolutePercentageError: z.number(),
     meanAbsoluteRelativeError: z.number().optional(),
-    scaleFactor: z.number(),
-    rmseAfterScaling: z.number(),
+    scaleFactor: z.number().optional().meta({ description: 'Least-squares λ through the origin; absent when every calculated value is 0 (scaleFactorUndefined says so).' }),
+    rmseAfterScaling: z.number().optional(),
+    scaleFactorUndefined: z.string().optional(),
   })
   .loose()
   .meta({ title: 'ErrorStatistics', description: 'A method’s statistics on its own included pairs, as the benchmark page shows them (bootstrap intervals and other members as stored).' });

@@ -22,9 +22,13 @@
  * Ranking: ranking.ts (coverage, the ranking rule, common pairs). The rank is the
  * rank on the pairs every ranked method shares.
  *
- * Entropy basis (`rules.entropyBasis`): values are stored per mole of formula units of
- * the reduced formula; 'atom' divides measured and computed values (and their
- * uncertainties) by the atoms of that unit, so Al2O3 no longer weighs five times Al.
+ * Entropy basis (`rules.entropyBasis`, entropy and heat capacity): values are stored per mole
+ * of formula units of the reduced formula; 'atom' divides measured and computed values (and
+ * their uncertainties) by the atoms of that unit, so Al2O3 no longer weighs five times Al.
+ *
+ * Heat capacity pairs like entropy: one measured and one computed value of a material within
+ * the temperature tolerance. The measured value is Cp, the computed one Cv; the snapshot
+ * carries HEAT_CAPACITY_CAUTION and nothing corrects Cp − Cv.
  *
  * Stages: pairing and quality checks run per material (material-stage.ts); finishBenchmark
  * does the rest over every pair, so a caller may keep the stages of unchanged materials.
@@ -48,6 +52,7 @@ import { groupBy, mergeRepeatedMeasurements } from './pair-rows';
 import { pairMaterials, qualityOrder, type MaterialStage } from './material-stage';
 import { rankOnCommonGround } from './ranking';
 import { outlierScaleOf, type BenchmarkRules } from './schemas';
+import { isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from './quantities';
 import { MIN_PAIRS_FOR_STATISTICS } from './statistics-minimum';
 import { fixed, stat } from '@/lib/format';
 import type {
@@ -71,8 +76,22 @@ export const NO_BRANCH = 'no branch given';
 export const ENTROPY_CAUTION =
   'A harmonic vibrational entropy leaves out the volume (quasi-harmonic) term from Cp − Cv, the electronic entropy of metals, and magnetic and configurational entropy; a calorimetric S° holds them all. Compare insulators without magnetic order or disorder, and expect the harmonic value to fall below S° at 298 K.';
 
+/**
+ * What a heat-capacity benchmark compares, shown beside it: calorimetry measures Cp, a harmonic
+ * calculation gives Cv, and Cp − Cv = α² B V_m T (thermodynamics.ts, cpMinusCv) is not corrected.
+ * The 1.4 % (MgO) and 5.5 % (NaCl) at 298 K are worked in tests/unit/science/heat-capacity.test.ts.
+ */
+export const HEAT_CAPACITY_CAUTION =
+  'Calorimetry measures Cp, at constant pressure; a harmonic calculation gives Cv, at constant volume. Cp − Cv = α² B V_m T (α volumetric thermal expansion, B bulk modulus, V_m molar volume) is positive and grows with T: about 1.4 % of Cp for a stiff oxide such as MgO at 298 K and about 5.5 % for NaCl. This benchmark compares the values as stored, without that correction, so expect the harmonic Cv below the measured Cp; metals also carry an electronic term the harmonic value leaves out.';
+
 export function unitOf(quantity: BenchmarkInput['quantity']): string {
-  return quantity === 'frequency' ? 'cm⁻¹' : 'J mol⁻¹ K⁻¹';
+  return QUANTITY_UNIT[quantity];
+}
+
+function cautionOf(quantity: BenchmarkInput['quantity']): string | null {
+  if (quantity === 'entropy') return ENTROPY_CAUTION;
+  if (quantity === 'heat-capacity') return HEAT_CAPACITY_CAUTION;
+  return null;
 }
 
 function pairValue(p: PairRecord): PairValue {
@@ -251,7 +270,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
   const methods = [...context.methods].sort((a, b) => a.label.localeCompare(b.label) || a.id.localeCompare(b.id));
   const methodIds = methods.map((m) => m.id);
   const ordered = [...stages].sort((a, b) => (a.materialId < b.materialId ? -1 : a.materialId > b.materialId ? 1 : 0));
-  const entropyBasis = quantity === 'entropy' ? (rules.entropyBasis ?? 'formula-unit') : undefined;
+  const entropyBasis = isThermal(quantity) ? (rules.entropyBasis ?? 'formula-unit') : undefined;
 
   let pairs: PairRecord[] = [];
   const unpaired = new Map<string, number>();
@@ -337,7 +356,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
     materialRows: materialRows(context.materials, byMethod, qualityRecords),
     ranking,
     entropyBasis,
-    caution: quantity === 'entropy' ? ENTROPY_CAUTION : null,
+    caution: cautionOf(quantity),
     outlierScale,
     qualityNotApplied: notApplied,
     comparisons: comparisons(methodIds, included),
@@ -357,11 +376,11 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
 }
 
 function emptyReason(input: FinishContext, measurements: number, calculations: number): string {
-  const what = input.quantity === 'frequency' ? 'measured frequencies' : 'measured entropies';
+  const what = `measured ${QUANTITY_PLURAL[input.quantity]}`;
   if (input.methods.length === 0) return 'No method is in scope: the benchmark names no method that exists, or the workspace has none.';
   if (measurements === 0) return `No ${what} match the scope.`;
   if (calculations === 0) return `The ${measurements} ${what} in scope have no calculation of the selected methods on the same materials.`;
   return input.quantity === 'frequency'
     ? `No measured peak found a computed mode within the pairing window (±${Math.round(100 * input.rules.maxRelativeDeviation)} %) with a compatible activity and label.`
-    : 'No measured and computed entropy of the same material lie within the temperature tolerance.';
+    : `No measured and computed ${QUANTITY_PLURAL[input.quantity]} of the same material lie within the temperature tolerance.`;
 }

@@ -16,7 +16,10 @@ export function techniqueName(t: string | null): string {
 
 export function describeScope(scope: BenchmarkScope, names: { methods: string[]; materials: string[] }): string {
   const parts: string[] = [];
-  parts.push(scope.quantity === 'frequency' ? 'Γ-point frequencies' : `vibrational entropies at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`);
+  const at = `at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`;
+  if (scope.quantity === 'frequency') parts.push('Γ-point frequencies');
+  else if (scope.quantity === 'entropy') parts.push(`vibrational entropies ${at}`);
+  else parts.push(`heat capacities (measured Cp, computed Cv) ${at}`);
   if (scope.techniques.length) parts.push(`measured by ${scope.techniques.map(techniqueName).join(' or ')}`);
   if (scope.quantity === 'frequency') {
     const { temperatureMinK: lo, temperatureMaxK: hi } = scope;

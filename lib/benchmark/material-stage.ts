@@ -15,6 +15,7 @@
  */
 import { atomsPerReducedFormulaUnit, qualityReport, ScienceInputError } from '@/lib/science';
 import { groupBy, pairEntropies, pairFrequencies, qualityModes } from './pair-rows';
+import { isThermal } from './quantities';
 import type { BenchmarkInput, BenchmarkSnapshot, PairRecord, QualityRecord, ScopeCalculation, ScopeMeasurement } from './types';
 
 type NotApplied = NonNullable<BenchmarkSnapshot['qualityNotApplied']>;
@@ -117,7 +118,7 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
   };
   const window = { temperatureK: 298.15, toleranceK: 1, ...input.entropyWindow };
   const near = (t: number | null) => t !== null && Math.abs(t - window.temperatureK) <= window.toleranceK;
-  const atomBasis = quantity === 'entropy' && (rules.entropyBasis ?? 'formula-unit') === 'atom';
+  const atomBasis = isThermal(quantity) && (rules.entropyBasis ?? 'formula-unit') === 'atom';
 
   const ids = [...new Set([...measurementsOf.keys(), ...calculationsOf.keys()])].sort();
   return ids.map((materialId) => {

@@ -250,7 +250,7 @@ export function pairFrequencies(
   return { pairs, unpaired, pinConflicts };
 }
 
-/** Measured vs computed entropy per material and method at the benchmark temperature. */
+/** Measured vs computed entropy (or heat capacity) per material and method at the benchmark temperature. */
 export function pairEntropies(
   measurements: readonly ScopeMeasurement[],
   calculationsByMaterialMethod: Map<string, ScopeCalculation[]>,

@@ -5,7 +5,7 @@
 import { z } from 'zod';
 
 /** Quantities a benchmark can compare. */
-export const BENCHMARK_QUANTITIES = ['frequency', 'entropy'] as const;
+export const BENCHMARK_QUANTITIES = ['frequency', 'entropy', 'heat-capacity'] as const;
 export type BenchmarkQuantity = (typeof BENCHMARK_QUANTITIES)[number];
 
 /** Measurement techniques as stored on measurement rows. */
@@ -38,9 +38,9 @@ export const scopeSchema = z
     materialIds: z.array(id).max(5000).default([]),
     /** Methods to compare; empty: every method of the workspace. */
     methodIds: z.array(id).max(100).default([]),
-    /** Entropy benchmarks: the temperature at which measured and computed entropies are compared. */
+    /** Entropy and heat-capacity benchmarks: the temperature at which measured and computed values are compared. */
     entropyTemperatureK: z.number().positive().default(298.15),
-    /** Entropy benchmarks: largest |T − entropyTemperatureK| of a row still compared. */
+    /** Entropy and heat-capacity benchmarks: largest |T − entropyTemperatureK| of a row still compared. */
     entropyToleranceK: z.number().min(0).default(1),
   })
   .refine((s) => s.temperatureMinK === null || s.temperatureMaxK === null || s.temperatureMinK <= s.temperatureMaxK, {
@@ -100,7 +100,7 @@ export const rulesSchema = z.object({
     .refine((edges) => edges.every((e, i) => i === 0 || e > edges[i - 1]), 'Band edges must increase.'),
   /** Which methods are ranked (on the pairs every ranked method shares). */
   ranking: rankingRuleSchema.prefault({}),
-  /** Entropy benchmarks: compare per mole of formula units (the reduced formula) or per mole of atoms. */
+  /** Entropy and heat-capacity benchmarks: compare per mole of formula units (the reduced formula) or per mole of atoms. */
   entropyBasis: z.enum(ENTROPY_BASES).default('formula-unit'),
 });
 
@@ -120,9 +120,10 @@ export const alertThresholdsSchema = z.object({
 /**
  * Default absolute MAE change that alerts, per quantity, in its unit: 0.5 cm⁻¹ (below the
  * 1–2 cm⁻¹ resolution of a routine Raman spectrum) and 0.2 J mol⁻¹ K⁻¹ (about twice the
- * ±0.1 uncertainty of the CODATA key-value entropies) — common practice, no single source.
+ * ±0.1 uncertainty of the CODATA key-value entropies; the same for heat capacities, whose
+ * calorimetric uncertainty near 298 K is of the same order) — common practice, no single source.
  */
-export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = { frequency: 0.5, entropy: 0.2 };
+export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = { frequency: 0.5, entropy: 0.2, 'heat-capacity': 0.2 };
 
 /** The thresholds detectShift uses for a benchmark of this quantity (maeCm1 is the alias). */
 export function resolveAlertThresholds(thresholds: AlertThresholds, quantity: BenchmarkQuantity): { maeAbsolute: number; maeRelative: number; nRelative: number } {

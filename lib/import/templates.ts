@@ -46,6 +46,16 @@ const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
       source: 'codata1989',
       notes: 'Standard molar entropy, CODATA Key Values for Thermodynamics (1989)',
     },
+    {
+      material: 'Al2O3-corundum',
+      quantity: 'heat-capacity',
+      value: '79.01',
+      unit: 'J/mol/K',
+      temperature_K: '298.15',
+      technique: 'calorimetry',
+      source: 'janaf1998',
+      notes: 'Cp at 298.15 K, NIST-JANAF Thermochemical Tables (1998); value recalled from memory, check it against the tables',
+    },
   ],
   calculations: [
     {
@@ -82,6 +92,16 @@ const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
       temperature_K: '300',
       source: 'inhouse-pbesol-2026',
       notes: 'example row: invented value',
+    },
+    {
+      material: 'Si',
+      method: 'PBEsol-PAW-600',
+      quantity: 'heat-capacity',
+      value: '19.6',
+      unit: 'J/mol/K',
+      temperature_K: '298.15',
+      source: 'inhouse-pbesol-2026',
+      notes: 'example row: invented harmonic Cv',
     },
   ],
   // Catalogue examples: well-known structures (space groups and atoms per primitive cell

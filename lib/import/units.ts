@@ -28,9 +28,10 @@ export type ImportUnit = FrequencyUnit | EntropyUnit;
 export interface DefaultUnits {
   frequency?: FrequencyUnit;
   entropy?: EntropyUnit;
+  'heat-capacity'?: EntropyUnit;
 }
 
-/** The unit code for a written unit, or null when it is not a unit of that quantity. */
+/** The unit code for a written unit, or null when it is not a unit of that quantity (heat capacities take the entropy units). */
 export function parseUnit(quantity: ImportQuantity, text: string): ImportUnit | null {
   const key = text.trim().toLowerCase().replace(/\s+/g, ' ');
   return quantity === 'frequency' ? (FREQUENCY_ALIASES[key] ?? null) : (ENTROPY_ALIASES[key] ?? null);

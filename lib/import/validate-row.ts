@@ -168,14 +168,16 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     else if (quantity === 'frequency' && isMeasurement && raw <= 0) {
       fail('value', `A measured frequency must be > 0 (got ${excerpt(valueText)}); only calculations may carry zero or imaginary (negative) modes.`, valueText);
       raw = null;
-    } else if (quantity === 'entropy' && raw < 0) {
-      fail('value', `An entropy cannot be negative (got ${excerpt(valueText)}).`, valueText);
+    } else if (quantity !== 'frequency' && raw < 0) {
+      fail('value', `${quantity === 'entropy' ? 'An entropy' : 'A heat capacity'} cannot be negative (got ${excerpt(valueText)}).`, valueText);
       raw = null;
     }
   }
   const uncertainty = isMeasurement ? number('uncertainty', (n) => (n >= 0 ? null : 'An uncertainty must be ≥ 0.')) : null;
   const temperature = number('temperature_K', (n) => (n >= 0 ? null : `A temperature cannot be below 0 K (got ${n}).`));
-  if (quantity === 'entropy' && !temperature && cell('temperature_K') === '') fail('temperature_K', 'An entropy needs its temperature (temperature_K).');
+  if (quantity !== null && quantity !== 'frequency' && !temperature && cell('temperature_K') === '') {
+    fail('temperature_K', `${quantity === 'entropy' ? 'An entropy' : 'A heat capacity'} needs its temperature (temperature_K).`);
+  }
 
   let irrep: string | null = cell('irrep') || null;
   let irrepNormalized: string | null = null;

@@ -45,8 +45,8 @@ export { modifiedZScores, tukeyFences, flagOutliers, isSampleRule, outlierScaleV
 export type { OutlierRule } from './outliers';
 export { compareMethods, wilcoxonSignedRank, WILCOXON_EXACT_MAX_N } from './wilcoxon';
 export type { MethodComparison, WilcoxonResult } from './wilcoxon';
-export { harmonicMode, harmonicFromDos, debyeHeatCapacity } from './thermodynamics';
-export type { HarmonicModeQuantities, HarmonicDosQuantities } from './thermodynamics';
+export { harmonicMode, harmonicFromDos, debyeHeatCapacity, cpMinusCv } from './thermodynamics';
+export type { HarmonicModeQuantities, HarmonicDosQuantities, CpMinusCvInput } from './thermodynamics';
 export { qualityChecks, qualityReport, DEFAULT_QUALITY_THRESHOLDS } from './quality';
 export type { QualityInput, QualityFlag, QualityThresholds, QualityNotApplied, QualityReport } from './quality';
 export { detectShift, DEFAULT_SHIFT_THRESHOLDS } from './shift';

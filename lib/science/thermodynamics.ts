@@ -4,6 +4,9 @@
  *   C_v/k_B = x² eˣ/(eˣ − 1)²,  S/k_B = x/(eˣ − 1) − ln(1 − e⁻ˣ),
  *   U/(k_B T) = x/2 + x/(eˣ − 1),  F/(k_B T) = x/2 + ln(1 − e⁻ˣ).
  * Written with expm1/log1p so that no term overflows or cancels at large or small x.
+ *
+ * A harmonic calculation gives Cv; calorimetry measures Cp. cpMinusCv gives the gap,
+ * Cp − Cv = α_V² B_T V_m T, from the material's expansion, bulk modulus and molar volume.
  */
 import { AVOGADRO_CONSTANT_PER_MOL, JOULE_PER_CM1, KELVIN_PER_CM1, MOLAR_GAS_CONSTANT_J_PER_MOL_K } from './constants';
 import { ScienceInputError, requireFinite, requireNonNegative, requirePositive } from './errors';
@@ -138,4 +141,29 @@ export function debyeHeatCapacity(temperatureK: number, debyeTemperatureK: numbe
   const integral = (sum * h) / 3;
   const t = temperatureK / debyeTemperatureK;
   return 3 * t * t * t * integral;
+}
+
+/** Inputs of cpMinusCv, in the units a handbook gives them. */
+export interface CpMinusCvInput {
+  /** Volumetric thermal expansion α_V = (1/V)(∂V/∂T)_p, K⁻¹ (three times the linear coefficient of a cubic crystal). */
+  volumetricExpansionPerK: number;
+  /** Isothermal bulk modulus B_T, GPa. */
+  bulkModulusGPa: number;
+  /** Molar volume V_m, cm³ mol⁻¹ (per mole of formula units). */
+  molarVolumeCm3PerMol: number;
+  temperatureK: number;
+}
+
+/**
+ * Cp − Cv = α_V² B_T V_m T, in J mol⁻¹ K⁻¹ (per mole of formula units): the exact
+ * thermodynamic identity, not an approximation. It is what separates a calorimetric Cp
+ * from a harmonic Cv; it needs all three material properties at the temperature T.
+ */
+export function cpMinusCv(input: CpMinusCvInput): number {
+  requireFinite('volumetricExpansionPerK', input.volumetricExpansionPerK);
+  requirePositive('bulkModulusGPa', input.bulkModulusGPa);
+  requirePositive('molarVolumeCm3PerMol', input.molarVolumeCm3PerMol);
+  requireNonNegative('temperatureK', input.temperatureK);
+  const alpha = input.volumetricExpansionPerK;
+  return alpha * alpha * (input.bulkModulusGPa * 1e9) * (input.molarVolumeCm3PerMol * 1e-6) * input.temperatureK;
 }

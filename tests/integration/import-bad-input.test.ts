@@ -77,6 +77,9 @@ describe('bad input is refused with row, column and reason, and writes nothing',
         'Si,frequency,520,cm-1,,-4,azuhata1995',
         'Si,frequency,520,cm-1,-1,300,azuhata1995',
         'Si,entropy,20,J/mol/K,,,azuhata1995',
+        'Si,heat-capacity,20,J/mol/K,,,azuhata1995',
+        'Si,heat-capacity,-2,J/mol/K,,298.15,azuhata1995',
+        'Si,heat-capacity,20,cm-1,,298.15,azuhata1995',
       ].join('\n'),
     );
     expect(errors).toEqual([
@@ -86,6 +89,9 @@ describe('bad input is refused with row, column and reason, and writes nothing',
       { row: 5, column: 'temperature_K', reason: 'A temperature cannot be below 0 K (got -4).', value: '-4' },
       { row: 6, column: 'uncertainty', reason: 'An uncertainty must be ≥ 0.', value: '-1' },
       { row: 7, column: 'temperature_K', reason: 'An entropy needs its temperature (temperature_K).' },
+      { row: 8, column: 'temperature_K', reason: 'A heat capacity needs its temperature (temperature_K).' },
+      { row: 9, column: 'value', reason: 'A heat capacity cannot be negative (got -2).', value: '-2' },
+      { row: 10, column: 'unit', reason: 'Unknown heat-capacity unit "cm-1"; use one of J/mol/K, J/mol-atom/K, kB/atom, kB/fu, cal/mol/K.', value: 'cm-1' },
     ]);
   });
 

@@ -7,6 +7,7 @@
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
+import { atomsPerReducedFormulaUnit, MOLAR_GAS_CONSTANT_J_PER_MOL_K } from '@/lib/science';
 
 function csv(file: string): Array<Record<string, string>> {
   return Papa.parse<Record<string, string>>(readFileSync(`data/demo/${file}`, 'utf8'), { header: true, skipEmptyLines: true }).data;
@@ -56,6 +57,23 @@ const MODELLED_ON: Record<string, number[]> = {
 };
 
 describe('demo data', () => {
+  it('gives each Cp° a known material and source, at 298.15 K, between 0 and the Dulong–Petit 3R per atom (+15 % for Cp − Cv and electrons)', () => {
+    const sources = new Set(csv('sources.csv').map((r) => r.cite_key));
+    const formulaOf = new Map(materials.map((m) => [m.name, m.formula]));
+    const rows = csv('heat-capacities.csv');
+    expect(rows.length).toBeGreaterThanOrEqual(5);
+    for (const r of rows) {
+      expect(formulaOf.has(r.material), r.material).toBe(true);
+      expect(sources.has(r.source), r.source).toBe(true);
+      expect(Number(r.temperature_K)).toBe(298.15);
+      const cp = Number(r.heat_capacity_J_per_mol_K);
+      // 3R per mole of atoms is the classical (high-T) limit of Cv; R from CODATA 2018
+      const limit = 3 * MOLAR_GAS_CONSTANT_J_PER_MOL_K * atomsPerReducedFormulaUnit(formulaOf.get(r.material)!) * 1.15;
+      expect(cp, r.material).toBeGreaterThan(0);
+      expect(cp, r.material).toBeLessThan(limit);
+    }
+  });
+
   it('keeps every invented frequency at least 4 % away from the textbook value it was modelled on', () => {
     for (const [material, textbook] of Object.entries(MODELLED_ON)) {
       const invented = modes.filter((m) => m.material === material && m.source === 'demo-invented-2026').map((m) => Number(m.measured_cm1));

@@ -104,7 +104,7 @@ describe('ranking on common ground', () => {
     expect(s.bootstrap!.resampled).toBe('clusters');
     expect(s.bootstrap!.clusterCount).toBe(12);
     expect(s.clusterCount).toBe(12);
-    expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling);
+    expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling!);
   });
 
   it('lists each material of a method, worst first, and breaks down by species, branch and technique', () => {
@@ -199,5 +199,69 @@ describe('a group whose measured values are all equal', () => {
     expect(s.meanAbsoluteError).toBeCloseTo(20 / 3, 12);
     expect(s.pearsonR).toBeUndefined();
     expect(s.correlationUndefined).toMatch(/measured values are all equal/);
+  });
+});
+
+describe('a group whose calculated values are all 0', () => {
+  it('gets its statistics without a scale factor, and the reason, instead of poisoning the recomputation', () => {
+    // Entropies (frequency pairing drops computed values ≤ 0, entropy pairing keeps them). Measured S°(298.15 K):
+    // Al 28.30, Ag 42.55, Cu 33.15 J mol⁻¹ K⁻¹ (CODATA Key Values, Cox, Wagman & Medvedev 1989; Cu from memory);
+    // the computed 0s are invented.
+    const materials = [
+      { id: 'al', name: 'Al', formula: 'Al', atomsInCell: 1, tags: [] },
+      { id: 'ag', name: 'Ag', formula: 'Ag', atomsInCell: 1, tags: [] },
+      { id: 'cu', name: 'Cu', formula: 'Cu', atomsInCell: 1, tags: [] },
+    ];
+    const measured = { al: 28.3, ag: 42.55, cu: 33.15 };
+    const measurements = materials.map((m) => meas(m.id, measured[m.id as keyof typeof measured], null, { temperatureK: 298.15, technique: 'calorimetry' }));
+    const calculations = materials.map((m) => calc('Z', m.id, 0, null, { temperatureK: 298.15, activity: null }));
+    const snap = computeBenchmark(
+      input({ quantity: 'entropy', materials, measurements, calculations, methods: [{ id: 'Z', label: 'Method Z', kGrid: null, qGrid: null }], rules: readRules({ bootstrapSamples: 0 }), entropyWindow: { temperatureK: 298.15, toleranceK: 1 } }),
+    );
+    const s = snap.methods[0].statistics!;
+    expect(snap.methods[0].n).toBe(3);
+    expect(s.meanAbsoluteError).toBeCloseTo((28.3 + 42.55 + 33.15) / 3, 12);
+    expect(s.meanSignedError).toBeCloseTo(-(28.3 + 42.55 + 33.15) / 3, 12);
+    expect(s.scaleFactor).toBeUndefined();
+    expect(s.rmseAfterScaling).toBeUndefined();
+    expect(s.scaleFactorUndefined).toMatch(/every calculated value is 0/);
+  });
+});
+
+describe('heat capacity', () => {
+  // Cp°(298.15 K): Al 24.20, Ag 25.35, MgO 37.24 J mol⁻¹ K⁻¹ (NIST-JANAF, Chase 1998; from memory); computed Cv invented.
+  const materials = [
+    { id: 'al', name: 'Al', formula: 'Al', atomsInCell: 1, tags: [] },
+    { id: 'ag', name: 'Ag', formula: 'Ag', atomsInCell: 1, tags: [] },
+    { id: 'mgo', name: 'MgO', formula: 'Mg2O2', atomsInCell: 2, tags: [] },
+  ];
+  const cp = { al: 24.2, ag: 25.35, mgo: 37.24 };
+  const measurements = materials.map((m) => meas(m.id, cp[m.id as keyof typeof cp], null, { temperatureK: 298.15, technique: 'calorimetry' }));
+  // Cv 1, 0.5 and 2 J mol⁻¹ K⁻¹ below Cp; a Cv at 400 K (outside the window) must not pair
+  const calculations = [
+    calc('A', 'al', 23.2, null, { temperatureK: 298.15, activity: null }),
+    calc('A', 'ag', 24.85, null, { temperatureK: 298.15, activity: null }),
+    calc('A', 'mgo', 35.24, null, { temperatureK: 298.15, activity: null }),
+    calc('A', 'mgo', 41.0, null, { temperatureK: 400, activity: null }),
+  ];
+  const run = (entropyBasis: 'formula-unit' | 'atom') =>
+    computeBenchmark(
+      input({ quantity: 'heat-capacity', materials, measurements, calculations, methods: [{ id: 'A', label: 'A', kGrid: null, qGrid: null }], rules: readRules({ bootstrapSamples: 0, entropyBasis }), entropyWindow: { temperatureK: 298.15, toleranceK: 1 } }),
+    );
+
+  it('pairs one Cp with the Cv of the same material at the benchmark temperature, in J mol⁻¹ K⁻¹, with the Cp/Cv caution', () => {
+    const snap = run('formula-unit');
+    const s = snap.methods[0].statistics!;
+    expect(snap.unit).toBe('J mol⁻¹ K⁻¹');
+    expect(snap.methods[0].n).toBe(3);
+    expect(s.meanSignedError).toBeCloseTo(-(1 + 0.5 + 2) / 3, 12);
+    expect(s.maxAbsoluteError).toBeCloseTo(2, 12);
+    expect(snap.caution).toMatch(/Calorimetry measures Cp.*harmonic calculation gives Cv/);
+    expect(snap.entropyBasis).toBe('formula-unit');
+  });
+
+  it('per atom divides by the atoms of the reduced formula (Mg2O2 → MgO: 2), as for entropies', () => {
+    const s = run('atom').methods[0].statistics!;
+    expect(s.meanAbsoluteError).toBeCloseTo((1 + 0.5 + 2 / 2) / 3, 12);
   });
 });

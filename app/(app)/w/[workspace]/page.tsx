@@ -6,6 +6,8 @@ import { listImports } from '@/db/queries/imports';
 import { Panel } from '@/components/ui/panel';
 import { ROLE_DESCRIPTIONS } from '@/lib/permissions';
 import { count, stat, withUnit } from '@/lib/format';
+import { QUANTITY_UNIT } from '@/lib/benchmark/quantities';
+import type { BenchmarkQuantity } from '@/lib/benchmark/schemas';
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 
@@ -60,7 +62,7 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
                   <span className="block text-xs text-ink-muted">
                     {b.best ? (
                       <>
-                        best MAE <span className="num">{withUnit(stat('error', b.best.mae), b.quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹')}</span> ({b.best.label},{' '}
+                        best MAE <span className="num">{withUnit(stat('error', b.best.mae), QUANTITY_UNIT[b.quantity as BenchmarkQuantity] ?? '')}</span> ({b.best.label},{' '}
                         {b.best.common ? `on the N = ${count(b.best.n)} pairs the ${b.best.ranked} ranked methods share` : `N = ${count(b.best.n)}`}
                         {b.best.coverage != null ? `, coverage ${Math.round(100 * b.best.coverage)} %` : ''}) · {b.best.ranked} of {b.methodCount} methods ranked · revision {b.revisionNumber}
                       </>

@@ -5,6 +5,8 @@ import { listBenchmarks } from '@/db/queries/benchmarks';
 import { EmptyState } from '@/components/ui/panel';
 import { buttonClass } from '@/components/ui/button';
 import { CANONICAL_UNIT_SYMBOL, count, header, stat, withUnit } from '@/lib/format';
+import { QUANTITY_TITLE } from '@/lib/benchmark/quantities';
+import type { BenchmarkQuantity } from '@/lib/benchmark/schemas';
 
 export const metadata = { title: 'Benchmarks' };
 
@@ -51,7 +53,7 @@ export default async function BenchmarksPage({ params }: { params: Promise<{ wor
                   </Link>
                   {b.purpose ? <span className="block text-xs text-ink-muted">{b.purpose}</span> : null}
                 </td>
-                <td className="px-3 py-2">{b.quantity === 'frequency' ? 'Γ-point frequency' : 'Vibrational entropy'}</td>
+                <td className="px-3 py-2">{QUANTITY_TITLE[b.quantity as BenchmarkQuantity] ?? b.quantity}</td>
                 <td className="num px-3 py-2">{b.revisionNumber ?? '—'}</td>
                 <td className="num px-3 py-2">
                   {b.methodCount} · {count(b.pairCount)}

@@ -25,7 +25,7 @@ export const benchmarkFormSchema = z.object({
   materialTags: commaList,
   materialIds: list(z.string().min(1)),
   methodIds: list(z.string().min(1)),
-  entropyTemperatureK: optionalNumber('The entropy temperature'),
+  entropyTemperatureK: optionalNumber('The comparison temperature'),
   entropyToleranceK: optionalNumber('The temperature tolerance'),
   maxRelativeDeviationPercent: optionalNumber('The pairing window'),
   labelledMaxRelativeDeviationPercent: optionalNumber('The labelled pairing window'),

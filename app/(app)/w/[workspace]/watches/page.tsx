@@ -10,6 +10,7 @@ import { EmptyState, Panel } from '@/components/ui/panel';
 import { WatchSettingsForm } from '@/app/(app)/w/[workspace]/watches/_components/watch-settings-form';
 import { UnwatchButton } from '@/app/(app)/w/[workspace]/watches/_components/unwatch-button';
 import { WebhookForm } from '@/app/(app)/w/[workspace]/watches/_components/webhook-form';
+import type { BenchmarkQuantity } from '@/lib/benchmark/schemas';
 
 export const metadata: Metadata = { title: 'My watches' };
 
@@ -70,8 +71,8 @@ export default async function WatchesPage({ params }: { params: Promise<{ worksp
                   <WatchSettingsForm
                     workspaceId={ctx.workspace.id}
                     watch={{ id: w.id, mode: w.mode, thresholds: readWatchThresholds(w.thresholds) }}
-                    defaults={readAlertThresholds(w.benchmarkThresholds, w.benchmarkQuantity as 'frequency' | 'entropy')}
-                    unit={unitOf(w.benchmarkQuantity as 'frequency' | 'entropy')}
+                    defaults={readAlertThresholds(w.benchmarkThresholds, w.benchmarkQuantity as BenchmarkQuantity)}
+                    unit={unitOf(w.benchmarkQuantity as BenchmarkQuantity)}
                   />
                 )}
                 {stopped ? null : <WebhookForm workspaceId={ctx.workspace.id} watch={{ id: w.id, url: w.webhookUrl, secretCreatedAt: w.webhookSecretCreatedAt }} />}

@@ -7,6 +7,7 @@ import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
 import { DEFAULT_MAE_ABSOLUTE, DEFAULT_OUTLIER_THRESHOLDS, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
 import { techniqueName } from '@/lib/benchmark/describe';
+import { isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from '@/lib/benchmark/quantities';
 
 const RULE_NAMES: Record<(typeof OUTLIER_RULE_KINDS)[number], string> = {
   'modified-z': 'Modified z-score |M| > threshold (Iglewicz–Hoaglin, default 3.5)',
@@ -53,8 +54,12 @@ export function BenchmarkForm({
         <SelectField label="Quantity" name="quantity" value={quantity} onChange={(ev) => setQuantity(ev.target.value as typeof quantity)} errors={e.quantity ?? e['scope.quantity']}>
           <option value="frequency">Γ-point mode frequency</option>
           <option value="entropy">Vibrational entropy at T</option>
+          <option value="heat-capacity">Heat capacity at T (measured Cp against computed Cv)</option>
         </SelectField>
-        {quantity === 'entropy' ? (
+        {quantity === 'heat-capacity' ? (
+          <p className="text-xs text-ink-muted">Calorimetry measures Cp; a harmonic calculation gives Cv, which lies below it by α² B V_m T. The benchmark compares them without that correction and says so on its page.</p>
+        ) : null}
+        {isThermal(quantity) ? (
           <div className="grid grid-cols-2 gap-3">
             <TextField label="Temperature (K)" name="entropyTemperatureK" type="number" step="any" defaultValue={scope.entropyTemperatureK} errors={e.entropyTemperatureK} />
             <TextField label="Tolerance (K)" name="entropyToleranceK" type="number" step="any" defaultValue={scope.entropyToleranceK} errors={e.entropyToleranceK} />
@@ -189,8 +194,8 @@ export function BenchmarkForm({
             hint="Coverage = paired / measured values in scope. Below either rule a method is listed, not ranked."
           />
         </div>
-        {quantity === 'entropy' ? (
-          <SelectField label="Compare entropies" name="entropyBasis" defaultValue={rules.entropyBasis} errors={e.entropyBasis}>
+        {isThermal(quantity) ? (
+          <SelectField label={`Compare ${QUANTITY_PLURAL[quantity]}`} name="entropyBasis" defaultValue={rules.entropyBasis} errors={e.entropyBasis}>
             <option value="formula-unit">Per mole of formula units (the reduced formula: per GaN, not Ga2N2)</option>
             <option value="atom">Per mole of atoms (every material weighs alike)</option>
           </SelectField>
@@ -206,7 +211,7 @@ export function BenchmarkForm({
         <legend className="text-sm font-semibold">Alert thresholds (defaults for watchers)</legend>
         <div className="grid grid-cols-3 gap-3">
           <TextField
-            label={`MAE change (${quantity === 'entropy' ? 'J mol⁻¹ K⁻¹' : 'cm⁻¹'})`}
+            label={`MAE change (${QUANTITY_UNIT[quantity]})`}
             name="alertMaeAbsolute"
             type="number"
             step="any"

@@ -15,7 +15,8 @@ import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
 import { ScalingPanel } from './scaling-panel';
 import { MaterialTable } from './material-table';
-import { ENTROPY_CAUTION } from '@/lib/benchmark/compute';
+import { ENTROPY_CAUTION, HEAT_CAPACITY_CAUTION } from '@/lib/benchmark/compute';
+import { isThermal } from '@/lib/benchmark/quantities';
 import { BreakdownTable } from './breakdown-table';
 import { BenchmarkPlots } from './benchmark-plots';
 import { MethodComparison } from './method-comparison';
@@ -148,9 +149,9 @@ export async function BenchmarkView({
         <DiscussButton workspaceId={workspace.id} subject={{ kind: 'revision', id: rev.id, benchmarkId: bm.id }} title={`revision ${rev.number}`} threads={threads.get(`revision|${rev.id}`) ?? []} can={can} />
       </div>
       {watcher}
-      {snap.quantity === 'entropy' ? (
+      {isThermal(snap.quantity) ? (
         <Notice tone="warn">
-          <span data-testid="entropy-caution">{snap.caution ?? ENTROPY_CAUTION}</span>{' '}
+          <span data-testid={snap.quantity === 'entropy' ? 'entropy-caution' : 'heat-capacity-caution'}>{snap.caution ?? (snap.quantity === 'entropy' ? ENTROPY_CAUTION : HEAT_CAPACITY_CAUTION)}</span>{' '}
           <span data-testid="entropy-basis">
             {snap.entropyBasis === 'atom'
               ? 'Values are compared per mole of atoms (each formula-unit value divided by the atoms of the reduced formula), so every material weighs alike.'

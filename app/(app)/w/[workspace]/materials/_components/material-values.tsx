@@ -91,20 +91,42 @@ function ModesTable({ modes }: { modes: ComputedModeRow[] }) {
   );
 }
 
-function EntropyTable({ slug, values }: { slug: string; values: MaterialValues }) {
+const THERMAL = {
+  entropy: { title: 'Vibrational entropy (per formula unit)', symbol: 'S', measured: 'Measured' },
+  'heat-capacity': { title: 'Heat capacity (per formula unit): measured Cp, computed Cv', symbol: 'C', measured: 'Measured (Cp)' },
+} as const;
+
+/** Measured and computed entropies, or heat capacities, of the material by temperature. */
+function ThermalTable({ slug, values, quantity }: { slug: string; values: MaterialValues; quantity: keyof typeof THERMAL }) {
+  const text = THERMAL[quantity];
+  const measured = quantity === 'entropy' ? values.entropies : values.heatCapacities;
   const rows = [
-    ...values.entropies.map((e) => ({ id: e.id, series: 'Measured', t: e.temperatureK, s: shown(e.value, e.valueText, e.unit, 'J/mol/K'), u: shown(e.uncertainty, e.uncertaintyText, e.unit, 'J/mol/K'), sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
-    ...values.methods.flatMap((m) => m.entropies.map((e) => ({ id: e.id, series: m.methodLabel, t: e.temperatureK, s: shown(e.value, e.valueText, e.unit, 'J/mol/K'), u: '–', sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps }))),
+    ...measured.map((e) => ({ id: e.id, series: text.measured, t: e.temperatureK, s: shown(e.value, e.valueText, e.unit, 'J/mol/K'), u: shown(e.uncertainty, e.uncertaintyText, e.unit, 'J/mol/K'), sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+    ...values.methods.flatMap((m) =>
+      (quantity === 'entropy' ? m.entropies : m.heatCapacities).map((e) => ({
+        id: e.id,
+        series: quantity === 'entropy' ? m.methodLabel : `${m.methodLabel} (Cv)`,
+        t: e.temperatureK,
+        s: shown(e.value, e.valueText, e.unit, 'J/mol/K'),
+        u: '–',
+        sourceId: e.sourceId,
+        citeKey: e.citeKey,
+        sourceGaps: e.sourceGaps,
+      })),
+    ),
   ].sort((a, b) => (a.t ?? 0) - (b.t ?? 0) || a.series.localeCompare(b.series));
   if (rows.length === 0) return null;
   return (
-    <Panel title="Vibrational entropy (per formula unit)">
+    <Panel title={text.title}>
+      {quantity === 'heat-capacity' ? (
+        <p className="mb-2 max-w-2xl text-xs text-ink-muted">Calorimetry gives Cp; a harmonic calculation gives Cv, which is smaller by α² B V_m T (about 1.4 % for MgO, 5.5 % for NaCl at 298 K). The values are shown as stored, uncorrected.</p>
+      ) : null}
       <table className="w-full max-w-2xl text-sm">
         <thead className="text-left text-xs text-ink-muted">
           <tr>
             <th className={th}>Measured / method</th>
             <th className={thNum}>{header('T', 'K')}</th>
-            <th className={thNum}>{header('S', 'J mol⁻¹ K⁻¹')}</th>
+            <th className={thNum}>{header(text.symbol, 'J mol⁻¹ K⁻¹')}</th>
             <th className={thNum}>{header('±', 'J mol⁻¹ K⁻¹')}</th>
             <th className="py-1 font-medium">Source</th>
           </tr>
@@ -130,7 +152,7 @@ function EntropyTable({ slug, values }: { slug: string; values: MaterialValues }
 
 /** Measured peaks beside the selected method's computed modes, the stick spectrum of both, and entropies. */
 export function MaterialValuesSection({ slug, materialId, materialName, values, selectedMethodId }: { slug: string; materialId: string; materialName: string; values: MaterialValues; selectedMethodId?: string }) {
-  const hasAny = values.peaks.length + values.entropies.length + values.methods.length > 0;
+  const hasAny = values.peaks.length + values.entropies.length + values.heatCapacities.length + values.methods.length > 0;
   if (!hasAny) {
     return (
       <EmptyState title="No measurements or calculations yet">
@@ -188,7 +210,8 @@ export function MaterialValuesSection({ slug, materialId, materialName, values, 
           </div>
         </Panel>
       )}
-      <EntropyTable slug={slug} values={values} />
+      <ThermalTable slug={slug} values={values} quantity="entropy" />
+      <ThermalTable slug={slug} values={values} quantity="heat-capacity" />
     </div>
   );
 }

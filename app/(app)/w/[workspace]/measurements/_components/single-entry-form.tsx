@@ -40,7 +40,7 @@ function Options({ values, blank = '—' }: { values: readonly string[]; blank?:
  */
 export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMaterial = '' }: { workspaceId: string; slug: string; kind: ImportableKind; choices: EntryChoices; initialMaterial?: string }) {
   const [state, dispatch, pending] = useActionState<ActionState, FormData>(createSingleEntryAction, { ok: false });
-  const [quantity, setQuantity] = useState<'frequency' | 'entropy'>('frequency');
+  const [quantity, setQuantity] = useState<'frequency' | 'entropy' | 'heat-capacity'>('frequency');
   const [material, setMaterial] = useState(initialMaterial);
   const formRef = useRef<HTMLFormElement>(null);
   const errors = state.fieldErrors ?? {};
@@ -88,9 +88,10 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
             <Options values={choices.methods.map((m) => m.label)} blank="— choose —" />
           </SelectField>
         )}
-        <SelectField label="Quantity" name="quantity" required value={quantity} onChange={(e) => setQuantity(e.target.value as 'frequency' | 'entropy')} errors={errors.quantity}>
+        <SelectField label="Quantity" name="quantity" required value={quantity} onChange={(e) => setQuantity(e.target.value as 'frequency' | 'entropy' | 'heat-capacity')} errors={errors.quantity}>
           <option value="frequency">{measured ? 'frequency (a peak)' : 'frequency (a mode)'}</option>
           <option value="entropy">entropy</option>
+          <option value="heat-capacity">{measured ? 'heat capacity (Cp)' : 'heat capacity (harmonic Cv)'}</option>
         </SelectField>
         <TextField label="Source (cite key)" name="source" list="entry-sources" autoComplete="off" required errors={errors.source} hint="e.g. azuhata1995; add a source first if it is new." />
       </fieldset>
@@ -124,10 +125,10 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
 
       <fieldset className={`grid gap-4 ${measured ? 'sm:grid-cols-4' : 'sm:grid-cols-3'}`}>
         <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">Conditions</legend>
-        <TextField label="Temperature (K)" name="temperature_K" inputMode="decimal" errors={errors.temperature_K} hint={quantity === 'entropy' ? 'Required for an entropy.' : undefined} />
+        <TextField label="Temperature (K)" name="temperature_K" inputMode="decimal" errors={errors.temperature_K} hint={quantity === 'entropy' ? 'Required for an entropy.' : quantity === 'heat-capacity' ? 'Required for a heat capacity.' : undefined} />
         {measured && (
           <>
-            <SelectField label="Technique" name="technique" defaultValue={quantity === 'entropy' ? 'calorimetry' : 'raman'} errors={errors.technique}>
+            <SelectField key={quantity === 'frequency' ? 'peak' : 'thermal'} label="Technique" name="technique" defaultValue={quantity === 'frequency' ? 'raman' : 'calorimetry'} errors={errors.technique}>
               <Options values={TECHNIQUE_VALUES} />
             </SelectField>
             {quantity === 'frequency' && <TextField label="Laser (nm)" name="laser_nm" inputMode="decimal" errors={errors.laser_nm} />}

@@ -1,0 +1,79 @@
+/**
+ * The demo heat-capacity benchmark: measured Cp against computed Cv at 298.15 K shows a
+ * leaderboard whose MAE per method equals one computed here, independently, from the
+ * stored rows; the page says that Cp and Cv differ and that nothing corrects it; a
+ * material page lists both. Demo rows: Cp° recalled from NIST-JANAF, Cv synthetic.
+ */
+import { createClient } from '@libsql/client';
+import { describe, expect, inject, it } from 'vitest';
+import { DEMO_SLUG, demoSession } from './support/demo';
+
+const base = inject('baseURL');
+const databaseURL = inject('databaseURL');
+const BENCHMARK = 'Heat capacity at 298 K (demo)';
+const session = demoSession('reviewer', base);
+
+/** MAE per method label over the materials with both a Cp and a Cv within 1 K of 298.15 K, from the database. */
+async function independentMae(): Promise<Map<string, { mae: number; n: number }>> {
+  const db = createClient({ url: databaseURL });
+  try {
+    const ws = await db.execute({ sql: 'select id from organization where slug = ?', args: [DEMO_SLUG] });
+    const workspaceId = String(ws.rows[0].id);
+    const near = 'abs(temperature_k - 298.15) <= 1 and retracted_at is null and workspace_id = ?';
+    const measured = await db.execute({ sql: `select material_id, value from measurement where quantity = 'heat-capacity' and ${near}`, args: [workspaceId] });
+    const cp = new Map(measured.rows.map((r) => [String(r.material_id), Number(r.value)]));
+    const computed = await db.execute({
+      sql: `select m.label, c.material_id, c.value from calculation c join method m on m.id = c.method_id
+            where c.quantity = 'heat-capacity' and abs(c.temperature_k - 298.15) <= 1 and c.retracted_at is null and c.workspace_id = ?`,
+      args: [workspaceId],
+    });
+    const sums = new Map<string, { sum: number; n: number }>();
+    for (const r of computed.rows) {
+      const measuredValue = cp.get(String(r.material_id));
+      if (measuredValue === undefined) continue;
+      const s = sums.get(String(r.label)) ?? { sum: 0, n: 0 };
+      s.sum += Math.abs(Number(r.value) - measuredValue);
+      s.n++;
+      sums.set(String(r.label), s);
+    }
+    return new Map([...sums].map(([label, s]) => [label, { mae: s.sum / s.n, n: s.n }]));
+  } finally {
+    db.close();
+  }
+}
+
+describe('heat-capacity benchmark (demo)', () => {
+  it('shows a leaderboard whose MAE per method matches an independent computation, with the Cp/Cv caution', async () => {
+    const { page } = session;
+    await page.setViewportSize({ width: 1400, height: 900 });
+    await page.goto(`${base}/w/${DEMO_SLUG}/benchmarks`);
+    await page.getByRole('link', { name: BENCHMARK }).first().click();
+    await page.getByTestId('leaderboard').waitFor();
+
+    const expected = await independentMae();
+    expect(expected.size).toBe(3);
+    const rows = page.getByTestId('leaderboard').locator('tbody tr[data-method]');
+    expect(await rows.count()).toBe(3);
+    for (const [label, { mae, n }] of expected) {
+      expect(n).toBe(8);
+      const row = page.locator(`[data-testid="leaderboard"] tbody tr[data-method="${label}"]`);
+      expect(await row.locator('[data-stat="n"]').innerText()).toBe(String(n));
+      expect(await row.locator('[data-stat="mae"] strong').innerText()).toBe(mae.toFixed(2));
+      expect(await row.getAttribute('data-ranked')).toBe('yes');
+    }
+    const caution = await page.getByTestId('heat-capacity-caution').innerText();
+    expect(caution).toMatch(/Calorimetry measures Cp/);
+    expect(caution).toMatch(/without that correction/);
+  });
+
+  it('a material page lists the measured Cp beside each method’s Cv', async () => {
+    const { page } = session;
+    await page.goto(`${base}/w/${DEMO_SLUG}/materials`);
+    await page.getByRole('link', { name: 'MgO', exact: true }).first().click();
+    const panel = page.locator('section', { has: page.getByRole('heading', { name: /^Heat capacity/ }) });
+    await panel.waitFor();
+    await expect.poll(() => panel.getByText('Measured (Cp)').count()).toBe(1);
+    expect(await panel.getByText('37.24').count()).toBe(1);
+    expect(await panel.getByText(/\(Cv\)$/).count()).toBe(3);
+  });
+});
