@@ -99,6 +99,13 @@ const heatCapacityRow = z.object({
   temperature_K: z.coerce.number().positive(),
   source: z.string(),
 });
+const dielectricRow = z.object({
+  material: z.string(),
+  eps_inf: z.string().min(1),
+  modelled_on: z.string(),
+  source: z.string(),
+});
+const DIELECTRIC_NOTE = 'Invented ε∞ (demo): a textbook value moved by 5–6 %; not a measurement.';
 const HEAT_CAPACITY_NOTE = 'Cp° recalled from memory of the NIST-JANAF tables, not checked against them (demo data).';
 const methodsFile = z.object({
   seed: z.number().int(),
@@ -119,6 +126,8 @@ const methodsFile = z.object({
       entropyNoise: z.number(),
       heatCapacityBias: z.number(),
       heatCapacityNoise: z.number(),
+      epsInfBias: z.number(),
+      epsInfNoise: z.number(),
       overrides: z
         .array(z.object({ material: z.string(), irrep: z.string(), branch: z.string().optional(), nth: z.number().int(), valueCm1: z.number().optional(), scale: z.number().optional() }))
         .default([]),
@@ -149,6 +158,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
   const modes = readCsv('modes.csv', modeRow);
   const entropies = readCsv('entropies.csv', entropyRow);
   const heatCapacities = readCsv('heat-capacities.csv', heatCapacityRow);
+  const dielectric = readCsv('dielectric.csv', dielectricRow);
   const methodsSpec = methodsFile.parse(JSON.parse(readFileSync(fileURLToPath(new URL('methods.json', dataDir)), 'utf8')));
 
   const sourceIds = new Map<string, string>();
@@ -259,10 +269,28 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     });
   }
 
+  for (const d of dielectric) {
+    const mat = need(materialIds, d.material, 'material');
+    await tx.insert(measurement).values({
+      workspaceId,
+      materialId: mat.id,
+      sourceId: need(sourceIds, d.source, 'source'),
+      quantity: 'eps-inf',
+      value: Number(d.eps_inf),
+      valueText: d.eps_inf,
+      unit: '1',
+      sampleForm: 'single-crystal',
+      notes: DIELECTRIC_NOTE,
+      rowHash: demoRowHash(['measurement', d.material, 'eps-inf', d.eps_inf, '1', d.source]),
+      contributorId: userId,
+    });
+  }
+
   // Methods and their synthetic calculations.
   const random = createRandom(methodsSpec.seed);
   // heat capacities draw from their own generator, so adding them moved no other synthetic value
   const heatRandom = createRandom(methodsSpec.seed + 1);
+  const dielectricRandom = createRandom(methodsSpec.seed + 2);
   const synthetic = need(sourceIds, 'demo-synthetic-2026', 'source');
   for (const spec of methodsSpec.methods) {
     const [row] = await tx
@@ -360,6 +388,22 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
         unit: 'J/mol/K',
         temperatureK: c.temperature_K,
         rowHash: demoRowHash(['calculation', c.material, spec.label, 'heat-capacity', text, c.temperature_K]),
+        contributorId: userId,
+      });
+    }
+    for (const d of dielectric) {
+      const mat = need(materialIds, d.material, 'material');
+      const text = (Number(d.eps_inf) * (1 + spec.epsInfBias + spec.epsInfNoise * gaussian(dielectricRandom))).toFixed(2);
+      values.push({
+        workspaceId,
+        materialId: mat.id,
+        methodId: row.id,
+        sourceId: synthetic,
+        quantity: 'eps-inf',
+        value: Number(text),
+        valueText: text,
+        unit: '1',
+        rowHash: demoRowHash(['calculation', d.material, spec.label, 'eps-inf', text]),
         contributorId: userId,
       });
     }

@@ -86,6 +86,11 @@ const DEMO_BENCHMARKS: BenchmarkDefinitionInput[] = [
     // eight crystals carry a Cp°: rank from N = 5 rather than the default 10
     rules: { ranking: { minN: 5 } },
   },
+  {
+    name: 'Electronic dielectric constant ε∞ (demo)',
+    purpose: 'Computed ε∞ against measured ε∞; both sides are invented for the demo (the measured values are textbook values moved by 5–6 %). Invented demo benchmark.',
+    scope: { quantity: 'eps-inf' },
+  },
 ];
 
 async function ensureBenchmark(workspaceId: string, userId: string, definition: BenchmarkDefinitionInput) {

@@ -169,6 +169,8 @@ export const UNIT_SYMBOL: Record<string, string> = {
   'kB/atom': 'k_B per atom',
   'kB/fu': 'k_B per formula unit',
   'cal/mol/K': 'cal mol⁻¹ K⁻¹',
+  // dimensionless (dielectric constants)
+  '1': '',
 };
 
 /** The display symbol of a unit code ("cm-1" → "cm⁻¹"); unknown codes come back unchanged. */
@@ -188,7 +190,7 @@ export const CANONICAL_UNIT_SYMBOL: Record<string, string> = {
 };
 
 /** Canonical unit codes of the quantities the importer converts. */
-const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K' };
+const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K', 'eps-inf': '1', 'eps-static': '1' };
 
 /**
  * A stored value as people should read it: the text as typed when it was typed in

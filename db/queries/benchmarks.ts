@@ -406,12 +406,13 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
   for (const t of tags) (tagsByMaterial.get(t.materialId) ?? tagsByMaterial.set(t.materialId, []).get(t.materialId)!).push(t.tag);
   const s = settings[0];
   const dielectric = new Map<string, NonNullable<BenchmarkInput['dielectric']>[number] & { born: Array<{ index: number; id: string; z: number }> }>();
-  for (const r of dielectricRows) {
+  // Several ε rows of one material × method: the first by id (as the material page reads them).
+  for (const r of [...dielectricRows].sort((a, b) => (a.id < b.id ? -1 : 1))) {
     const key = `${r.materialId}|${r.methodId}`;
     let d = dielectric.get(key);
     if (!d) dielectric.set(key, (d = { materialId: r.materialId, methodId: r.methodId, epsInf: null, eps0: null, bornCharges: [], born: [] }));
-    if (r.quantity === 'eps-inf') d.epsInf = r.value;
-    else if (r.quantity === 'eps-static') d.eps0 = r.value;
+    if (r.quantity === 'eps-inf') d.epsInf ??= r.value;
+    else if (r.quantity === 'eps-static') d.eps0 ??= r.value;
     else d.born.push({ index: r.modeIndex ?? 0, id: r.id, z: r.value });
   }
   return {

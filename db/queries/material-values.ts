@@ -58,22 +58,24 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
       .orderBy(asc(method.label), asc(calculation.quantity), asc(calculation.modeIndex), asc(calculation.value)),
   ]);
 
-  const methods = new Map<string, { methodId: string; methodLabel: string; modes: typeof computed; entropies: typeof computed; heatCapacities: typeof computed }>();
+  const methods = new Map<string, { methodId: string; methodLabel: string; modes: typeof computed; entropies: typeof computed; heatCapacities: typeof computed; dielectric: typeof computed }>();
   for (const row of computed) {
     let group = methods.get(row.methodId);
     if (!group) {
-      group = { methodId: row.methodId, methodLabel: row.methodLabel, modes: [], entropies: [], heatCapacities: [] };
+      group = { methodId: row.methodId, methodLabel: row.methodLabel, modes: [], entropies: [], heatCapacities: [], dielectric: [] };
       methods.set(row.methodId, group);
     }
     if (row.quantity === 'frequency') group.modes.push(row);
     else if (row.quantity === 'entropy') group.entropies.push(row);
     else if (row.quantity === 'heat-capacity') group.heatCapacities.push(row);
+    else if (row.quantity === 'eps-inf' || row.quantity === 'eps-static') group.dielectric.push(row);
   }
 
   return {
     peaks: measured.filter((m) => m.quantity === 'frequency'),
     entropies: measured.filter((m) => m.quantity === 'entropy'),
     heatCapacities: measured.filter((m) => m.quantity === 'heat-capacity'),
+    dielectric: measured.filter((m) => m.quantity === 'eps-inf' || m.quantity === 'eps-static'),
     methods: [...methods.values()],
   };
 }

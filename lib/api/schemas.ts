@@ -427,7 +427,7 @@ export const pairSchema = z
     relativeError: z.number(),
     label: z.string().nullable(),
     temperatureK: z.number().nullable(),
-    basis: z.enum(['label', 'frequency', 'pinned', 'temperature']),
+    basis: z.enum(['label', 'frequency', 'pinned', 'temperature', 'material']),
     ambiguous: z.boolean(),
     excluded: z.string().nullable().meta({ description: 'Reason of the decision that excludes it.' }),
     outlier: z.string().nullable(),

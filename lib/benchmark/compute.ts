@@ -17,7 +17,7 @@
  *
  * Outliers: the rule runs on a method's included pairs, the modified z and Tukey
  * rules only from `outlierRule.minN` (default 10) pairs, on the scale of
- * outlierScaleOf (relative for frequency benchmarks unless the rule says otherwise).
+ * outlierScaleOf (relative for frequency and dielectric benchmarks unless the rule says otherwise).
  *
  * Ranking: ranking.ts (coverage, the ranking rule, common pairs). The rank is the
  * rank on the pairs every ranked method shares.
@@ -29,6 +29,9 @@
  * Heat capacity pairs like entropy: one measured and one computed value of a material within
  * the temperature tolerance. The measured value is Cp, the computed one Cv; the snapshot
  * carries HEAT_CAPACITY_CAUTION and nothing corrects Cp − Cv.
+ *
+ * Dielectric constants (ε∞, ε₀) pair one measured and one computed scalar per material
+ * (pair-rows.ts, pairPerMaterial), dimensionless, whatever the temperatures; DIELECTRIC_CAUTION.
  *
  * Stages: pairing and quality checks run per material (material-stage.ts); finishBenchmark
  * does the rest over every pair, so a caller may keep the stages of unchanged materials.
@@ -52,7 +55,7 @@ import { groupBy, mergeRepeatedMeasurements } from './pair-rows';
 import { pairMaterials, qualityOrder, type MaterialStage } from './material-stage';
 import { rankOnCommonGround } from './ranking';
 import { outlierScaleOf, type BenchmarkRules } from './schemas';
-import { isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from './quantities';
+import { isDielectric, isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from './quantities';
 import { MIN_PAIRS_FOR_STATISTICS } from './statistics-minimum';
 import { fixed, stat } from '@/lib/format';
 import type {
@@ -84,6 +87,10 @@ export const ENTROPY_CAUTION =
 export const HEAT_CAPACITY_CAUTION =
   'Calorimetry measures Cp, at constant pressure; a harmonic calculation gives Cv, at constant volume. Cp − Cv = α² B V_m T (α volumetric thermal expansion, B bulk modulus, V_m molar volume) is positive and grows with T: about 1.4 % of Cp for a stiff oxide such as MgO at 298 K and about 5.5 % for NaCl. This benchmark compares the values as stored, without that correction, so expect the harmonic Cv below the measured Cp; metals also carry an electronic term the harmonic value leaves out.';
 
+/** What a dielectric benchmark compares, shown beside it. */
+export const DIELECTRIC_CAUTION =
+  'A measured ε∞ comes from the refractive index below the absorption edge, a measured ε₀ from capacitance or a fit to infrared reflectance, near room temperature; a computed one is for the relaxed structure at rest, and semilocal functionals tend to overestimate ε∞ because their band gap is too small. For a non-cubic crystal both sides hold the orientational average (ε_xx + ε_yy + ε_zz)/3: principal values are not compared one by one.';
+
 export function unitOf(quantity: BenchmarkInput['quantity']): string {
   return QUANTITY_UNIT[quantity];
 }
@@ -91,6 +98,7 @@ export function unitOf(quantity: BenchmarkInput['quantity']): string {
 function cautionOf(quantity: BenchmarkInput['quantity']): string | null {
   if (quantity === 'entropy') return ENTROPY_CAUTION;
   if (quantity === 'heat-capacity') return HEAT_CAPACITY_CAUTION;
+  if (isDielectric(quantity)) return DIELECTRIC_CAUTION;
   return null;
 }
 
@@ -380,6 +388,7 @@ function emptyReason(input: FinishContext, measurements: number, calculations: n
   if (input.methods.length === 0) return 'No method is in scope: the benchmark names no method that exists, or the workspace has none.';
   if (measurements === 0) return `No ${what} match the scope.`;
   if (calculations === 0) return `The ${measurements} ${what} in scope have no calculation of the selected methods on the same materials.`;
+  if (isDielectric(input.quantity)) return `No material in scope has both a measured and a computed ${QUANTITY_PLURAL[input.quantity].replace(/ values$/, '')} of the selected methods.`;
   return input.quantity === 'frequency'
     ? `No measured peak found a computed mode within the pairing window (±${Math.round(100 * input.rules.maxRelativeDeviation)} %) with a compatible activity and label.`
     : `No measured and computed ${QUANTITY_PLURAL[input.quantity]} of the same material lie within the temperature tolerance.`;

@@ -19,7 +19,8 @@ export function describeScope(scope: BenchmarkScope, names: { methods: string[];
   const at = `at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`;
   if (scope.quantity === 'frequency') parts.push('Γ-point frequencies');
   else if (scope.quantity === 'entropy') parts.push(`vibrational entropies ${at}`);
-  else parts.push(`heat capacities (measured Cp, computed Cv) ${at}`);
+  else if (scope.quantity === 'heat-capacity') parts.push(`heat capacities (measured Cp, computed Cv) ${at}`);
+  else parts.push(scope.quantity === 'eps-inf' ? 'electronic dielectric constants ε∞' : 'static dielectric constants ε₀');
   if (scope.techniques.length) parts.push(`measured by ${scope.techniques.map(techniqueName).join(' or ')}`);
   if (scope.quantity === 'frequency') {
     const { temperatureMinK: lo, temperatureMaxK: hi } = scope;

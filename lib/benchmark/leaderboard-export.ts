@@ -125,7 +125,8 @@ export function leaderboardLatex(snapshot: BenchmarkSnapshot, ctx: LeaderboardEx
   const unit = latexText(snapshot.unit);
   const boot = snapshot.methods.find((m) => m.statistics?.bootstrap)?.statistics?.bootstrap;
   const level = boot ? Math.round(100 * boot.confidence) : 95;
-  const head = ['Rank', 'Method', '$N$', 'Coverage (\\%)', `MAE, common pairs (${unit})`, 'Common $N$', `MAE (${unit})`, `${level}\\,\\% interval`, `MSE (${unit})`, `RMSE (${unit})`, 'Outliers', 'Excluded'];
+  const u = (label: string) => (unit ? `${label} (${unit})` : label);
+  const head = ['Rank', 'Method', '$N$', 'Coverage (\\%)', u('MAE, common pairs'), 'Common $N$', u('MAE'), `${level}\\,\\% interval`, u('MSE'), u('RMSE'), 'Outliers', 'Excluded'];
   const cell = (v: string) => latexText(v);
   const rows = snapshot.methods.map((m) => {
     const s = m.statistics;
@@ -149,7 +150,7 @@ export function leaderboardLatex(snapshot: BenchmarkSnapshot, ctx: LeaderboardEx
   const basis = ranking && ranking.rankedMethods > 0 ? `Ranked on the ${ranking.commonN} pairs all ${ranking.rankedMethods} ranked methods share. ` : '';
   const caption =
     `${latexText(ctx.benchmarkName)}, revision ${ctx.revisionNumber} (sha256:${ctx.fingerprint.slice(0, 16)}). ${basis}` +
-    `Errors are calculated $-$ measured, in ${unit}; MAE intervals from a bootstrap ${resampled}. Methods without a rank are listed, not ranked.`;
+    `Errors are calculated $-$ measured${unit ? `, in ${unit}` : ' (dimensionless)'}; MAE intervals from a bootstrap ${resampled}. Methods without a rank are listed, not ranked.`;
   return [
     '% Lattice Ledger leaderboard export; needs \\usepackage{booktabs}',
     '\\begin{table}',

@@ -1,4 +1,4 @@
-import { qualityChecks, ScienceInputError, type QualityFlag, type QualityThresholds } from '@/lib/science';
+import { qualityReport, ScienceInputError, type QualityFlag, type QualityThresholds } from '@/lib/science';
 import { qualityModes } from '@/lib/benchmark/pair-rows';
 
 type Grid = [number, number, number];
@@ -18,6 +18,8 @@ export interface MethodModeSet {
     activity: string | null;
     sourceId: string;
   }>;
+  /** The method's ε∞ and ε₀ of this material, where both are stored (the Lyddane–Sachs–Teller check). */
+  dielectric?: { epsInf: number; eps0: number };
 }
 
 export interface QualityFinding {
@@ -39,7 +41,7 @@ export interface MethodQuality {
  * Runs lib/science's qualityChecks on each method's modes of one material with the
  * workspace's thresholds (the inputs a calculation set lacks skip their checks).
  */
-export function materialQualityFlags(input: { materialId: string; atomsInCell: number | null; methods: MethodModeSet[]; thresholds?: QualityThresholds }): MethodQuality[] {
+export function materialQualityFlags(input: { materialId: string; atomsInCell: number | null; spaceGroup?: number | null; methods: MethodModeSet[]; thresholds?: QualityThresholds }): MethodQuality[] {
   const out: MethodQuality[] = [];
   for (const m of input.methods) {
     if (m.modes.length === 0) continue;
@@ -49,13 +51,17 @@ export function materialQualityFlags(input: { materialId: string; atomsInCell: n
     if (!m.kGrid || !m.qGrid) skipped.push(`grid commensurability: the method has no ${!m.kGrid && !m.qGrid ? 'k- or q-grid' : !m.kGrid ? 'k-grid' : 'q-grid'}`);
     let flags: QualityFinding[];
     try {
-      flags = qualityChecks({
+      const report = qualityReport({
         modes: qualityModes(m.modes.map((c) => ({ ...c, materialId: input.materialId, methodId: m.methodId, importId: null, uncertainty: null, temperatureK: null }))),
         atomsInCell: input.atomsInCell ?? undefined,
+        spaceGroupNumber: input.spaceGroup ?? undefined,
         kGrid: m.kGrid ?? undefined,
         qGrid: m.qGrid ?? undefined,
+        dielectric: m.dielectric,
         thresholds: input.thresholds,
-      }).map(({ code, severity, message }) => ({ code, severity, message }));
+      });
+      flags = report.flags.map(({ code, severity, message }) => ({ code, severity, message }));
+      for (const n of report.notApplied) skipped.push(n.reason);
     } catch (error) {
       if (!(error instanceof ScienceInputError)) throw error;
       flags = [{ code: 'invalid-input', severity: 'error', message: `The checks could not run: ${error.message}` }];

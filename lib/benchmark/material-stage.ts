@@ -14,8 +14,8 @@
  * here, before pairing (compute.ts header).
  */
 import { atomsPerReducedFormulaUnit, qualityReport, ScienceInputError } from '@/lib/science';
-import { groupBy, pairEntropies, pairFrequencies, qualityModes } from './pair-rows';
-import { isThermal } from './quantities';
+import { groupBy, pairEntropies, pairFrequencies, pairPerMaterial, qualityModes } from './pair-rows';
+import { isDielectric, isThermal } from './quantities';
 import type { BenchmarkInput, BenchmarkSnapshot, PairRecord, QualityRecord, ScopeCalculation, ScopeMeasurement } from './types';
 
 type NotApplied = NonNullable<BenchmarkSnapshot['qualityNotApplied']>;
@@ -131,6 +131,9 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
     if (quantity === 'frequency') {
       const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
       ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod, methodIds, pinsOf.get(materialId) ?? [], rules, context));
+    } else if (isDielectric(quantity)) {
+      const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
+      ({ pairs, unpaired } = pairPerMaterial(measurements, calcsByMaterialMethod, methodIds));
     } else {
       const atoms = atomBasis ? reducedAtoms(materials.get(materialId)?.formula) : undefined;
       measurements = perAtom(measurements, atoms);

@@ -280,6 +280,32 @@ export function pairEntropies(
   return { pairs, unpaired };
 }
 
+/**
+ * Measured vs computed dielectric constant per material and method: every measurement of the
+ * material pairs with the method's value, whatever the temperatures. Several computed values of
+ * one method for one material: the one with the smallest id, marked ambiguous.
+ */
+export function pairPerMaterial(
+  measurements: readonly ScopeMeasurement[],
+  calculationsByMaterialMethod: Map<string, ScopeCalculation[]>,
+  methodIds: readonly string[],
+): { pairs: PairRecord[]; unpaired: Map<string, number> } {
+  const pairs: PairRecord[] = [];
+  const unpaired = new Map<string, number>();
+  for (const m of measurements) {
+    for (const methodId of methodIds) {
+      const candidates = calculationsByMaterialMethod.get(`${m.materialId}|${methodId}`) ?? [];
+      if (candidates.length === 0) {
+        unpaired.set(methodId, (unpaired.get(methodId) ?? 0) + 1);
+        continue;
+      }
+      const first = candidates.reduce((a, b) => (b.id < a.id ? b : a));
+      pairs.push(newPair(methodId, m, [first.id], first.value, first.uncertainty, 'material', candidates.length > 1, [...new Set([m.sourceId, first.sourceId])], null));
+    }
+  }
+  return { pairs, unpaired };
+}
+
 /** Merges the included pairs of one method on the same computed line (see the module header). */
 export function mergeRepeatedMeasurements(pairs: PairRecord[]): PairRecord[] {
   const out: PairRecord[] = [];

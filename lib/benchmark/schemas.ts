@@ -5,7 +5,7 @@
 import { z } from 'zod';
 
 /** Quantities a benchmark can compare. */
-export const BENCHMARK_QUANTITIES = ['frequency', 'entropy', 'heat-capacity'] as const;
+export const BENCHMARK_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static'] as const;
 export type BenchmarkQuantity = (typeof BENCHMARK_QUANTITIES)[number];
 
 /** Measurement techniques as stored on measurement rows. */
@@ -62,7 +62,7 @@ export const DEFAULT_RANKING_MIN_COVERAGE = 0.5;
 export const outlierRuleSchema = z.object({
   kind: z.enum(OUTLIER_RULE_KINDS).default('modified-z'),
   threshold: z.number().positive().default(DEFAULT_OUTLIER_THRESHOLDS['modified-z']),
-  /** Scale of the modified z and Tukey rules; unset: relative for frequencies, absolute for entropies. */
+  /** Scale of the modified z and Tukey rules; unset: relative for frequencies and dielectric constants, absolute for entropies and heat capacities. */
   scale: z.enum(OUTLIER_SCALES).optional(),
   /** Below this many included pairs of a method the modified z and Tukey rules flag nothing. */
   minN: z.number().int().min(1).max(10000).default(DEFAULT_OUTLIER_MIN_N),
@@ -70,7 +70,8 @@ export const outlierRuleSchema = z.object({
 
 /** The outlier scale a benchmark uses: the rule's, else relative for frequencies and absolute otherwise. */
 export function outlierScaleOf(rule: { scale?: (typeof OUTLIER_SCALES)[number] }, quantity: BenchmarkQuantity): (typeof OUTLIER_SCALES)[number] {
-  return rule.scale ?? (quantity === 'frequency' ? 'relative' : 'absolute');
+  // ε spans 2–16 across ordinary crystals: an absolute error of 0.5 means little at Si and much at NaCl
+  return rule.scale ?? (quantity === 'entropy' || quantity === 'heat-capacity' ? 'absolute' : 'relative');
 }
 
 export const rankingRuleSchema = z.object({
@@ -121,9 +122,11 @@ export const alertThresholdsSchema = z.object({
  * Default absolute MAE change that alerts, per quantity, in its unit: 0.5 cm⁻¹ (below the
  * 1–2 cm⁻¹ resolution of a routine Raman spectrum) and 0.2 J mol⁻¹ K⁻¹ (about twice the
  * ±0.1 uncertainty of the CODATA key-value entropies; the same for heat capacities, whose
- * calorimetric uncertainty near 298 K is of the same order) — common practice, no single source.
+ * calorimetric uncertainty near 298 K is of the same order), and 0.1 for a dielectric constant
+ * (about the spread between published ε∞ of one well-studied crystal) — common practice, no
+ * single source, from memory.
  */
-export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = { frequency: 0.5, entropy: 0.2, 'heat-capacity': 0.2 };
+export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = { frequency: 0.5, entropy: 0.2, 'heat-capacity': 0.2, 'eps-inf': 0.1, 'eps-static': 0.1 };
 
 /** The thresholds detectShift uses for a benchmark of this quantity (maeCm1 is the alias). */
 export function resolveAlertThresholds(thresholds: AlertThresholds, quantity: BenchmarkQuantity): { maeAbsolute: number; maeRelative: number; nRelative: number } {

@@ -140,7 +140,7 @@ export interface PairRecord {
   branch?: 'TO' | 'LO' | null;
   technique: string | null;
   temperatureK: number | null;
-  basis: 'label' | 'frequency' | 'pinned' | 'temperature';
+  basis: 'label' | 'frequency' | 'pinned' | 'temperature' | 'material';
   ambiguous: boolean;
   sourceIds: string[];
   /** Reason of the decision that excludes it. */

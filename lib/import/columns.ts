@@ -10,7 +10,7 @@ export type ImportableKind = (typeof IMPORTABLE_KINDS)[number];
 export type TableKind = ImportableKind | CatalogKind;
 
 /** Quantities an import may carry for now (the others arrive with their own checks). */
-export const IMPORT_QUANTITIES = ['frequency', 'entropy', 'heat-capacity'] as const;
+export const IMPORT_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static'] as const;
 export type ImportQuantity = (typeof IMPORT_QUANTITIES)[number];
 
 export type { ColumnDef } from './column-def';
@@ -23,8 +23,8 @@ const list = (values: readonly string[]) => values.join(' | ');
 const shared = {
   material: col('material', true, 'Material name (the unique handle of a material in this workspace, e.g. "GaN-wz").', ['material_name', 'compound', 'crystal']),
   quantity: col('quantity', true, `What the value is: ${list(IMPORT_QUANTITIES)}.`, ['property']),
-  value: col('value', true, 'The number as written ("1.50" is kept as "1.50"). Frequencies > 0 for measurements; calculations may be ≤ 0 (imaginary modes are written as negative numbers). Entropies and heat capacities ≥ 0; a measured heat capacity is Cp (calorimetry), a harmonic one Cv.', ['frequency', 'entropy', 'val']),
-  unit: col('unit', false, `Unit of value (and uncertainty). Frequency: ${list(FREQUENCY_UNITS)}; entropy and heat capacity: ${list(ENTROPY_UNITS)}. May be left out when a unit is chosen for the whole file.`, ['units']),
+  value: col('value', true, 'The number as written ("1.50" is kept as "1.50"). Frequencies > 0 for measurements; calculations may be ≤ 0 (imaginary modes are written as negative numbers). Entropies and heat capacities ≥ 0; a measured heat capacity is Cp (calorimetry), a harmonic one Cv. Dielectric constants (eps-inf = ε∞, eps-static = ε₀) ≥ 1, dimensionless, the orientational average for a non-cubic crystal.', ['frequency', 'entropy', 'val']),
+  unit: col('unit', false, `Unit of value (and uncertainty). Frequency: ${list(FREQUENCY_UNITS)}; entropy and heat capacity: ${list(ENTROPY_UNITS)}; dielectric constants: none (or 1). May be left out when a unit is chosen for the whole file.`, ['units']),
   temperature: col('temperature_K', false, 'Temperature in kelvin, ≥ 0. Required for entropies and heat capacities.', ['temperature', 'temp', 't_k', 'temperature_k', 't']),
   irrep: col('irrep', false, 'Irreducible-representation label, e.g. A1g, E2(high), T2g; normalised on import.', ['label', 'symmetry', 'mode_label']),
   branch: col('branch', false, `${list(BRANCHES)}; left empty when not split. Read from the irrep label when that carries it, e.g. "A1(LO)".`),

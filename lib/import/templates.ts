@@ -56,6 +56,14 @@ const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
       source: 'janaf1998',
       notes: 'Cp at 298.15 K, NIST-JANAF Thermochemical Tables (1998); value recalled from memory, check it against the tables',
     },
+    {
+      material: 'NaCl-rs',
+      quantity: 'eps-inf',
+      value: '2.34',
+      temperature_K: '295',
+      source: 'inhouse-notebook-2026',
+      notes: 'example row: a textbook ε∞ recalled from memory; dielectric constants have no unit (leave it empty)',
+    },
   ],
   calculations: [
     {
@@ -102,6 +110,14 @@ const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
       temperature_K: '298.15',
       source: 'inhouse-pbesol-2026',
       notes: 'example row: invented harmonic Cv',
+    },
+    {
+      material: 'Si',
+      method: 'PBEsol-PAW-600',
+      quantity: 'eps-inf',
+      value: '12.9',
+      source: 'inhouse-pbesol-2026',
+      notes: 'example row: invented ε∞ (DFPT); the orientational average for a non-cubic crystal',
     },
   ],
   // Catalogue examples: well-known structures (space groups and atoms per primitive cell

@@ -22,7 +22,17 @@ const ENTROPY_ALIASES: Record<string, EntropyUnit> = {
   'cal/mol/k': 'cal/mol/K',
 };
 
-export type ImportUnit = FrequencyUnit | EntropyUnit;
+/** Dielectric constants are dimensionless: stored with the unit "1". */
+export type DimensionlessUnit = '1';
+export const DIMENSIONLESS_UNITS: readonly DimensionlessUnit[] = ['1'];
+const DIMENSIONLESS_ALIASES: Record<string, DimensionlessUnit> = { '1': '1', '-': '1', none: '1', dimensionless: '1' };
+
+export type ImportUnit = FrequencyUnit | EntropyUnit | DimensionlessUnit;
+
+/** Whether a quantity carries no unit (an empty unit cell is then fine). */
+export function isDimensionless(quantity: ImportQuantity): boolean {
+  return quantity === 'eps-inf' || quantity === 'eps-static';
+}
 
 /** Units chosen for the whole file, used where a row has no unit. */
 export interface DefaultUnits {
@@ -34,9 +44,12 @@ export interface DefaultUnits {
 /** The unit code for a written unit, or null when it is not a unit of that quantity (heat capacities take the entropy units). */
 export function parseUnit(quantity: ImportQuantity, text: string): ImportUnit | null {
   const key = text.trim().toLowerCase().replace(/\s+/g, ' ');
-  return quantity === 'frequency' ? (FREQUENCY_ALIASES[key] ?? null) : (ENTROPY_ALIASES[key] ?? null);
+  if (quantity === 'frequency') return FREQUENCY_ALIASES[key] ?? null;
+  if (isDimensionless(quantity)) return DIMENSIONLESS_ALIASES[key] ?? null;
+  return ENTROPY_ALIASES[key] ?? null;
 }
 
 export function unitsOf(quantity: ImportQuantity): readonly string[] {
-  return quantity === 'frequency' ? FREQUENCY_UNITS : ENTROPY_UNITS;
+  if (quantity === 'frequency') return FREQUENCY_UNITS;
+  return isDimensionless(quantity) ? DIMENSIONLESS_UNITS : ENTROPY_UNITS;
 }

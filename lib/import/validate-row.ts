@@ -4,7 +4,7 @@ import { IMPORT_QUANTITIES, type ImportableKind, type ImportQuantity } from './c
 import { excerpt, type RowError } from './errors';
 import type { MissingCatalog } from './create-missing';
 import { notANumberReason, parseDecimal } from './numbers';
-import { parseUnit, unitsOf, type DefaultUnits, type ImportUnit } from './units';
+import { isDimensionless, parseUnit, unitsOf, type DefaultUnits, type ImportUnit } from './units';
 import {
   ACTIVITY_VALUES,
   BRANCH_VALUES,
@@ -152,9 +152,12 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     const unitText = cell('unit');
     if (unitText !== '') {
       unit = parseUnit(quantity, unitText);
-      if (!unit) fail('unit', `Unknown ${quantity} unit "${excerpt(unitText)}"; use one of ${unitsOf(quantity).join(', ')}.`, unitText);
+      if (!unit && isDimensionless(quantity)) fail('unit', `A dielectric constant has no unit, got "${excerpt(unitText)}"; leave the unit cell empty or write 1.`, unitText);
+      else if (!unit) fail('unit', `Unknown ${quantity} unit "${excerpt(unitText)}"; use one of ${unitsOf(quantity).join(', ')}.`, unitText);
+    } else if (isDimensionless(quantity)) {
+      unit = '1';
     } else {
-      unit = ctx.units?.[quantity] ?? null;
+      unit = ctx.units?.[quantity as keyof DefaultUnits] ?? null;
       if (!unit) fail('unit', `No unit for this ${quantity}: fill the unit column or choose a unit for the whole file.`);
     }
   }
@@ -168,6 +171,9 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     else if (quantity === 'frequency' && isMeasurement && raw <= 0) {
       fail('value', `A measured frequency must be > 0 (got ${excerpt(valueText)}); only calculations may carry zero or imaginary (negative) modes.`, valueText);
       raw = null;
+    } else if (quantity !== null && isDimensionless(quantity) && raw < 1) {
+      fail('value', `A dielectric constant is ≥ 1 (got ${excerpt(valueText)}); write ε itself, not χ = ε − 1.`, valueText);
+      raw = null;
     } else if (quantity !== 'frequency' && raw < 0) {
       fail('value', `${quantity === 'entropy' ? 'An entropy' : 'A heat capacity'} cannot be negative (got ${excerpt(valueText)}).`, valueText);
       raw = null;
@@ -175,7 +181,7 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   }
   const uncertainty = isMeasurement ? number('uncertainty', (n) => (n >= 0 ? null : 'An uncertainty must be ≥ 0.')) : null;
   const temperature = number('temperature_K', (n) => (n >= 0 ? null : `A temperature cannot be below 0 K (got ${n}).`));
-  if (quantity !== null && quantity !== 'frequency' && !temperature && cell('temperature_K') === '') {
+  if ((quantity === 'entropy' || quantity === 'heat-capacity') && !temperature && cell('temperature_K') === '') {
     fail('temperature_K', `${quantity === 'entropy' ? 'An entropy' : 'A heat capacity'} needs its temperature (temperature_K).`);
   }
 
@@ -215,6 +221,9 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   if (quantity === 'frequency') {
     value = convertFrequency(raw, unit as FrequencyUnit, 'cm-1');
     if (uncertainty) uncertaintyCanonical = convertFrequency(uncertainty.n, unit as FrequencyUnit, 'cm-1');
+  } else if (isDimensionless(quantity)) {
+    value = raw;
+    if (uncertainty) uncertaintyCanonical = uncertainty.n;
   } else {
     value = convertEntropy(raw, unit as EntropyUnit, 'J/mol/K', material.atomsPerFormulaUnit);
     if (uncertainty) uncertaintyCanonical = convertEntropy(uncertainty.n, unit as EntropyUnit, 'J/mol/K', material.atomsPerFormulaUnit);

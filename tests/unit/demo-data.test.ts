@@ -57,6 +57,21 @@ const MODELLED_ON: Record<string, number[]> = {
 };
 
 describe('demo data', () => {
+  it('keeps every invented ε∞ ≥ 1, labelled invented, and 4–7 % away from the textbook value it was modelled on', () => {
+    const invented = new Set(csv('sources.csv').filter((r) => r.invented === 'yes').map((r) => r.cite_key));
+    const names = new Set(materials.map((m) => m.name));
+    const rows = csv('dielectric.csv');
+    expect(rows.length).toBeGreaterThanOrEqual(10);
+    for (const r of rows) {
+      expect(names.has(r.material), r.material).toBe(true);
+      expect(invented.has(r.source), r.material).toBe(true);
+      expect(Number(r.eps_inf)).toBeGreaterThanOrEqual(1);
+      const off = Math.abs(Number(r.eps_inf) / Number(r.modelled_on) - 1);
+      expect(off, r.material).toBeGreaterThanOrEqual(0.04);
+      expect(off, r.material).toBeLessThanOrEqual(0.07);
+    }
+  });
+
   it('gives each Cp° a known material and source, at 298.15 K, between 0 and the Dulong–Petit 3R per atom (+15 % for Cp − Cv and electrons)', () => {
     const sources = new Set(csv('sources.csv').map((r) => r.cite_key));
     const formulaOf = new Map(materials.map((m) => [m.name, m.formula]));

@@ -5,6 +5,10 @@
  * the tests all read the same words.
  */
 import { histogramBins, plotNumber, type AgreementLimits, type PairedPoint, type ParityPoint } from './specs';
+import { header } from '@/lib/format';
+
+/** A unit after a number, or nothing for a dimensionless quantity. */
+const spaced = (unit: string) => (unit ? ` ${unit}` : '');
 
 export type FigureKind = 'parity' | 'residuals' | 'bland-altman' | 'histogram' | 'comparison';
 
@@ -27,7 +31,7 @@ const WORST = 3;
 
 function range(values: readonly number[], unit: string): string {
   if (!values.length) return 'none';
-  return `${plotNumber(Math.min(...values), 1)} to ${plotNumber(Math.max(...values), 1)} ${unit}`;
+  return `${plotNumber(Math.min(...values), 1)} to ${plotNumber(Math.max(...values), 1)}${spaced(unit)}`;
 }
 
 function methodList(points: readonly { method: string }[]): string[] {
@@ -43,13 +47,13 @@ function statusText(p: ParityPoint): string {
 }
 
 function spokenPair(p: ParityPoint, unit: string): string {
-  return `${pairName(p)}: measured ${plotNumber(p.measured)}, calculated ${plotNumber(p.calculated)}, error ${plotNumber(p.error, 2, true)} ${unit}, ${statusText(p)}`;
+  return `${pairName(p)}: measured ${plotNumber(p.measured)}, calculated ${plotNumber(p.calculated)}, error ${plotNumber(p.error, 2, true)}${spaced(unit)}, ${statusText(p)}`;
 }
 
 function worstOf(points: readonly ParityPoint[], unit: string): string {
   const worst = [...points].filter((p) => !p.excluded).sort((a, b) => Math.abs(b.error) - Math.abs(a.error)).slice(0, WORST);
   if (!worst.length) return '';
-  return ` Largest errors: ${worst.map((p) => `${pairName(p)} ${plotNumber(p.error, 1, true)} ${unit}`).join('; ')}.`;
+  return ` Largest errors: ${worst.map((p) => `${pairName(p)} ${plotNumber(p.error, 1, true)}${spaced(unit)}`).join('; ')}.`;
 }
 
 function counts(points: readonly ParityPoint[]): string {
@@ -67,7 +71,7 @@ function pairTable(points: readonly ParityPoint[], unit: string, caption: string
   return {
     table: {
       caption,
-      columns: ['Material', 'Mode', 'Method', `Measured (${unit})`, `Calculated (${unit})`, `Error (${unit})`, 'Status', 'Source'],
+      columns: ['Material', 'Mode', 'Method', header(`Measured`, unit), header(`Calculated`, unit), header(`Error`, unit), 'Status', 'Source'],
       rows: [...points].sort((a, b) => Math.abs(b.error) - Math.abs(a.error)).map(row),
     },
     navigation: [...points].sort((a, b) => x(a) - x(b) || a.key.localeCompare(b.key)).map(row),
@@ -96,7 +100,7 @@ export function blandAltmanText(points: readonly ParityPoint[], limits: readonly
   const lines = limits
     .map((l) => {
       const outside = included.filter((p) => p.method === l.method && (p.error < l.lower || p.error > l.upper)).length;
-      return `${l.method}: bias ${plotNumber(l.bias, 2, true)} ${unit}, 95 % limits of agreement ${plotNumber(l.lower, 2, true)} to ${plotNumber(l.upper, 2, true)} ${unit}, ${outside} ${outside === 1 ? 'pair' : 'pairs'} outside them.`;
+      return `${l.method}: bias ${plotNumber(l.bias, 2, true)}${spaced(unit)}, 95 % limits of agreement ${plotNumber(l.lower, 2, true)} to ${plotNumber(l.upper, 2, true)}${spaced(unit)}, ${outside} ${outside === 1 ? 'pair' : 'pairs'} outside them.`;
     })
     .join(' ');
   const summary =
@@ -122,8 +126,8 @@ export function histogramText(points: readonly ParityPoint[], unit: string, meth
     parts.push(`${method}: ${errors.length} pairs, errors ${range(errors, unit)}, most between ${plotNumber(modeLo, 1)} and ${plotNumber(modeLo + step, 1)} (${modeN})`);
     for (const [lo, n] of [...bins.entries()].sort((a, b) => a[0] - b[0])) rows.push({ cells: [method, `${plotNumber(lo, 1)} to ${plotNumber(lo + step, 1)}`, String(n)] });
   }
-  const summary = `Error histogram of ${included.length} included pairs, one panel per method, bins of ${plotNumber(step, step < 1 ? 2 : 0)} ${unit}. ${parts.join('; ')}.`;
-  return { summary, table: { caption: 'Bins of the error histogram', columns: ['Method', `Error bin (${unit})`, 'Pairs'], rows }, navigation: [] };
+  const summary = `Error histogram of ${included.length} included pairs, one panel per method, bins of ${plotNumber(step, step < 1 ? 2 : 0)}${spaced(unit)}. ${parts.join('; ')}.`;
+  return { summary, table: { caption: 'Bins of the error histogram', columns: ['Method', header(`Error bin`, unit), 'Pairs'], rows }, navigation: [] };
 }
 
 export function comparisonText(points: readonly PairedPoint[], unit: string, a: string, b: string): FigureText {
@@ -132,18 +136,18 @@ export function comparisonText(points: readonly PairedPoint[], unit: string, a: 
   const worst = [...points].sort((x, y) => Math.abs(y.a - y.b) - Math.abs(x.a - x.b)).slice(0, WORST);
   const row = (p: PairedPoint): FigureRow => ({
     key: p.key,
-    spoken: `${p.material} ${p.label}: |error| ${a} ${plotNumber(p.a)}, ${b} ${plotNumber(p.b)} ${unit}`,
+    spoken: `${p.material} ${p.label}: |error| ${a} ${plotNumber(p.a)}, ${b} ${plotNumber(p.b)}${spaced(unit)}`,
     cells: [p.material, p.label, plotNumber(p.a), plotNumber(p.b), plotNumber(p.b - p.a, 2, true)],
   });
   const summary =
     `Method comparison: |error| of ${b} against |error| of ${a} on ${points.length} common pairs, ${range(points.flatMap((p) => [p.a, p.b]), unit)}; ` +
     `${a} closer on ${aCloser}, ${b} closer on ${bCloser}, ${points.length - aCloser - bCloser} tied.` +
-    (worst.length ? ` Largest differences: ${worst.map((p) => `${p.material} ${p.label} ${plotNumber(p.b - p.a, 1, true)} ${unit}`).join('; ')}.` : '');
+    (worst.length ? ` Largest differences: ${worst.map((p) => `${p.material} ${p.label} ${plotNumber(p.b - p.a, 1, true)}${spaced(unit)}`).join('; ')}.` : '');
   return {
     summary,
     table: {
       caption: 'Common pairs of the two methods, largest difference first',
-      columns: ['Material', 'Mode', `|error| ${a} (${unit})`, `|error| ${b} (${unit})`, `Difference (${unit})`],
+      columns: ['Material', 'Mode', header(`|error| ${a}`, unit), header(`|error| ${b}`, unit), header(`Difference`, unit)],
       rows: [...points].sort((x, y) => Math.abs(y.a - y.b) - Math.abs(x.a - x.b)).map(row),
     },
     navigation: [...points].sort((x, y) => x.a - y.a || x.key.localeCompare(y.key)).map(row),

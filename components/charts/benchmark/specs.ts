@@ -9,6 +9,7 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { PlotPoint } from '@/lib/benchmark/pairs-export';
+import { header } from '@/lib/format';
 
 /** A pair as the plots draw it: the pairs endpoint's plot point; the method id is not drawn. */
 export type ParityPoint = Omit<PlotPoint, 'methodId'>;
@@ -109,9 +110,9 @@ function tooltip(unit: string) {
     { field: 'material', title: 'Material' },
     { field: 'label', title: 'Mode' },
     { field: 'method', title: 'Method' },
-    { field: 'measured', title: `Measured (${unit})`, format: '.2f' },
-    { field: 'calculated', title: `Calculated (${unit})`, format: '.2f' },
-    { field: 'error', title: `Error (${unit})`, format: '+.2f' },
+    { field: 'measured', title: header(`Measured`, unit), format: '.2f' },
+    { field: 'calculated', title: header(`Calculated`, unit), format: '.2f' },
+    { field: 'error', title: header(`Error`, unit), format: '+.2f' },
     { field: 'status', title: 'Status' },
     { field: 'citation', title: 'Source' },
   ];
@@ -228,8 +229,8 @@ export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions)
         data: { values: bandValues },
         mark: { type: 'area', color: '#1d5a6e', opacity: 0.08, clip: true },
         encoding: {
-          x: { field: 'x', type: 'quantitative', scale: axis, title: `Measured (${o.unit})` },
-          y: { field: 'lower', type: 'quantitative', scale: axis, title: `Calculated (${o.unit})` },
+          x: { field: 'x', type: 'quantitative', scale: axis, title: header(`Measured`, o.unit) },
+          y: { field: 'lower', type: 'quantitative', scale: axis, title: header(`Calculated`, o.unit) },
           y2: { field: 'upper' },
         },
       },
@@ -252,7 +253,7 @@ export function parityPlotSpec(points: readonly ParityPoint[], o: ParityOptions)
           color: colour(o.methods),
         },
       },
-      ...pointLayers(points, { x: 'measured', y: 'calculated', domainX: domain, domainY: domain, titles: { x: `Measured (${o.unit})`, y: `Calculated (${o.unit})` } }, o.methods, o.unit, undefined, density),
+      ...pointLayers(points, { x: 'measured', y: 'calculated', domainX: domain, domainY: domain, titles: { x: header(`Measured`, o.unit), y: header(`Calculated`, o.unit) } }, o.methods, o.unit, undefined, density),
     ],
   } as TopLevelSpec;
 }
@@ -289,7 +290,7 @@ export function histogramBins(errors: readonly number[], maxBins = 30): { step: 
 export function errorHistogramSpec(points: readonly ParityPoint[], o: { unit: string; methods: readonly string[]; maxBins?: number }): TopLevelSpec {
   const included = points.filter((p) => !p.excluded);
   const bins = histogramBins(included.map((p) => p.error), o.maxBins ?? 30);
-  const x = { field: 'error', type: 'quantitative' as const, title: `Error (${o.unit})`, scale: { domain: bins.extent, nice: false, zero: false } };
+  const x = { field: 'error', type: 'quantitative' as const, title: header(`Error`, o.unit), scale: { domain: bins.extent, nice: false, zero: false } };
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     config: config(),
@@ -307,7 +308,7 @@ export function errorHistogramSpec(points: readonly ParityPoint[], o: { unit: st
             y: { aggregate: 'count', type: 'quantitative', title: 'Pairs' },
             color: { ...colour(o.methods), legend: null },
             tooltip: [
-              { field: 'error', type: 'quantitative', bin: { step: bins.step, extent: bins.extent }, title: `Error (${o.unit})`, format: '.1f' },
+              { field: 'error', type: 'quantitative', bin: { step: bins.step, extent: bins.extent }, title: header(`Error`, o.unit), format: '.1f' },
               { aggregate: 'count', title: 'Pairs' },
             ],
           },
@@ -334,7 +335,7 @@ export function residualSpec(points: readonly ParityPoint[], o: { unit: string; 
         mark: { type: 'rule', color: '#4d5b69', strokeDash: [4, 3] },
         encoding: { y: { field: 'y', type: 'quantitative', scale: { domain: domainY, zero: false, nice: false } } },
       },
-      ...pointLayers(points, { x: 'measured', y: 'error', domainX, domainY, titles: { x: `Measured (${o.unit})`, y: `Error, calculated − measured (${o.unit})` } }, o.methods, o.unit),
+      ...pointLayers(points, { x: 'measured', y: 'error', domainX, domainY, titles: { x: header(`Measured`, o.unit), y: header(`Error, calculated − measured`, o.unit) } }, o.methods, o.unit),
     ],
   } as TopLevelSpec;
 }
@@ -365,7 +366,7 @@ export function blandAltmanSpec(points: readonly ParityPoint[], limits: readonly
     }),
   );
   const yScale = { domain: domainY, zero: false, nice: false };
-  const axes = { x: 'mean', y: 'error', domainX, domainY, titles: { x: `Mean of measured and calculated (${o.unit})`, y: `Calculated − measured (${o.unit})` } };
+  const axes = { x: 'mean', y: 'error', domainX, domainY, titles: { x: header(`Mean of measured and calculated`, o.unit), y: header(`Calculated − measured`, o.unit) } };
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: 460,
@@ -425,13 +426,13 @@ export function pairedScatterSpec(points: readonly PairedPoint[], o: { unit: str
         data: { values: [...points] },
         mark: { type: 'point', filled: true, size: 36, color: '#1d5a6e', opacity: 0.8 },
         encoding: {
-          x: { field: 'a', type: 'quantitative', scale: axis, title: `|error| ${o.a} (${o.unit})` },
-          y: { field: 'b', type: 'quantitative', scale: axis, title: `|error| ${o.b} (${o.unit})` },
+          x: { field: 'a', type: 'quantitative', scale: axis, title: header(`|error| ${o.a}`, o.unit) },
+          y: { field: 'b', type: 'quantitative', scale: axis, title: header(`|error| ${o.b}`, o.unit) },
           tooltip: [
             { field: 'material', title: 'Material' },
             { field: 'label', title: 'Mode' },
-            { field: 'a', title: `|error| ${o.a} (${o.unit})`, format: '.2f' },
-            { field: 'b', title: `|error| ${o.b} (${o.unit})`, format: '.2f' },
+            { field: 'a', title: header(`|error| ${o.a}`, o.unit), format: '.2f' },
+            { field: 'b', title: header(`|error| ${o.b}`, o.unit), format: '.2f' },
           ],
         },
       },

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { computeBenchmark } from '@/lib/benchmark/compute';
-import { readRules } from '@/lib/benchmark/schemas';
+import { outlierScaleOf, readRules } from '@/lib/benchmark/schemas';
 import type { BenchmarkInput, ScopeCalculation, ScopeMeasurement } from '@/lib/benchmark/types';
 
 let seq = 0;
@@ -263,5 +263,42 @@ describe('heat capacity', () => {
   it('per atom divides by the atoms of the reduced formula (Mg2O2 → MgO: 2), as for entropies', () => {
     const s = run('atom').methods[0].statistics!;
     expect(s.meanAbsoluteError).toBeCloseTo((1 + 0.5 + 2 / 2) / 3, 12);
+  });
+});
+
+describe('dielectric constants', () => {
+  // Invented ε∞ values (modelled on textbook values of Si, NaCl and MgO, from memory).
+  const materials = ['si', 'nacl', 'mgo'].map((id) => ({ id, name: id, formula: 'X', atomsInCell: 2, tags: [] as string[] }));
+  const measurements = [meas('si', 11.9, null, { temperatureK: 295, technique: null }), meas('nacl', 2.34, null, { temperatureK: null, technique: null }), meas('mgo', 2.95, null, { temperatureK: 295, technique: null })];
+  const calculations = [
+    calc('A', 'si', 12.9, null, { activity: null, degeneracy: null }),
+    calc('A', 'nacl', 2.44, null, { activity: null, degeneracy: null, temperatureK: 0 }),
+    calc('A', 'mgo', 3.15, null, { activity: null, degeneracy: null }),
+    calc('A', 'mgo', 9.99, null, { activity: null, degeneracy: null }),
+  ];
+  const snap = computeBenchmark(input({ quantity: 'eps-inf', materials, measurements, calculations, methods: [{ id: 'A', label: 'A', kGrid: null, qGrid: null }], rules: readRules({ bootstrapSamples: 0 }) }));
+
+  it('pairs one measured and one computed value per material whatever the temperatures, dimensionless', () => {
+    expect(snap.unit).toBe('');
+    expect(snap.methods[0].n).toBe(3);
+    // errors +1.0, +0.1, +0.2 (MgO: the first computed row by id; the second makes the pair ambiguous)
+    expect(snap.methods[0].statistics!.meanAbsoluteError).toBeCloseTo((1 + 0.1 + 0.2) / 3, 12);
+    const mgo = snap.pairs.find((p) => p.materialId === 'mgo')!;
+    expect(mgo.calculated).toBe(3.15);
+    expect(mgo.ambiguous).toBe(true);
+    expect(mgo.basis).toBe('material');
+    expect(snap.entropyBasis).toBeUndefined();
+    expect(snap.caution).toMatch(/orientational average/);
+  });
+});
+
+describe('the outlier scale follows the quantity', () => {
+  it('is relative for frequencies and dielectric constants, absolute for entropies and heat capacities', () => {
+    expect(outlierScaleOf({}, 'frequency')).toBe('relative');
+    expect(outlierScaleOf({}, 'eps-inf')).toBe('relative');
+    expect(outlierScaleOf({}, 'eps-static')).toBe('relative');
+    expect(outlierScaleOf({}, 'entropy')).toBe('absolute');
+    expect(outlierScaleOf({}, 'heat-capacity')).toBe('absolute');
+    expect(outlierScaleOf({ scale: 'absolute' }, 'eps-inf')).toBe('absolute');
   });
 });

@@ -32,7 +32,7 @@ export const benchmarkFormSchema = z.object({
   ambiguityCm1: optionalNumber('The ambiguity window'),
   outlierKind: z.enum(OUTLIER_RULE_KINDS, 'Choose an outlier rule.'),
   outlierThreshold: optionalNumber('The outlier threshold'),
-  /** Empty: follow the quantity (relative for frequencies). */
+  /** Empty: follow the quantity (relative for frequencies and dielectric constants). */
   outlierScale: z.preprocess(blank, z.enum(OUTLIER_SCALES, 'Choose a scale.').optional()),
   outlierMinN: optionalNumber('The outlier minimum N'),
   rankMinN: optionalNumber('The ranking minimum N'),

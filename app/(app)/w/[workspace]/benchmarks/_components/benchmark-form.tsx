@@ -55,7 +55,12 @@ export function BenchmarkForm({
           <option value="frequency">Γ-point mode frequency</option>
           <option value="entropy">Vibrational entropy at T</option>
           <option value="heat-capacity">Heat capacity at T (measured Cp against computed Cv)</option>
+          <option value="eps-inf">Dielectric constant ε∞ (electronic)</option>
+          <option value="eps-static">Dielectric constant ε₀ (static)</option>
         </SelectField>
+        {quantity === 'eps-inf' || quantity === 'eps-static' ? (
+          <p className="text-xs text-ink-muted">One value per material on each side, whatever its temperature; for a non-cubic crystal store the orientational average (ε_xx + ε_yy + ε_zz)/3 on both sides.</p>
+        ) : null}
         {quantity === 'heat-capacity' ? (
           <p className="text-xs text-ink-muted">Calorimetry measures Cp; a harmonic calculation gives Cv, which lies below it by α² B V_m T. The benchmark compares them without that correction and says so on its page.</p>
         ) : null}
@@ -168,7 +173,7 @@ export function BenchmarkForm({
         />
         <div className="grid grid-cols-2 gap-3">
           <SelectField label="Outlier scale (modified z, Tukey)" name="outlierScale" defaultValue={rules.outlierRule.scale ?? ''} errors={e.outlierScale}>
-            <option value="">By quantity (relative for frequencies)</option>
+            <option value="">By quantity (relative for frequencies and dielectric constants)</option>
             <option value="relative">Relative error (error / measured)</option>
             <option value="absolute">Absolute error</option>
           </SelectField>

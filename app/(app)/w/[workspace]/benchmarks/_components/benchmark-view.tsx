@@ -15,8 +15,8 @@ import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
 import { ScalingPanel } from './scaling-panel';
 import { MaterialTable } from './material-table';
-import { ENTROPY_CAUTION, HEAT_CAPACITY_CAUTION } from '@/lib/benchmark/compute';
-import { isThermal } from '@/lib/benchmark/quantities';
+import { DIELECTRIC_CAUTION, ENTROPY_CAUTION, HEAT_CAPACITY_CAUTION } from '@/lib/benchmark/compute';
+import { isDielectric, isThermal } from '@/lib/benchmark/quantities';
 import { BreakdownTable } from './breakdown-table';
 import { BenchmarkPlots } from './benchmark-plots';
 import { MethodComparison } from './method-comparison';
@@ -157,6 +157,12 @@ export async function BenchmarkView({
               ? 'Values are compared per mole of atoms (each formula-unit value divided by the atoms of the reduced formula), so every material weighs alike.'
               : 'Values are compared per mole of formula units of the reduced formula (per GaN for a material written Ga2N2), as thermochemical tables give them.'}
           </span>
+        </Notice>
+      ) : null}
+
+      {isDielectric(snap.quantity) ? (
+        <Notice tone="warn">
+          <span data-testid="dielectric-caution">{snap.caution ?? DIELECTRIC_CAUTION}</span>
         </Notice>
       ) : null}
 

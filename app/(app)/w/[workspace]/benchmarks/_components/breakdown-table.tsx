@@ -15,7 +15,7 @@ export function BreakdownTable({ rows, methods, groupTitle, caption, unit }: { r
     <ScrollRegion label={caption}>
       <table className="w-full border-collapse text-[13px]" data-testid="breakdown">
         <caption className="sr-only">
-          {caption}, errors in {unit}
+          {caption}{unit ? `, errors in ${unit}` : ''}
         </caption>
         <thead className="border-b border-rule">
           <tr>

@@ -38,7 +38,7 @@ export function LeaderboardTable({ methods, unit, worstPair, details = 'toggle' 
       ) : null}
       <ScrollRegion label="Leaderboard table" className="rounded-md border border-rule">
         <table className="w-full border-collapse text-[13px]" data-testid="leaderboard">
-          <caption className="sr-only">Leaderboard: error statistics per method, errors in {unit}</caption>
+          <caption className="sr-only">Leaderboard: error statistics per method, errors{unit ? ` in ${unit}` : ''}</caption>
           <thead className="border-b border-rule">
             <tr>
               <th scope="col" className={`${th} ${sticky} min-w-28`}>

@@ -68,7 +68,7 @@ export function Leaderboard({
         </ul>
       ) : null}
       <p className="text-xs text-ink-faint">
-        Errors are calculated − measured, in {unit}. {intervalNote(methods)}
+        Errors are calculated − measured{unit ? `, in ${unit}` : ' (dimensionless)'}. {intervalNote(methods)}
       </p>
     </div>
   );

@@ -54,7 +54,7 @@ export function MaterialTable({ rows, methods, unit, slug }: { rows: MaterialRow
       </label>
       <ScrollRegion className="max-h-[28rem] overflow-auto rounded-md border border-rule" label="Materials of the method">
         <table className="min-w-full border-collapse text-[13px]" data-testid="material-table">
-          <caption className="sr-only">Per-material statistics of the chosen method, errors in {unit}; sorted by {COLUMNS.find((c) => c.key === sort.key)?.label}</caption>
+          <caption className="sr-only">Per-material statistics of the chosen method, errors{unit ? ` in ${unit}` : ''}; sorted by {COLUMNS.find((c) => c.key === sort.key)?.label}</caption>
           <thead className="sticky top-0 z-20 border-b border-rule bg-panel">
             <tr>
               {COLUMNS.map((c, i) => (

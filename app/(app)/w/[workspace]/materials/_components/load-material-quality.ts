@@ -3,14 +3,23 @@ import type { MaterialValues } from '@/db/queries/material-values';
 import { getMethodGrids, getQualityThresholds } from '@/db/queries/settings';
 import { materialQualityFlags, type MethodQuality } from '@/lib/benchmark/material-quality';
 
+/** A method's ε∞ and ε₀ of the material (the first row of each by id), when both are stored. */
+function dielectricOf(rows: MaterialValues['methods'][number]['dielectric']): { epsInf: number; eps0: number } | undefined {
+  const first = (q: string) => rows.filter((r) => r.quantity === q).sort((a, b) => (a.id < b.id ? -1 : 1))[0]?.value;
+  const epsInf = first('eps-inf');
+  const eps0 = first('eps-static');
+  return epsInf !== undefined && eps0 !== undefined ? { epsInf, eps0 } : undefined;
+}
+
 /** The material page's quality flags: each method's modes with its grids and the workspace's thresholds. */
-export async function loadMaterialQuality(workspaceId: string, material: { id: string; atomsInCell: number | null }, values: MaterialValues): Promise<MethodQuality[]> {
+export async function loadMaterialQuality(workspaceId: string, material: { id: string; atomsInCell: number | null; spaceGroup: number | null }, values: MaterialValues): Promise<MethodQuality[]> {
   const methods = values.methods.filter((m) => m.modes.length > 0);
   if (methods.length === 0) return [];
   const [thresholds, grids] = await Promise.all([getQualityThresholds(workspaceId), getMethodGrids(workspaceId, methods.map((m) => m.methodId))]);
   return materialQualityFlags({
     materialId: material.id,
     atomsInCell: material.atomsInCell,
+    spaceGroup: material.spaceGroup,
     thresholds,
     methods: methods.map((m) => ({
       methodId: m.methodId,
@@ -18,6 +27,7 @@ export async function loadMaterialQuality(workspaceId: string, material: { id: s
       kGrid: grids.get(m.methodId)?.kGrid ?? null,
       qGrid: grids.get(m.methodId)?.qGrid ?? null,
       modes: m.modes,
+      dielectric: dielectricOf(m.dielectric),
     })),
   });
 }

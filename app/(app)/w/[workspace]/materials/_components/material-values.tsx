@@ -91,6 +91,49 @@ function ModesTable({ modes }: { modes: ComputedModeRow[] }) {
   );
 }
 
+/** Measured and computed ε∞ and ε₀ of the material (dimensionless; the orientational average for a non-cubic crystal). */
+function DielectricTable({ slug, values }: { slug: string; values: MaterialValues }) {
+  const name = (q: string) => (q === 'eps-inf' ? 'ε∞' : 'ε₀');
+  const rows = [
+    ...values.dielectric.map((e) => ({ id: e.id, series: 'Measured', q: name(e.quantity), v: shown(e.value, e.valueText, e.unit, '1'), u: shown(e.uncertainty, e.uncertaintyText, e.unit, '1'), t: e.temperatureK, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+    ...values.methods.flatMap((m) =>
+      m.dielectric.map((e) => ({ id: e.id, series: m.methodLabel, q: name(e.quantity), v: shown(e.value, e.valueText, e.unit, '1'), u: '–', t: e.temperatureK, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+    ),
+  ].sort((a, b) => a.q.localeCompare(b.q) || (a.series === 'Measured' ? -1 : b.series === 'Measured' ? 1 : a.series.localeCompare(b.series)));
+  if (rows.length === 0) return null;
+  return (
+    <Panel title="Dielectric constants">
+      <table className="w-full max-w-2xl text-sm">
+        <thead className="text-left text-xs text-ink-muted">
+          <tr>
+            <th className={th}>Measured / method</th>
+            <th className={th}>Constant</th>
+            <th className={thNum}>Value</th>
+            <th className={thNum}>±</th>
+            <th className={thNum}>{header('T', 'K')}</th>
+            <th className="py-1 font-medium">Source</th>
+          </tr>
+        </thead>
+        <tbody className="divide-y divide-rule">
+          {rows.map((r) => (
+            <tr key={r.id}>
+              <td className="py-1 pr-2">{r.series}</td>
+              <td className="py-1 pr-2">{r.q}</td>
+              <td className="num py-1 pr-2 text-right">{r.v}</td>
+              <td className="num py-1 pr-2 text-right">{r.u}</td>
+              <td className="num py-1 pr-2 text-right">{r.t === null ? '–' : plain(r.t)}</td>
+              <td className="py-1">
+                <Link href={`/w/${slug}/sources/${r.sourceId}`}>{r.citeKey}</Link>
+                <IncompleteMark gaps={r.sourceGaps} />
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </Panel>
+  );
+}
+
 const THERMAL = {
   entropy: { title: 'Vibrational entropy (per formula unit)', symbol: 'S', measured: 'Measured' },
   'heat-capacity': { title: 'Heat capacity (per formula unit): measured Cp, computed Cv', symbol: 'C', measured: 'Measured (Cp)' },
@@ -152,7 +195,7 @@ function ThermalTable({ slug, values, quantity }: { slug: string; values: Materi
 
 /** Measured peaks beside the selected method's computed modes, the stick spectrum of both, and entropies. */
 export function MaterialValuesSection({ slug, materialId, materialName, values, selectedMethodId }: { slug: string; materialId: string; materialName: string; values: MaterialValues; selectedMethodId?: string }) {
-  const hasAny = values.peaks.length + values.entropies.length + values.heatCapacities.length + values.methods.length > 0;
+  const hasAny = values.peaks.length + values.entropies.length + values.heatCapacities.length + values.dielectric.length + values.methods.length > 0;
   if (!hasAny) {
     return (
       <EmptyState title="No measurements or calculations yet">
@@ -212,6 +255,7 @@ export function MaterialValuesSection({ slug, materialId, materialName, values, 
       )}
       <ThermalTable slug={slug} values={values} quantity="entropy" />
       <ThermalTable slug={slug} values={values} quantity="heat-capacity" />
+      <DielectricTable slug={slug} values={values} />
     </div>
   );
 }

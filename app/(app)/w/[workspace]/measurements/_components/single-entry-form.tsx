@@ -11,6 +11,9 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { createSingleEntryAction } from '../actions';
+import { DIMENSIONLESS_UNITS } from '@/lib/import/units';
+
+type EntryQuantity = 'frequency' | 'entropy' | 'heat-capacity' | 'eps-inf' | 'eps-static';
 
 export interface EntryChoices {
   materials: Array<{ id: string; name: string }>;
@@ -40,7 +43,7 @@ function Options({ values, blank = '—' }: { values: readonly string[]; blank?:
  */
 export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMaterial = '' }: { workspaceId: string; slug: string; kind: ImportableKind; choices: EntryChoices; initialMaterial?: string }) {
   const [state, dispatch, pending] = useActionState<ActionState, FormData>(createSingleEntryAction, { ok: false });
-  const [quantity, setQuantity] = useState<'frequency' | 'entropy' | 'heat-capacity'>('frequency');
+  const [quantity, setQuantity] = useState<EntryQuantity>('frequency');
   const [material, setMaterial] = useState(initialMaterial);
   const formRef = useRef<HTMLFormElement>(null);
   const errors = state.fieldErrors ?? {};
@@ -64,7 +67,7 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
     startTransition(() => dispatch(data));
   };
 
-  const units = quantity === 'frequency' ? FREQUENCY_UNITS : ENTROPY_UNITS;
+  const units = quantity === 'frequency' ? FREQUENCY_UNITS : quantity === 'eps-inf' || quantity === 'eps-static' ? DIMENSIONLESS_UNITS : ENTROPY_UNITS;
   return (
     <form ref={formRef} noValidate onSubmit={onSubmit} className="space-y-5" aria-label={measured ? 'Add one measurement' : 'Add one calculation'}>
       <input type="hidden" name="workspaceId" value={workspaceId} />
@@ -88,10 +91,12 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
             <Options values={choices.methods.map((m) => m.label)} blank="— choose —" />
           </SelectField>
         )}
-        <SelectField label="Quantity" name="quantity" required value={quantity} onChange={(e) => setQuantity(e.target.value as 'frequency' | 'entropy' | 'heat-capacity')} errors={errors.quantity}>
+        <SelectField label="Quantity" name="quantity" required value={quantity} onChange={(e) => setQuantity(e.target.value as EntryQuantity)} errors={errors.quantity}>
           <option value="frequency">{measured ? 'frequency (a peak)' : 'frequency (a mode)'}</option>
           <option value="entropy">entropy</option>
           <option value="heat-capacity">{measured ? 'heat capacity (Cp)' : 'heat capacity (harmonic Cv)'}</option>
+          <option value="eps-inf">dielectric constant ε∞</option>
+          <option value="eps-static">dielectric constant ε₀</option>
         </SelectField>
         <TextField label="Source (cite key)" name="source" list="entry-sources" autoComplete="off" required errors={errors.source} hint="e.g. azuhata1995; add a source first if it is new." />
       </fieldset>
@@ -102,7 +107,7 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
         <SelectField key={quantity} label="Unit" name="unit" defaultValue={units[0]} errors={errors.unit}>
           {units.map((u) => (
             <option key={u} value={u}>
-              {unitSymbol(u)}
+              {unitSymbol(u) || 'none (dimensionless)'}
             </option>
           ))}
         </SelectField>
