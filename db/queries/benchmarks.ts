@@ -229,8 +229,11 @@ function measurementScope(workspaceId: string, scope: BenchmarkScope): SQL {
   ];
   if (scope.techniques.length) conditions.push(inArray(measurement.technique, scope.techniques));
   if (isThermal(scope.quantity)) {
-    conditions.push(gte(measurement.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
-    conditions.push(lte(measurement.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
+    if (scope.entropyTemperatureK === null) conditions.push(isNotNull(measurement.temperatureK));
+    else {
+      conditions.push(gte(measurement.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
+      conditions.push(lte(measurement.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
+    }
   } else {
     if (scope.temperatureMinK !== null) conditions.push(gte(measurement.temperatureK, scope.temperatureMinK));
     if (scope.temperatureMaxK !== null) conditions.push(lte(measurement.temperatureK, scope.temperatureMaxK));
@@ -331,8 +334,11 @@ function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { ma
     inArray(calculation.materialId, scopedMaterials),
   ];
   if (isThermal(scope.quantity)) {
-    calculationWhere.push(gte(calculation.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
-    calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
+    if (scope.entropyTemperatureK === null) calculationWhere.push(isNotNull(calculation.temperatureK));
+    else {
+      calculationWhere.push(gte(calculation.temperatureK, scope.entropyTemperatureK - scope.entropyToleranceK));
+      calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
+    }
   }
   const measurementWhere = and(measurementScope(workspaceId, scope), options.onlyMaterials ? inArray(measurement.materialId, options.onlyMaterials) : undefined)!;
   return { methodWhere, methodIds, scopedMaterials, calculationWhere: and(...calculationWhere)!, measurementWhere };

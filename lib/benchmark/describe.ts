@@ -16,7 +16,7 @@ export function techniqueName(t: string | null): string {
 
 export function describeScope(scope: BenchmarkScope, names: { methods: string[]; materials: string[] }): string {
   const parts: string[] = [];
-  const at = `at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`;
+  const at = scope.entropyTemperatureK === null ? `at every measured temperature (± ${scope.entropyToleranceK} K)` : `at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`;
   if (scope.quantity === 'frequency') parts.push('Γ-point frequencies');
   else if (scope.quantity === 'entropy') parts.push(`vibrational entropies ${at}`);
   else if (scope.quantity === 'heat-capacity') parts.push(`heat capacities (measured Cp, computed Cv) ${at}`);

@@ -117,7 +117,7 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
     acousticThresholdCm1: input.qualityThresholds?.acousticCm1,
   };
   const window = { temperatureK: 298.15, toleranceK: 1, ...input.entropyWindow };
-  const near = (t: number | null) => t !== null && Math.abs(t - window.temperatureK) <= window.toleranceK;
+  const near = (t: number | null) => t !== null && (window.temperatureK === null || Math.abs(t - window.temperatureK) <= window.toleranceK);
   const atomBasis = isThermal(quantity) && (rules.entropyBasis ?? 'formula-unit') === 'atom';
 
   const ids = [...new Set([...measurementsOf.keys(), ...calculationsOf.keys()])].sort();

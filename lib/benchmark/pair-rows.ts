@@ -250,28 +250,33 @@ export function pairFrequencies(
   return { pairs, unpaired, pinConflicts };
 }
 
-/** Measured vs computed entropy (or heat capacity) per material and method at the benchmark temperature. */
+/**
+ * Measured vs computed entropy (or heat capacity) per material and method at the benchmark
+ * temperature, or (temperatureK null) at each measurement's own temperature: a measured S(T) or
+ * Cp(T) series pairs point by point with the computed value nearest in T within the tolerance.
+ */
 export function pairEntropies(
   measurements: readonly ScopeMeasurement[],
   calculationsByMaterialMethod: Map<string, ScopeCalculation[]>,
   methodIds: readonly string[],
-  temperatureK: number,
+  temperatureK: number | null,
   toleranceK: number,
 ): { pairs: PairRecord[]; unpaired: Map<string, number> } {
-  const near = (t: number | null) => t !== null && Math.abs(t - temperatureK) <= toleranceK;
+  const near = (t: number | null, target: number) => t !== null && Math.abs(t - target) <= toleranceK;
   const pairs: PairRecord[] = [];
   const unpaired = new Map<string, number>();
   for (const m of measurements) {
-    if (!near(m.temperatureK)) continue;
+    const target = temperatureK ?? m.temperatureK;
+    if (target === null || !near(m.temperatureK, target)) continue;
     for (const methodId of methodIds) {
-      const candidates = (calculationsByMaterialMethod.get(`${m.materialId}|${methodId}`) ?? []).filter((c) => near(c.temperatureK));
+      const candidates = (calculationsByMaterialMethod.get(`${m.materialId}|${methodId}`) ?? []).filter((c) => near(c.temperatureK, target));
       if (candidates.length === 0) {
         unpaired.set(methodId, (unpaired.get(methodId) ?? 0) + 1);
         continue;
       }
       const best = candidates.reduce((a, b) => {
-        const da = Math.abs(a.temperatureK! - temperatureK);
-        const db = Math.abs(b.temperatureK! - temperatureK);
+        const da = Math.abs(a.temperatureK! - target);
+        const db = Math.abs(b.temperatureK! - target);
         return db < da || (db === da && b.id < a.id) ? b : a;
       });
       pairs.push(newPair(methodId, m, [best.id], best.value, best.uncertainty, 'temperature', false, [...new Set([m.sourceId, best.sourceId])], null));

@@ -38,8 +38,11 @@ export const scopeSchema = z
     materialIds: z.array(id).max(5000).default([]),
     /** Methods to compare; empty: every method of the workspace. */
     methodIds: z.array(id).max(100).default([]),
-    /** Entropy and heat-capacity benchmarks: the temperature at which measured and computed values are compared. */
-    entropyTemperatureK: z.number().positive().default(298.15),
+    /**
+     * Entropy and heat-capacity benchmarks: the temperature at which measured and computed values are
+     * compared; null compares a measured S(T) or Cp(T) series at every measured temperature.
+     */
+    entropyTemperatureK: z.number().positive().nullable().default(298.15),
     /** Entropy and heat-capacity benchmarks: largest |T − entropyTemperatureK| of a row still compared. */
     entropyToleranceK: z.number().min(0).default(1),
   })

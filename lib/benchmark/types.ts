@@ -99,7 +99,8 @@ export interface BenchmarkInput {
   decisions: ScopeDecision[];
   qualityThresholds?: QualityThresholds;
   /** Entropy benchmarks: the comparison temperature and its tolerance, K. */
-  entropyWindow?: { temperatureK: number; toleranceK: number };
+  /** temperatureK null: every measured temperature, each within toleranceK of a computed one. */
+  entropyWindow?: { temperatureK: number | null; toleranceK: number };
   /** Dielectric constants and Born charges where stored (see ScopeDielectric). */
   dielectric?: ScopeDielectric[];
   /**

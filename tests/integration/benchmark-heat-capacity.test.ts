@@ -86,4 +86,31 @@ describe('heat-capacity benchmark', () => {
     expect(snap.methods[0].n).toBe(1);
     expect(snap.methods[0].statistics).toBeNull();
   });
+
+  it('compares a measured Cp(T) series at every measured temperature with the Cv the DOS gave at each', async () => {
+    // Invented Cp(T) at 100 K (imported above) and 200 K, 298.15 K; the DOS was imported at 100 and 298.15 K, so 200 K stays unpaired.
+    const csv = ['material,quantity,value,unit,temperature_K,technique,source', 'GaN-wz,heat-capacity,24.00,J/mol/K,200,calorimetry,azuhata1995'].join('\n');
+    await importCsvFile({ workspaceId: ws.workspaceId, actor: { userId: ws.owner.id, tokenId: null }, via: 'wizard', kind: 'measurements', fileName: 'cp-200.csv', body: chunksOf(bytesOf(csv), 13) });
+    const state = await createBenchmarkAction(
+      undefined,
+      formData({ workspaceId: ws.workspaceId, name: 'Cp(T) series', quantity: 'heat-capacity', thermalTemperatures: 'each', entropyTemperatureK: '298.15', entropyToleranceK: '0.5', outlierKind: 'modified-z', repeatedMeasurements: 'separate' }),
+    );
+    expect(state.ok, state.message).toBe(true);
+    const benchmarkId = (state.data as { id: string }).id;
+    await whenRecomputeIdle(ws.workspaceId, benchmarkId);
+    const rev = await getRevision(ws.workspaceId, benchmarkId);
+    const snap = rev!.statistics;
+    const einsteinCv = (t: number) => {
+      const x = (h * c * 100 * 400) / (kB * t);
+      return (6 * R * x * x * Math.exp(x)) / Math.expm1(x) ** 2;
+    };
+    const byT = new Map(snap.pairs.map((p) => [p.temperatureK, p]));
+    expect([...byT.keys()].sort((a, b) => a! - b!)).toEqual([100, 298.15]);
+    expect(byT.get(100)!.measured).toBe(9.8);
+    expect(byT.get(100)!.calculated).toBeCloseTo(einsteinCv(100), 3);
+    expect(byT.get(298.15)!.calculated).toBeCloseTo(einsteinCv(298.15), 3);
+    // 100, 200, 298.15 K measured; the 500 K row is measured too (every measured temperature is in scope)
+    expect(snap.counts.measuredInScope).toBe(4);
+    expect(snap.methods[0].unpairedMeasurements).toBe(2);
+  });
 });

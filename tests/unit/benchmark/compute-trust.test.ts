@@ -302,3 +302,31 @@ describe('the outlier scale follows the quantity', () => {
     expect(outlierScaleOf({ scale: 'absolute' }, 'eps-inf')).toBe('absolute');
   });
 });
+
+describe('a measured series at every temperature', () => {
+  it('pairs each measured value with the computed one nearest in temperature within the tolerance', () => {
+    // Invented Cp(T) of one crystal at 100, 200, 298.15 and 500 K; computed Cv at 100, 199, 201 and 300 K.
+    const materials = [{ id: 'x', name: 'X', formula: 'MgO', atomsInCell: 2, tags: [] as string[] }];
+    const measurements = [100, 200, 298.15, 500].map((t, i) => meas('x', [10, 25, 37, 45][i], null, { temperatureK: t, technique: 'calorimetry' }));
+    const calculations = [
+      calc('A', 'x', 9, null, { temperatureK: 100, activity: null }),
+      calc('A', 'x', 24, null, { temperatureK: 199, activity: null }),
+      calc('A', 'x', 99, null, { temperatureK: 201.5, activity: null }),
+      calc('A', 'x', 36.5, null, { temperatureK: 300, activity: null }),
+    ];
+    const snap = computeBenchmark(
+      input({ quantity: 'heat-capacity', materials, measurements, calculations, methods: [{ id: 'A', label: 'A', kGrid: null, qGrid: null }], rules: readRules({ bootstrapSamples: 0 }), entropyWindow: { temperatureK: null, toleranceK: 2 } }),
+    );
+    const byT = new Map(snap.pairs.map((p) => [p.temperatureK, p.calculated]));
+    expect(byT).toEqual(
+      new Map([
+        [100, 9],
+        [200, 24],
+        [298.15, 36.5],
+      ]),
+    );
+    // the 500 K point has no computed value within 2 K
+    expect(snap.methods[0].unpairedMeasurements).toBe(1);
+    expect(snap.counts.measuredInScope).toBe(4);
+  });
+});

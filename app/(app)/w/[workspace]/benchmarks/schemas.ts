@@ -26,6 +26,8 @@ export const benchmarkFormSchema = z.object({
   materialIds: list(z.string().min(1)),
   methodIds: list(z.string().min(1)),
   entropyTemperatureK: optionalNumber('The comparison temperature'),
+  /** "each": compare a measured series at every measured temperature (entropyTemperatureK is then ignored). */
+  thermalTemperatures: z.preprocess(blank, z.enum(['one', 'each'], 'Choose one temperature or every measured one.').optional()),
   entropyToleranceK: optionalNumber('The temperature tolerance'),
   maxRelativeDeviationPercent: optionalNumber('The pairing window'),
   labelledMaxRelativeDeviationPercent: optionalNumber('The labelled pairing window'),
@@ -64,7 +66,7 @@ export function definitionFromForm(f: BenchmarkForm): BenchmarkDefinitionInput {
       materialTags: f.materialTags,
       materialIds: f.materialIds,
       methodIds: f.methodIds,
-      entropyTemperatureK: f.entropyTemperatureK,
+      entropyTemperatureK: f.thermalTemperatures === 'each' ? null : f.entropyTemperatureK,
       entropyToleranceK: f.entropyToleranceK,
     },
     rules: {

@@ -30,6 +30,7 @@ export function BenchmarkForm({
   const router = useRouter();
   const [state, action] = useActionState(benchmarkId ? updateBenchmarkAction : createBenchmarkAction, { ok: false });
   const [quantity, setQuantity] = useState(initial.scope.quantity);
+  const [series, setSeries] = useState(initial.scope.entropyTemperatureK === null);
   const [ruleKind, setRuleKind] = useState(initial.rules.outlierRule.kind);
   const e = state.fieldErrors ?? {};
 
@@ -66,7 +67,20 @@ export function BenchmarkForm({
         ) : null}
         {isThermal(quantity) ? (
           <div className="grid grid-cols-2 gap-3">
-            <TextField label="Temperature (K)" name="entropyTemperatureK" type="number" step="any" defaultValue={scope.entropyTemperatureK} errors={e.entropyTemperatureK} />
+            <div className="col-span-2">
+            <SelectField
+              label="Compare"
+              name="thermalTemperatures"
+              value={series ? 'each' : 'one'}
+              onChange={(ev) => setSeries(ev.target.value === 'each')}
+              errors={e.thermalTemperatures}
+              hint={series ? 'Each measured value pairs with the computed value of the same material nearest in temperature, within the tolerance: a measured S(T) or Cp(T) series is compared point by point. Import the DOS at the measured temperatures.' : undefined}
+            >
+              <option value="one">At one temperature</option>
+              <option value="each">At every measured temperature (a series)</option>
+            </SelectField>
+            </div>
+            {series ? null : <TextField label="Temperature (K)" name="entropyTemperatureK" type="number" step="any" defaultValue={scope.entropyTemperatureK ?? 298.15} errors={e.entropyTemperatureK} />}
             <TextField label="Tolerance (K)" name="entropyToleranceK" type="number" step="any" defaultValue={scope.entropyToleranceK} errors={e.entropyToleranceK} />
           </div>
         ) : (

@@ -8,7 +8,7 @@ export function intervalNote(methods: MethodResult[]): string {
   if (!boot) return 'No bootstrap interval was computed for this revision.';
   const level = Math.round(100 * boot.confidence);
   if (boot.resampled === 'clusters') {
-    return `MAE [${level} % interval]: a bootstrap that resamples whole materials (all modes of a material together), since the modes of one crystal share its errors. It shows how much the MAE would move with another set of materials like these, not the uncertainty of single modes.`;
+    return `MAE [${level} % interval]: a bootstrap that resamples whole materials (all pairs of a material together), since the pairs of one crystal share its errors. It shows how much the MAE would move with another set of materials like these, not the uncertainty of single values.`;
   }
   return `MAE [${level} % interval]: a bootstrap over single pairs (a revision computed before intervals were resampled by material; it is too narrow when modes of one material share their errors).`;
 }
