@@ -230,60 +230,36 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
       contributorId: userId,
     });
   }
+  // One measured value per material (entropies, heat capacities, ε∞); `hash` is what follows material and quantity in its row hash.
+  type PerMaterial = { material: string; source: string; quantity: 'entropy' | 'heat-capacity' | 'eps-inf'; text: string; unit: string; uncertainty?: string; temperatureK?: number | null; notes?: string };
+  const insertPerMaterial = (v: PerMaterial, hash: Array<string | number | null>) =>
+    tx.insert(measurement).values({
+      workspaceId,
+      materialId: need(materialIds, v.material, 'material').id,
+      sourceId: need(sourceIds, v.source, 'source'),
+      quantity: v.quantity,
+      value: Number(v.text),
+      valueText: v.text,
+      unit: v.unit,
+      uncertainty: v.uncertainty ? Number(v.uncertainty) : null,
+      uncertaintyText: v.uncertainty || null,
+      temperatureK: v.temperatureK ?? null,
+      technique: v.temperatureK === undefined ? null : 'calorimetry',
+      sampleForm: v.temperatureK === undefined ? 'single-crystal' : 'powder',
+      notes: v.notes ?? null,
+      rowHash: demoRowHash(['measurement', v.material, v.quantity, ...hash]),
+      contributorId: userId,
+    });
   for (const e of entropies) {
-    const mat = need(materialIds, e.material, 'material');
-    await tx.insert(measurement).values({
-      workspaceId,
-      materialId: mat.id,
-      sourceId: need(sourceIds, e.source, 'source'),
-      quantity: 'entropy',
-      value: Number(e.entropy_J_per_mol_K),
-      valueText: e.entropy_J_per_mol_K,
-      unit: 'J/mol/K',
-      uncertainty: e.uncertainty ? Number(e.uncertainty) : null,
-      uncertaintyText: e.uncertainty || null,
-      temperatureK: e.temperature_K,
-      technique: 'calorimetry',
-      sampleForm: 'powder',
-      rowHash: demoRowHash(['measurement', e.material, 'entropy', e.entropy_J_per_mol_K, 'J/mol/K', e.temperature_K, e.source]),
-      contributorId: userId,
-    });
+    const v = { material: e.material, source: e.source, quantity: 'entropy', text: e.entropy_J_per_mol_K, unit: 'J/mol/K', uncertainty: e.uncertainty, temperatureK: e.temperature_K } as const;
+    await insertPerMaterial(v, [v.text, v.unit, e.temperature_K, e.source]);
   }
-
   for (const c of heatCapacities) {
-    const mat = need(materialIds, c.material, 'material');
-    await tx.insert(measurement).values({
-      workspaceId,
-      materialId: mat.id,
-      sourceId: need(sourceIds, c.source, 'source'),
-      quantity: 'heat-capacity',
-      value: Number(c.heat_capacity_J_per_mol_K),
-      valueText: c.heat_capacity_J_per_mol_K,
-      unit: 'J/mol/K',
-      temperatureK: c.temperature_K,
-      technique: 'calorimetry',
-      sampleForm: 'powder',
-      notes: HEAT_CAPACITY_NOTE,
-      rowHash: demoRowHash(['measurement', c.material, 'heat-capacity', c.heat_capacity_J_per_mol_K, 'J/mol/K', c.temperature_K, c.source]),
-      contributorId: userId,
-    });
+    const v = { material: c.material, source: c.source, quantity: 'heat-capacity', text: c.heat_capacity_J_per_mol_K, unit: 'J/mol/K', temperatureK: c.temperature_K, notes: HEAT_CAPACITY_NOTE } as const;
+    await insertPerMaterial(v, [v.text, v.unit, c.temperature_K, c.source]);
   }
-
   for (const d of dielectric) {
-    const mat = need(materialIds, d.material, 'material');
-    await tx.insert(measurement).values({
-      workspaceId,
-      materialId: mat.id,
-      sourceId: need(sourceIds, d.source, 'source'),
-      quantity: 'eps-inf',
-      value: Number(d.eps_inf),
-      valueText: d.eps_inf,
-      unit: '1',
-      sampleForm: 'single-crystal',
-      notes: DIELECTRIC_NOTE,
-      rowHash: demoRowHash(['measurement', d.material, 'eps-inf', d.eps_inf, '1', d.source]),
-      contributorId: userId,
-    });
+    await insertPerMaterial({ material: d.material, source: d.source, quantity: 'eps-inf', text: d.eps_inf, unit: '1', notes: DIELECTRIC_NOTE }, [d.eps_inf, '1', d.source]);
   }
 
   // Methods and their synthetic calculations.
@@ -355,58 +331,26 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
         push(value, label, mode.branch, mode.activity, mode.degeneracy);
       }
     }
-    for (const e of entropies) {
-      const mat = need(materialIds, e.material, 'material');
-      const s = Number(e.entropy_J_per_mol_K) * (1 + spec.entropyBias + spec.entropyNoise * gaussian(random));
-      const text = s.toFixed(2);
+    // one synthetic value per material: the measured one × (1 + bias + noise · g), to two decimals
+    const perMaterial = (material: string, quantity: PerMaterial['quantity'], measured: string, bias: number, noise: number, draw: () => number, unit: string, temperatureK?: number | null) => {
+      const text = (Number(measured) * (1 + bias + noise * draw())).toFixed(2);
       values.push({
         workspaceId,
-        materialId: mat.id,
+        materialId: need(materialIds, material, 'material').id,
         methodId: row.id,
         sourceId: synthetic,
-        quantity: 'entropy',
+        quantity,
         value: Number(text),
         valueText: text,
-        unit: 'J/mol/K',
-        temperatureK: e.temperature_K,
-        rowHash: demoRowHash(['calculation', e.material, spec.label, 'entropy', text, e.temperature_K]),
+        unit,
+        temperatureK: temperatureK ?? null,
+        rowHash: demoRowHash(['calculation', material, spec.label, quantity, text, ...(temperatureK === undefined ? [] : [temperatureK])]),
         contributorId: userId,
       });
-    }
-    for (const c of heatCapacities) {
-      const mat = need(materialIds, c.material, 'material');
-      const cv = Number(c.heat_capacity_J_per_mol_K) * (1 + spec.heatCapacityBias + spec.heatCapacityNoise * gaussian(heatRandom));
-      const text = cv.toFixed(2);
-      values.push({
-        workspaceId,
-        materialId: mat.id,
-        methodId: row.id,
-        sourceId: synthetic,
-        quantity: 'heat-capacity',
-        value: Number(text),
-        valueText: text,
-        unit: 'J/mol/K',
-        temperatureK: c.temperature_K,
-        rowHash: demoRowHash(['calculation', c.material, spec.label, 'heat-capacity', text, c.temperature_K]),
-        contributorId: userId,
-      });
-    }
-    for (const d of dielectric) {
-      const mat = need(materialIds, d.material, 'material');
-      const text = (Number(d.eps_inf) * (1 + spec.epsInfBias + spec.epsInfNoise * gaussian(dielectricRandom))).toFixed(2);
-      values.push({
-        workspaceId,
-        materialId: mat.id,
-        methodId: row.id,
-        sourceId: synthetic,
-        quantity: 'eps-inf',
-        value: Number(text),
-        valueText: text,
-        unit: '1',
-        rowHash: demoRowHash(['calculation', d.material, spec.label, 'eps-inf', text]),
-        contributorId: userId,
-      });
-    }
+    };
+    for (const e of entropies) perMaterial(e.material, 'entropy', e.entropy_J_per_mol_K, spec.entropyBias, spec.entropyNoise, () => gaussian(random), 'J/mol/K', e.temperature_K);
+    for (const c of heatCapacities) perMaterial(c.material, 'heat-capacity', c.heat_capacity_J_per_mol_K, spec.heatCapacityBias, spec.heatCapacityNoise, () => gaussian(heatRandom), 'J/mol/K', c.temperature_K);
+    for (const d of dielectric) perMaterial(d.material, 'eps-inf', d.eps_inf, spec.epsInfBias, spec.epsInfNoise, () => gaussian(dielectricRandom), '1');
     for (let i = 0; i < values.length; i += 200) await tx.insert(calculation).values(values.slice(i, i + 200));
   }
   return { created: true };

@@ -95,7 +95,8 @@ export function unitOf(quantity: BenchmarkInput['quantity']): string {
   return QUANTITY_UNIT[quantity];
 }
 
-function cautionOf(quantity: BenchmarkInput['quantity']): string | null {
+/** The caution a benchmark of this quantity carries on its page (null: none). */
+export function cautionOf(quantity: BenchmarkInput['quantity']): string | null {
   if (quantity === 'entropy') return ENTROPY_CAUTION;
   if (quantity === 'heat-capacity') return HEAT_CAPACITY_CAUTION;
   if (isDielectric(quantity)) return DIELECTRIC_CAUTION;

@@ -5,7 +5,7 @@
  * on: N, coverage, the common-pair MAE and N, the interval, outliers and exclusions.
  */
 import { toCsv } from '@/lib/csv';
-import { MINUS, fixed, signed, stat } from '@/lib/format';
+import { MINUS, fixed, header, signed, stat } from '@/lib/format';
 import type { BenchmarkSnapshot, MethodResult } from './types';
 
 export interface LeaderboardExportContext {
@@ -125,8 +125,7 @@ export function leaderboardLatex(snapshot: BenchmarkSnapshot, ctx: LeaderboardEx
   const unit = latexText(snapshot.unit);
   const boot = snapshot.methods.find((m) => m.statistics?.bootstrap)?.statistics?.bootstrap;
   const level = boot ? Math.round(100 * boot.confidence) : 95;
-  const u = (label: string) => (unit ? `${label} (${unit})` : label);
-  const head = ['Rank', 'Method', '$N$', 'Coverage (\\%)', u('MAE, common pairs'), 'Common $N$', u('MAE'), `${level}\\,\\% interval`, u('MSE'), u('RMSE'), 'Outliers', 'Excluded'];
+  const head = ['Rank', 'Method', '$N$', 'Coverage (\\%)', header('MAE, common pairs', unit), 'Common $N$', header('MAE', unit), `${level}\\,\\% interval`, header('MSE', unit), header('RMSE', unit), 'Outliers', 'Excluded'];
   const cell = (v: string) => latexText(v);
   const rows = snapshot.methods.map((m) => {
     const s = m.statistics;

@@ -6,14 +6,14 @@
  * whatever the temperature (measured near room temperature, computed for the structure
  * at rest), dimensionless.
  */
-import type { BenchmarkQuantity } from './schemas';
+import { THERMAL_QUANTITIES, type BenchmarkQuantity } from './schemas';
 
 export type ThermalQuantity = 'entropy' | 'heat-capacity';
 export type DielectricQuantity = 'eps-inf' | 'eps-static';
 
 /** Entropy and heat capacity: one value per material at a temperature, compared within a tolerance in K. */
 export function isThermal(quantity: BenchmarkQuantity): quantity is ThermalQuantity {
-  return quantity === 'entropy' || quantity === 'heat-capacity';
+  return THERMAL_QUANTITIES.includes(quantity);
 }
 
 /** ε∞ and ε₀: one scalar per material (the orientational average for a non-cubic crystal). */

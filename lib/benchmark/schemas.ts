@@ -7,6 +7,8 @@ import { z } from 'zod';
 /** Quantities a benchmark can compare. */
 export const BENCHMARK_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static'] as const;
 export type BenchmarkQuantity = (typeof BENCHMARK_QUANTITIES)[number];
+/** Compared one value per material at a temperature (quantities.ts, isThermal). */
+export const THERMAL_QUANTITIES: readonly BenchmarkQuantity[] = ['entropy', 'heat-capacity'];
 
 /** Measurement techniques as stored on measurement rows. */
 export const SCOPE_TECHNIQUES = ['raman', 'ir-reflectance', 'ir-absorption', 'ins', 'hyper-raman', 'calorimetry'] as const;
@@ -74,7 +76,7 @@ export const outlierRuleSchema = z.object({
 /** The outlier scale a benchmark uses: the rule's, else relative for frequencies and absolute otherwise. */
 export function outlierScaleOf(rule: { scale?: (typeof OUTLIER_SCALES)[number] }, quantity: BenchmarkQuantity): (typeof OUTLIER_SCALES)[number] {
   // ε spans 2–16 across ordinary crystals: an absolute error of 0.5 means little at Si and much at NaCl
-  return rule.scale ?? (quantity === 'entropy' || quantity === 'heat-capacity' ? 'absolute' : 'relative');
+  return rule.scale ?? (THERMAL_QUANTITIES.includes(quantity) ? 'absolute' : 'relative');
 }
 
 export const rankingRuleSchema = z.object({

@@ -21,10 +21,7 @@ import { formData } from './benchmark-support';
 import { bytesOf, chunksOf, seedCatalogue } from './import-fixtures';
 
 // CODATA 2018 / SI 2019 exact constants.
-const h = 6.62607015e-34;
-const c = 299792458;
-const kB = 1.380649e-23;
-const R = 6.02214076e23 * kB;
+import { c, h, kB, R } from '../support/codata';
 
 type Handler = (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
 let ws: Awaited<ReturnType<typeof createWorkspaceWith>>;

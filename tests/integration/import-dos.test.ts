@@ -17,11 +17,8 @@ import { requestContext } from '../support/request-context';
 import { createWorkspaceWith, signInAs } from '../support/users';
 import { seedCatalogue } from './import-fixtures';
 
-// CODATA 2018 / SI 2019 exact constants (reference/check-values.md).
-const h = 6.62607015e-34;
-const c = 299792458;
-const kB = 1.380649e-23;
-const R = 6.02214076e23 * kB;
+// CODATA 2018 / SI 2019 exact constants.
+import { c, h, kB, R } from '../support/codata';
 
 type Handler = (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
 

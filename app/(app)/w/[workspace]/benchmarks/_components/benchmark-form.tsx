@@ -7,7 +7,7 @@ import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
 import { DEFAULT_MAE_ABSOLUTE, DEFAULT_OUTLIER_THRESHOLDS, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
 import { techniqueName } from '@/lib/benchmark/describe';
-import { isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from '@/lib/benchmark/quantities';
+import { isDielectric, isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from '@/lib/benchmark/quantities';
 
 const RULE_NAMES: Record<(typeof OUTLIER_RULE_KINDS)[number], string> = {
   'modified-z': 'Modified z-score |M| > threshold (Iglewicz–Hoaglin, default 3.5)',
@@ -59,7 +59,7 @@ export function BenchmarkForm({
           <option value="eps-inf">Dielectric constant ε∞ (electronic)</option>
           <option value="eps-static">Dielectric constant ε₀ (static)</option>
         </SelectField>
-        {quantity === 'eps-inf' || quantity === 'eps-static' ? (
+        {isDielectric(quantity) ? (
           <p className="text-xs text-ink-muted">One value per material on each side, whatever its temperature; for a non-cubic crystal store the orientational average (ε_xx + ε_yy + ε_zz)/3 on both sides.</p>
         ) : null}
         {quantity === 'heat-capacity' ? (

@@ -15,7 +15,7 @@ import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
 import { ScalingPanel } from './scaling-panel';
 import { MaterialTable } from './material-table';
-import { DIELECTRIC_CAUTION, ENTROPY_CAUTION, HEAT_CAPACITY_CAUTION } from '@/lib/benchmark/compute';
+import { cautionOf } from '@/lib/benchmark/compute';
 import { isDielectric, isThermal } from '@/lib/benchmark/quantities';
 import { BreakdownTable } from './breakdown-table';
 import { BenchmarkPlots } from './benchmark-plots';
@@ -140,6 +140,8 @@ export async function BenchmarkView({
   const fileStem = `${bm.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'benchmark'}-r${rev.number}`;
   const q = `revision=${rev.number}`;
   const comparison = comparisonFromSearch(search, methodList.map((m) => m.methodId));
+  // older revisions stored no caution: the quantity's own
+  const caution = snap.caution ?? cautionOf(snap.quantity);
   const qualityLineList = qualityLines(snap.quality, (id) => methodLabel.get(id) ?? id, materialName);
 
   return (
@@ -149,20 +151,19 @@ export async function BenchmarkView({
         <DiscussButton workspaceId={workspace.id} subject={{ kind: 'revision', id: rev.id, benchmarkId: bm.id }} title={`revision ${rev.number}`} threads={threads.get(`revision|${rev.id}`) ?? []} can={can} />
       </div>
       {watcher}
-      {isThermal(snap.quantity) ? (
+      {caution ? (
         <Notice tone="warn">
-          <span data-testid={snap.quantity === 'entropy' ? 'entropy-caution' : 'heat-capacity-caution'}>{snap.caution ?? (snap.quantity === 'entropy' ? ENTROPY_CAUTION : HEAT_CAPACITY_CAUTION)}</span>{' '}
-          <span data-testid="entropy-basis">
-            {snap.entropyBasis === 'atom'
-              ? 'Values are compared per mole of atoms (each formula-unit value divided by the atoms of the reduced formula), so every material weighs alike.'
-              : 'Values are compared per mole of formula units of the reduced formula (per GaN for a material written Ga2N2), as thermochemical tables give them.'}
-          </span>
-        </Notice>
-      ) : null}
-
-      {isDielectric(snap.quantity) ? (
-        <Notice tone="warn">
-          <span data-testid="dielectric-caution">{snap.caution ?? DIELECTRIC_CAUTION}</span>
+          <span data-testid={`${isDielectric(snap.quantity) ? 'dielectric' : snap.quantity}-caution`}>{caution}</span>
+          {isThermal(snap.quantity) ? (
+            <>
+              {' '}
+              <span data-testid="entropy-basis">
+                {snap.entropyBasis === 'atom'
+                  ? 'Values are compared per mole of atoms (each formula-unit value divided by the atoms of the reduced formula), so every material weighs alike.'
+                  : 'Values are compared per mole of formula units of the reduced formula (per GaN for a material written Ga2N2), as thermochemical tables give them.'}
+              </span>
+            </>
+          ) : null}
         </Notice>
       ) : null}
 

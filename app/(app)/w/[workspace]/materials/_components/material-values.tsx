@@ -7,6 +7,16 @@ import { asEntered, count, header, plain } from '@/lib/format';
 
 /** A stored value as typed when it was typed in the canonical unit, else with the typed significant figures. */
 const shown = (value: number | null, text: string | null, unit: string, canonical: string) => (value === null ? '–' : asEntered(value, text ?? String(value), unit === canonical));
+
+/** The last cell of every value table: the row's source, marked when the source is incomplete. */
+function SourceCell({ slug, row }: { slug: string; row: { sourceId: string; citeKey: string; sourceGaps: Parameters<typeof IncompleteMark>[0]['gaps'] } }) {
+  return (
+    <td className="py-1">
+      <Link href={`/w/${slug}/sources/${row.sourceId}`}>{row.citeKey}</Link>
+      <IncompleteMark gaps={row.sourceGaps} />
+    </td>
+  );
+}
 const th = 'py-1 pr-2 font-medium';
 const thNum = `${th} text-right`;
 
@@ -37,10 +47,7 @@ function PeaksTable({ slug, peaks }: { slug: string; peaks: MeasuredPeakRow[] })
             <td className="py-1 pr-2">{p.branch ?? '–'}</td>
             <td className="py-1 pr-2">{p.technique ?? '–'}</td>
             <td className="num py-1 pr-2 text-right">{p.temperatureK === null ? '–' : plain(p.temperatureK)}</td>
-            <td className="py-1">
-              <Link href={`/w/${slug}/sources/${p.sourceId}`}>{p.citeKey}</Link>
-              <IncompleteMark gaps={p.sourceGaps} />
-            </td>
+            <SourceCell slug={slug} row={p} />
           </tr>
         ))}
       </tbody>
@@ -122,10 +129,7 @@ function DielectricTable({ slug, values }: { slug: string; values: MaterialValue
               <td className="num py-1 pr-2 text-right">{r.v}</td>
               <td className="num py-1 pr-2 text-right">{r.u}</td>
               <td className="num py-1 pr-2 text-right">{r.t === null ? '–' : plain(r.t)}</td>
-              <td className="py-1">
-                <Link href={`/w/${slug}/sources/${r.sourceId}`}>{r.citeKey}</Link>
-                <IncompleteMark gaps={r.sourceGaps} />
-              </td>
+              <SourceCell slug={slug} row={r} />
             </tr>
           ))}
         </tbody>
@@ -181,10 +185,7 @@ function ThermalTable({ slug, values, quantity }: { slug: string; values: Materi
               <td className="num py-1 pr-2 text-right">{r.t === null ? '–' : plain(r.t)}</td>
               <td className="num py-1 pr-2 text-right">{r.s}</td>
               <td className="num py-1 pr-2 text-right">{r.u}</td>
-              <td className="py-1">
-                <Link href={`/w/${slug}/sources/${r.sourceId}`}>{r.citeKey}</Link>
-                <IncompleteMark gaps={r.sourceGaps} />
-              </td>
+              <SourceCell slug={slug} row={r} />
             </tr>
           ))}
         </tbody>

@@ -5,15 +5,13 @@ import type { ActionState } from '@/lib/action-state';
 import type { ImportableKind } from '@/lib/import/columns';
 import { ACTIVITY_VALUES, BRANCH_VALUES, SAMPLE_FORM_VALUES, TECHNIQUE_VALUES } from '@/lib/import/vocabulary';
 import { IMPORTER_UNDO_HOURS } from '@/lib/import/undo-rule';
-import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 import { unitSymbol } from '@/lib/format';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { createSingleEntryAction } from '../actions';
-import { DIMENSIONLESS_UNITS } from '@/lib/import/units';
-
-type EntryQuantity = 'frequency' | 'entropy' | 'heat-capacity' | 'eps-inf' | 'eps-static';
+import { unitsOf } from '@/lib/import/units';
+import type { ImportQuantity as EntryQuantity } from '@/lib/import/columns';
 
 export interface EntryChoices {
   materials: Array<{ id: string; name: string }>;
@@ -67,7 +65,7 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
     startTransition(() => dispatch(data));
   };
 
-  const units = quantity === 'frequency' ? FREQUENCY_UNITS : quantity === 'eps-inf' || quantity === 'eps-static' ? DIMENSIONLESS_UNITS : ENTROPY_UNITS;
+  const units = unitsOf(quantity);
   return (
     <form ref={formRef} noValidate onSubmit={onSubmit} className="space-y-5" aria-label={measured ? 'Add one measurement' : 'Add one calculation'}>
       <input type="hidden" name="workspaceId" value={workspaceId} />
