@@ -4,14 +4,14 @@
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { and, eq } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { getAuth } from '@/lib/auth';
 import { db, closeDb } from '@/db/client';
-import { member, organization, user } from '@/db/schema';
+import { member, method, organization, user } from '@/db/schema';
 import { ensureWorkspaceSettings } from '@/db/queries/workspaces';
 import { WORKSPACE_ROLES } from '@/lib/permissions';
-import { loadDemoScenario } from '@/db/demo-data';
+import { convergenceLabels, loadDemoScenario } from '@/db/demo-data';
 import { benchmark } from '@/db/schema';
 import { createBenchmark } from '@/db/queries/benchmarks';
 import { recomputeBenchmark } from '@/lib/services/benchmarks/recompute';
@@ -68,16 +68,25 @@ export async function seedDemo(): Promise<{ workspaceId: string; group: DemoGrou
 
 export const DEMO_BENCHMARK_NAME = 'Γ-point frequencies — all methods (demo)';
 
-const DEMO_BENCHMARKS: BenchmarkDefinitionInput[] = [
+/** A demo benchmark whose methods are named by label (the seed resolves them to ids). */
+type DemoBenchmark = BenchmarkDefinitionInput & { methodLabels: string[]; referenceLabel?: string };
+
+/** The three invented recipes compared with experiment (data/demo/methods.json), not the convergence family. */
+const EXPERIMENT_METHODS = (JSON.parse(readFileSync(fileURLToPath(new URL('../data/demo/methods.json', import.meta.url)), 'utf8')) as { methods: Array<{ label: string }> }).methods.map((m) => m.label);
+const FAMILY = convergenceLabels();
+
+const DEMO_BENCHMARKS: DemoBenchmark[] = [
   {
     name: DEMO_BENCHMARK_NAME,
     purpose: 'Which of the three (invented) recipes reproduces the measured zone-centre frequencies best? Invented demo benchmark.',
     scope: { quantity: 'frequency' },
+    methodLabels: EXPERIMENT_METHODS,
   },
   {
     name: 'Vibrational entropy at 298 K (demo)',
     purpose: 'Computed harmonic vibrational entropies against calorimetric standard entropies. Invented demo benchmark.',
     scope: { quantity: 'entropy', entropyTemperatureK: 298.15 },
+    methodLabels: EXPERIMENT_METHODS,
   },
   {
     name: 'Heat capacity at 298 K (demo)',
@@ -85,15 +94,34 @@ const DEMO_BENCHMARKS: BenchmarkDefinitionInput[] = [
     scope: { quantity: 'heat-capacity', entropyTemperatureK: 298.15 },
     // eight crystals carry a Cp°: rank from N = 5 rather than the default 10
     rules: { ranking: { minN: 5 } },
+    methodLabels: EXPERIMENT_METHODS,
   },
   {
     name: 'Electronic dielectric constant ε∞ (demo)',
     purpose: 'Computed ε∞ against measured ε∞; both sides are invented for the demo (the measured values are textbook values moved by 5–6 %). Invented demo benchmark.',
     scope: { quantity: 'eps-inf' },
+    methodLabels: EXPERIMENT_METHODS,
+  },
+  {
+    name: 'k-point convergence of PBEsol (demo)',
+    purpose:
+      'Which k-point density reproduces the dense-grid frequencies within 1 cm⁻¹? Five invented k-grids of one recipe against its invented 24³ reference; every value is synthetic. Invented demo benchmark.',
+    scope: { quantity: 'frequency' },
+    methodLabels: FAMILY.members,
+    referenceLabel: FAMILY.reference,
   },
 ];
 
-async function ensureBenchmark(workspaceId: string, userId: string, definition: BenchmarkDefinitionInput) {
+async function ensureBenchmark(workspaceId: string, userId: string, demo: DemoBenchmark) {
+  const { methodLabels, referenceLabel, ...rest } = demo;
+  const labels = [...methodLabels, ...(referenceLabel ? [referenceLabel] : [])];
+  const found = await db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), inArray(method.label, labels)));
+  const idOf = new Map(found.map((m) => [m.label, m.id]));
+  // A workspace seeded before a method existed keeps its benchmarks as they were.
+  const methodIds = methodLabels.map((l) => idOf.get(l)).filter((id): id is string => id !== undefined);
+  const referenceMethodId = referenceLabel ? idOf.get(referenceLabel) : undefined;
+  if (referenceLabel && !referenceMethodId) return;
+  const definition: BenchmarkDefinitionInput = { ...rest, scope: { ...rest.scope, methodIds, ...(referenceMethodId ? { referenceMethodId } : {}) } };
   const existing = await db
     .select({ id: benchmark.id })
     .from(benchmark)

@@ -1,5 +1,5 @@
 import 'server-only';
-import { and, asc, eq, gte, inArray, isNotNull, isNull, lte, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, isNotNull, isNull, lte, ne, or, sql, type SQL } from 'drizzle-orm';
 import { db, type Executor } from '@/db/client';
 import {
   auditLog,
@@ -79,6 +79,13 @@ async function checkScopeIds(executor: Executor, workspaceId: string, scope: Ben
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scope.materialIds), isNull(material.retractedAt)));
     if (found.length !== new Set(scope.materialIds).size) throw new AppError('not-found', 'A material of the scope does not exist in this workspace.', [{ path: 'scope.materialIds' }]);
+  }
+  if (scope.referenceMethodId !== undefined) {
+    const found = await executor
+      .select({ id: method.id })
+      .from(method)
+      .where(and(eq(method.workspaceId, workspaceId), eq(method.id, scope.referenceMethodId), isNull(method.retractedAt)));
+    if (found.length === 0) throw new AppError('not-found', 'The reference method does not exist in this workspace.', [{ path: 'scope.referenceMethodId' }]);
   }
 }
 
@@ -254,9 +261,32 @@ function measurementScope(workspaceId: string, scope: BenchmarkScope): SQL {
   return and(...conditions)!;
 }
 
-/** Materials with at least one measurement in scope. */
+/** Materials with at least one measurement in scope; against a reference method, those with a reference value of the quantity. */
 function materialsInScope(workspaceId: string, scope: BenchmarkScope) {
-  return db.selectDistinct({ id: measurement.materialId }).from(measurement).where(measurementScope(workspaceId, scope));
+  if (scope.referenceMethodId === undefined) return db.selectDistinct({ id: measurement.materialId }).from(measurement).where(measurementScope(workspaceId, scope));
+  const conditions: Array<SQL | undefined> = [
+    eq(calculation.workspaceId, workspaceId),
+    isNull(calculation.retractedAt),
+    eq(calculation.quantity, scope.quantity),
+    eq(calculation.methodId, scope.referenceMethodId),
+    inArray(
+      calculation.materialId,
+      db.select({ id: material.id }).from(material).where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
+    ),
+  ];
+  if (scope.materialIds.length) conditions.push(inArray(calculation.materialId, scope.materialIds));
+  else if (scope.materialTags.length) {
+    conditions.push(
+      inArray(
+        calculation.materialId,
+        db
+          .select({ id: materialTag.materialId })
+          .from(materialTag)
+          .where(and(eq(materialTag.workspaceId, workspaceId), inArray(materialTag.tag, scope.materialTags))),
+      ),
+    );
+  }
+  return db.selectDistinct({ id: calculation.materialId }).from(calculation).where(and(...conditions));
 }
 
 /**
@@ -294,6 +324,7 @@ const CALCULATION_INPUT = {
   activity: calculation.activity,
   degeneracy: calculation.degeneracy,
   seq: calculation.seq,
+  modeIndex: calculation.modeIndex,
 };
 
 type CalculationRow = BenchmarkInput['calculations'][number];
@@ -313,16 +344,20 @@ function calculationFromRow(r: unknown[]): CalculationRow {
     activity: r[10] as CalculationRow['activity'],
     degeneracy: r[11] as number | null,
     seq: r[12] as number,
+    modeIndex: r[13] as number | null,
   };
 }
 
 /** The conditions a scope puts on its rows; `onlyMaterials` narrows measurements and calculations to those materials. */
 function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { materialIds?: string[]; onlyMaterials?: string[] } = {}) {
   const { scope } = bm;
+  const reference = scope.referenceMethodId;
+  // The candidates: never the reference method, even when the scope names every method.
   const methodWhere = and(
     eq(method.workspaceId, workspaceId),
     isNull(method.retractedAt),
     scope.methodIds.length ? inArray(method.id, scope.methodIds) : undefined,
+    reference !== undefined ? ne(method.id, reference) : undefined,
   );
   const methodIds = db.select({ id: method.id }).from(method).where(methodWhere);
   const scopedMaterials = options.onlyMaterials ?? options.materialIds ?? materialsInScope(workspaceId, scope);
@@ -330,7 +365,7 @@ function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { ma
     eq(calculation.workspaceId, workspaceId),
     isNull(calculation.retractedAt),
     eq(calculation.quantity, scope.quantity),
-    inArray(calculation.methodId, methodIds),
+    reference !== undefined ? or(inArray(calculation.methodId, methodIds), eq(calculation.methodId, reference)) : inArray(calculation.methodId, methodIds),
     inArray(calculation.materialId, scopedMaterials),
   ];
   if (isThermal(scope.quantity)) {
@@ -340,7 +375,9 @@ function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { ma
       calculationWhere.push(lte(calculation.temperatureK, scope.entropyTemperatureK + scope.entropyToleranceK));
     }
   }
-  const measurementWhere = and(measurementScope(workspaceId, scope), options.onlyMaterials ? inArray(measurement.materialId, options.onlyMaterials) : undefined)!;
+  // Against a reference method no measurement is read: the reference's calculations stand in their place.
+  const measurementWhere =
+    reference !== undefined ? sql`0` : and(measurementScope(workspaceId, scope), options.onlyMaterials ? inArray(measurement.materialId, options.onlyMaterials) : undefined)!;
   return { methodWhere, methodIds, scopedMaterials, calculationWhere: and(...calculationWhere)!, measurementWhere };
 }
 
@@ -351,7 +388,8 @@ export type BenchmarkContext = Omit<BenchmarkInput, 'measurements' | 'calculatio
 export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRecord, options: { materialIds?: string[] } = {}): Promise<BenchmarkContext> {
   const { scope, rules } = bm;
   const { methodWhere, methodIds, scopedMaterials } = scopeConditions(workspaceId, bm, options);
-  const [materials, tags, methods, pins, decisions, settings, dielectricRows, [merges]] = await Promise.all([
+  const reference = scope.referenceMethodId;
+  const [materials, tags, methods, pins, decisions, settings, dielectricRows, [merges], referenceMethod] = await Promise.all([
     db
       .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell, spaceGroup: material.spaceGroup })
       .from(material)
@@ -406,7 +444,15 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
       .select({ n: sql<number>`count(*)` })
       .from(auditLog)
       .where(and(eq(auditLog.workspaceId, workspaceId), eq(auditLog.entityType, 'source'), eq(auditLog.action, 'merge'))),
+    reference !== undefined
+      ? db
+          .select({ id: method.id, label: method.label })
+          .from(method)
+          .where(and(eq(method.workspaceId, workspaceId), eq(method.id, reference)))
+          .then((rows) => rows[0])
+      : Promise.resolve(undefined),
   ]);
+  if (reference !== undefined && !referenceMethod) throw new AppError('conflict', 'The reference method of this benchmark is not in the workspace: choose another in the benchmark’s scope.');
 
   const tagsByMaterial = new Map<string, string[]>();
   for (const t of tags) (tagsByMaterial.get(t.materialId) ?? tagsByMaterial.set(t.materialId, []).get(t.materialId)!).push(t.tag);
@@ -426,8 +472,10 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
     rules,
     materials: materials.map((m) => ({ ...m, tags: (tagsByMaterial.get(m.id) ?? []).sort() })),
     methods,
-    pins,
-    decisions: decisions.map((d): ScopeDecision => ({ ...d, createdAt: d.createdAt.getTime() })),
+    // Pins and decisions name measurements: a benchmark against a reference method has none.
+    pins: reference !== undefined ? [] : pins,
+    decisions: reference !== undefined ? [] : decisions.map((d): ScopeDecision => ({ ...d, createdAt: d.createdAt.getTime() })),
+    ...(referenceMethod ? { referenceMethod } : {}),
     qualityThresholds: s
       ? {
           kPointsPerReciprocalAtom: s.kPointsPerReciprocalAtom,
@@ -560,15 +608,22 @@ export async function pinMaterials(workspaceId: string, pinIds: string[]): Promi
 
 /** Names used to describe a scope in words (empty state, header). */
 export async function scopeLabels(workspaceId: string, scope: BenchmarkScope) {
-  const [methods, materials] = await Promise.all([
+  const [methods, materials, reference] = await Promise.all([
     scope.methodIds.length
       ? db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), inArray(method.id, scope.methodIds)))
       : Promise.resolve([]),
     scope.materialIds.length
       ? db.select({ id: material.id, name: material.name }).from(material).where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scope.materialIds)))
       : Promise.resolve([]),
+    scope.referenceMethodId !== undefined
+      ? db
+          .select({ label: method.label })
+          .from(method)
+          .where(and(eq(method.workspaceId, workspaceId), eq(method.id, scope.referenceMethodId)))
+          .then((rows) => rows[0]?.label)
+      : Promise.resolve(undefined),
   ]);
-  return { methods, materials };
+  return { methods, materials, reference };
 }
 
 /** Choices for the benchmark form: live methods, materials and tags of the workspace. */
@@ -615,4 +670,31 @@ export async function rowsOfRowSet(workspaceId: string, rows: { measurements: nu
   const missing = rows.measurements.length - measurements.length + rows.calculations.length - calculations.length;
   if (missing !== 0) throw new AppError('conflict', `${missing} row(s) of this revision's row set are not in the workspace: it cannot be reproduced.`);
   return { measurements, calculations };
+}
+
+/** The recipe fields of these methods and the cells and tags of these materials: what the convergence view reads. */
+export async function convergenceInputs(workspaceId: string, methodIds: string[], materialIds: string[]) {
+  const [methods, materials, tags] = await Promise.all([
+    methodIds.length
+      ? db
+          .select({ id: method.id, label: method.label, kGrid: method.kGrid, qGrid: method.qGrid, cutoffEv: method.cutoffEv, smearing: method.smearing })
+          .from(method)
+          .where(and(eq(method.workspaceId, workspaceId), inArray(method.id, methodIds)))
+      : Promise.resolve([]),
+    materialIds.length
+      ? db
+          .select({ id: material.id, name: material.name, atomsInCell: material.atomsInCell })
+          .from(material)
+          .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, materialIds)))
+      : Promise.resolve([]),
+    materialIds.length
+      ? db
+          .select({ materialId: materialTag.materialId, tag: materialTag.tag })
+          .from(materialTag)
+          .where(and(eq(materialTag.workspaceId, workspaceId), inArray(materialTag.materialId, materialIds)))
+      : Promise.resolve([]),
+  ]);
+  const tagsOf = new Map<string, string[]>();
+  for (const t of tags) (tagsOf.get(t.materialId) ?? tagsOf.set(t.materialId, []).get(t.materialId)!).push(t.tag);
+  return { methods, materials: materials.map((m) => ({ ...m, tags: (tagsOf.get(m.id) ?? []).sort() })) };
 }

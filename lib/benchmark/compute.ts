@@ -36,6 +36,13 @@
  * Stages: pairing and quality checks run per material (material-stage.ts); finishBenchmark
  * does the rest over every pair, so a caller may keep the stages of unchanged materials.
  *
+ * Against a reference method (scope.referenceMethodId, material-stage.ts and reference-pairs.ts): the
+ * reference's values stand where measured ones would, so error = candidate − reference and every
+ * statistic above reads as the distance from the reference. The snapshot's `reference` adds, per
+ * candidate over its included pairs: mean and max |Δ|, mean and max |Δ|/|ref| (pairs with a zero
+ * reference left out), and the share of its materials whose largest |Δ| is at most the tolerance
+ * (rules.referenceTolerance, else DEFAULT_REFERENCE_TOLERANCE of the quantity).
+ *
  * Quality: each material × method runs qualityReport with the material's atoms in
  * the cell and space group, the method's grids and, where stored, its dielectric
  * constants and Born charges (types.ts, ScopeDielectric).
@@ -54,7 +61,7 @@ import {
 import { groupBy, mergeRepeatedMeasurements } from './pair-rows';
 import { pairMaterials, qualityOrder, type MaterialStage } from './material-stage';
 import { rankOnCommonGround } from './ranking';
-import { outlierScaleOf, type BenchmarkRules } from './schemas';
+import { DEFAULT_CONVERGENCE_SHARE, outlierScaleOf, referenceToleranceOf, type BenchmarkRules } from './schemas';
 import { isDielectric, isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from './quantities';
 import { MIN_PAIRS_FOR_STATISTICS } from './statistics-minimum';
 import { fixed, stat } from '@/lib/format';
@@ -67,6 +74,8 @@ import type {
   MethodResult,
   PairRecord,
   QualityRecord,
+  ReferenceMethodRecord,
+  ReferenceRecord,
   StoredStatistics,
 } from './types';
 
@@ -266,7 +275,7 @@ export function computeBenchmark(input: BenchmarkInput): BenchmarkSnapshot {
 }
 
 /** What the statistics need besides the per-material pairing: every material in scope, the methods, decisions and pins. */
-export type FinishContext = Pick<BenchmarkInput, 'quantity' | 'rules' | 'materials' | 'methods' | 'decisions' | 'pins'>;
+export type FinishContext = Pick<BenchmarkInput, 'quantity' | 'rules' | 'materials' | 'methods' | 'decisions' | 'pins' | 'referenceMethod'>;
 
 /**
  * From the per-material pairings (material-stage.ts) to the snapshot: decisions, merged repeats, outliers,
@@ -284,6 +293,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
   let pairs: PairRecord[] = [];
   const unpaired = new Map<string, number>();
   let measuredInScope = 0;
+  const matchedBy = { index: 0, pairing: 0 };
   let measurementCount = 0;
   let calculationCount = 0;
   const qualityList: QualityRecord[] = [];
@@ -292,6 +302,8 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
     for (const p of s.pairs) pairs.push({ ...p });
     for (const [methodId, n] of Object.entries(s.unpaired)) unpaired.set(methodId, (unpaired.get(methodId) ?? 0) + n);
     measuredInScope += s.measuredInScope;
+    matchedBy.index += s.matchedBy?.index ?? 0;
+    matchedBy.pairing += s.matchedBy?.pairing ?? 0;
     measurementCount += s.measurements;
     calculationCount += s.calculations;
     for (const q of s.quality) qualityList.push({ ...q });
@@ -381,12 +393,56 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
       measuredInScope,
     },
     empty: pairs.length === 0 ? emptyReason(context, measurementCount, calculationCount) : null,
+    ...(context.referenceMethod ? { reference: referenceSummary(context, results, included, matchedBy) } : {}),
+  };
+}
+
+/** Against a reference method: per candidate, |Δ| and |Δ|/ref over its included pairs and the share of materials within the tolerance (module header). */
+function referenceSummary(
+  context: FinishContext,
+  results: readonly MethodResult[],
+  included: Map<string, PairRecord[]>,
+  matchedBy: { index: number; pairing: number },
+): ReferenceRecord {
+  const tolerance = referenceToleranceOf(context.rules, context.quantity);
+  const perMethod = results.map((m): ReferenceMethodRecord => {
+    const list = included.get(m.methodId) ?? [];
+    const worst = new Map<string, number>();
+    for (const p of list) worst.set(p.materialId, Math.max(worst.get(p.materialId) ?? 0, Math.abs(p.error)));
+    const within = [...worst.values()].filter((d) => d <= tolerance).length;
+    const relative = list.filter((p) => p.measured !== 0).map((p) => Math.abs(p.error / p.measured));
+    const absolute = list.map((p) => Math.abs(p.error));
+    return {
+      methodId: m.methodId,
+      label: m.label,
+      materials: worst.size,
+      withinTolerance: within,
+      shareWithin: worst.size ? within / worst.size : null,
+      n: list.length,
+      meanAbsolute: absolute.length ? absolute.reduce((a, b) => a + b, 0) / absolute.length : null,
+      maxAbsolute: absolute.length ? Math.max(...absolute) : null,
+      meanRelative: relative.length ? relative.reduce((a, b) => a + b, 0) / relative.length : null,
+      maxRelative: relative.length ? Math.max(...relative) : null,
+    };
+  });
+  return {
+    methodId: context.referenceMethod!.id,
+    label: context.referenceMethod!.label,
+    tolerance,
+    share: context.rules.convergenceShare ?? DEFAULT_CONVERGENCE_SHARE,
+    matchedBy,
+    perMethod,
   };
 }
 
 function emptyReason(input: FinishContext, measurements: number, calculations: number): string {
   const what = `measured ${QUANTITY_PLURAL[input.quantity]}`;
   if (input.methods.length === 0) return 'No method is in scope: the benchmark names no method that exists, or the workspace has none.';
+  if (input.referenceMethod) {
+    if (measurements === 0) return `The reference method ${input.referenceMethod.label} has no ${QUANTITY_PLURAL[input.quantity]} on the materials in scope.`;
+    if (calculations === 0) return `No candidate method has ${QUANTITY_PLURAL[input.quantity]} on the materials the reference method ${input.referenceMethod.label} covers.`;
+    return `No computed value of a candidate method found its partner in the reference method ${input.referenceMethod.label}.`;
+  }
   if (measurements === 0) return `No ${what} match the scope.`;
   if (calculations === 0) return `The ${measurements} ${what} in scope have no calculation of the selected methods on the same materials.`;
   if (isDielectric(input.quantity)) return `No material in scope has both a measured and a computed ${QUANTITY_PLURAL[input.quantity].replace(/ values$/, '')} of the selected methods.`;

@@ -14,7 +14,7 @@ export function techniqueName(t: string | null): string {
   return t ? (TECHNIQUE_NAMES[t] ?? t) : '—';
 }
 
-export function describeScope(scope: BenchmarkScope, names: { methods: string[]; materials: string[] }): string {
+export function describeScope(scope: BenchmarkScope, names: { methods: string[]; materials: string[]; reference?: string }): string {
   const parts: string[] = [];
   const at = scope.entropyTemperatureK === null ? `at every measured temperature (± ${scope.entropyToleranceK} K)` : `at ${scope.entropyTemperatureK} ± ${scope.entropyToleranceK} K`;
   if (scope.quantity === 'frequency') parts.push('Γ-point frequencies');
@@ -31,6 +31,11 @@ export function describeScope(scope: BenchmarkScope, names: { methods: string[];
   if (scope.materialIds.length) parts.push(`for ${names.materials.length ? names.materials.join(', ') : `${scope.materialIds.length} listed materials`}`);
   else if (scope.materialTags.length) parts.push(`for materials tagged ${scope.materialTags.join(' or ')}`);
   else parts.push('for every material');
+  if (scope.referenceMethodId !== undefined) {
+    parts.push(scope.methodIds.length ? `under ${names.methods.join(', ') || `${scope.methodIds.length} methods`}` : 'under every other method');
+    parts.push(`against the reference method ${names.reference ?? 'named in the scope'}`);
+    return parts.join(' ');
+  }
   parts.push(scope.methodIds.length ? `under ${names.methods.join(', ') || `${scope.methodIds.length} methods`}` : 'under every method');
   return parts.join(' ');
 }

@@ -121,7 +121,7 @@ export function contentFingerprint(input: BenchmarkInput, scope: unknown): strin
   const h = new LineHasher();
   addParts(h, input, scope, () => {
     for (const m of byId(input.measurements)) h.add(['M', m.id, m.materialId, m.sourceId, m.value, m.uncertainty, m.temperatureK, m.irrep, m.branch, m.technique]);
-    for (const c of byId(input.calculations)) h.add(['C', c.id, c.materialId, c.methodId, c.sourceId, c.value, c.uncertainty, c.temperatureK, c.irrep, c.branch, c.activity, c.degeneracy]);
+    for (const c of byId(input.calculations)) h.add(['C', c.id, c.materialId, c.methodId, c.sourceId, c.value, c.uncertainty, c.temperatureK, c.irrep, c.branch, c.activity, c.degeneracy, ...(c.modeIndex != null ? [c.modeIndex] : [])]);
   });
   return h.digest();
 }

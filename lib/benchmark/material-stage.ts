@@ -12,9 +12,14 @@
  *
  * Entropy basis 'atom': values are divided by the atoms of the reduced formula unit
  * here, before pairing (compute.ts header).
+ *
+ * Against a reference method (input.referenceMethod) the reference's calculations of the
+ * material take the place of its measurements (reference-pairs.ts); the quality checks run on
+ * the candidates only.
  */
 import { atomsPerReducedFormulaUnit, qualityReport, ScienceInputError } from '@/lib/science';
 import { groupBy, pairEntropies, pairFrequencies, pairPerMaterial, qualityModes } from './pair-rows';
+import { asReference, pairReferenceFrequencies } from './reference-pairs';
 import { isDielectric, isThermal } from './quantities';
 import type { BenchmarkInput, BenchmarkSnapshot, PairRecord, QualityRecord, ScopeCalculation, ScopeMeasurement } from './types';
 
@@ -33,6 +38,8 @@ export interface MaterialStage {
   calculations: number;
   /** Measurements that count for the coverage (entropy: those near the benchmark temperature). */
   measuredInScope: number;
+  /** Against a reference method: how many candidate methods were matched by mode index, and how many by the pairing rules. */
+  matchedBy?: { index: number; pairing: number };
 }
 
 export function qualityOrder(a: { methodId: string; materialId: string; code: string }, b: { methodId: string; materialId: string; code: string }): number {
@@ -121,14 +128,22 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
   const atomBasis = isThermal(quantity) && (rules.entropyBasis ?? 'formula-unit') === 'atom';
 
   const ids = [...new Set([...measurementsOf.keys(), ...calculationsOf.keys()])].sort();
+  const referenceId = input.referenceMethod?.id;
   return ids.map((materialId) => {
-    let measurements = measurementsOf.get(materialId) ?? [];
     const calculations = calculationsOf.get(materialId) ?? [];
     const calcsByMethod = groupBy(calculations, (c) => c.methodId);
+    const referenceRows = referenceId === undefined ? undefined : (calcsByMethod.get(referenceId) ?? []);
+    if (referenceId !== undefined) calcsByMethod.delete(referenceId);
+    let measurements = referenceRows ? referenceRows.map(asReference) : (measurementsOf.get(materialId) ?? []);
     let pairs: PairRecord[];
     let unpaired: Map<string, number>;
     let measuredInScope = measurements.length;
-    if (quantity === 'frequency') {
+    let matchedBy: MaterialStage['matchedBy'];
+    if (quantity === 'frequency' && referenceRows) {
+      const result = pairReferenceFrequencies(materialId, referenceRows, calcsByMethod, methodIds, rules, context);
+      ({ pairs, unpaired, matchedBy } = result);
+      measuredInScope = result.referenceModes;
+    } else if (quantity === 'frequency') {
       const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
       ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod, methodIds, pinsOf.get(materialId) ?? [], rules, context));
     } else if (isDielectric(quantity)) {
@@ -149,8 +164,9 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
       quality: records,
       notApplied,
       measurements: measurements.length,
-      calculations: calculations.length,
+      calculations: calculations.length - (referenceRows?.length ?? 0),
       measuredInScope,
+      ...(matchedBy ? { matchedBy } : {}),
     };
   });
 }

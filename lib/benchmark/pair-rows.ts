@@ -117,7 +117,7 @@ export function pairKey(methodId: string, measurementIds: readonly string[]): st
   return `${methodId}|${measurementIds.join('+')}`;
 }
 
-function newPair(
+export function newPair(
   methodId: string,
   m: ScopeMeasurement,
   calculationIds: string[],

@@ -94,7 +94,8 @@ export function revisionRecord(input: {
         kind: 'outlier' as const,
         code: snapshot.rules.outlierRule.kind,
         methodId: pair.methodId,
-        measurementId: pair.measurementIds[0],
+        // Against a reference method the pair's reference side is a calculation, not a measurement (the subject key still names it).
+        measurementId: snapshot.reference ? null : pair.measurementIds[0],
         subjectKey: pair.key,
         details: { reason: pair.outlier, error: pair.error },
       })),

@@ -38,8 +38,14 @@ export const scopeSchema = z
     materialTags: z.array(z.string().trim().toLowerCase().min(1).max(60)).max(50).default([]),
     /** An explicit material list; when given it replaces the tag filter. */
     materialIds: z.array(id).max(5000).default([]),
-    /** Methods to compare; empty: every method of the workspace. */
+    /** Methods to compare; empty: every method of the workspace (the reference method excepted). */
     methodIds: z.array(id).max(100).default([]),
+    /**
+     * The reference side: absent = experiment (measurements); a method id = that method's calculations
+     * (a convergence study against a dense-grid or higher-level reference). Optional rather than
+     * nullable so that stored scopes, and with them every fingerprint, are unchanged.
+     */
+    referenceMethodId: id.optional(),
     /**
      * Entropy and heat-capacity benchmarks: the temperature at which measured and computed values are
      * compared; null compares a measured S(T) or Cp(T) series at every measured temperature.
@@ -51,6 +57,10 @@ export const scopeSchema = z
   .refine((s) => s.temperatureMinK === null || s.temperatureMaxK === null || s.temperatureMinK <= s.temperatureMaxK, {
     message: 'The lower temperature must not exceed the upper one.',
     path: ['temperatureMaxK'],
+  })
+  .refine((s) => s.referenceMethodId === undefined || !s.methodIds.includes(s.referenceMethodId), {
+    message: 'The reference method cannot also be a candidate: take it out of the compared methods.',
+    path: ['referenceMethodId'],
   });
 
 export const OUTLIER_SCALES = ['absolute', 'relative'] as const;
@@ -108,7 +118,25 @@ export const rulesSchema = z.object({
   ranking: rankingRuleSchema.prefault({}),
   /** Entropy and heat-capacity benchmarks: compare per mole of formula units (the reduced formula) or per mole of atoms. */
   entropyBasis: z.enum(ENTROPY_BASES).default('formula-unit'),
+  /** Against a reference method: a material is within tolerance when its largest |Δ| is at most this, in the benchmark's unit (unset: DEFAULT_REFERENCE_TOLERANCE). */
+  referenceTolerance: z.number().positive().optional(),
+  /** Against a reference method: the share of a class's materials that must be within tolerance for a recipe to be recommended (unset: 0.95). Optional, like referenceTolerance, so stored rules and their fingerprints are unchanged. */
+  convergenceShare: z.number().gt(0).max(1).optional(),
 });
+
+/**
+ * Default convergence tolerance per quantity, in its unit: 1 cm⁻¹ for a Γ frequency (the resolution
+ * of a routine Raman spectrum, so a recipe converged to it is indistinguishable in experiment),
+ * 0.1 J mol⁻¹ K⁻¹ for an entropy or heat capacity (the calorimetric uncertainty near 298 K), and
+ * 0.05 for a dielectric constant — common practice, no single source, from memory.
+ */
+export const DEFAULT_REFERENCE_TOLERANCE: Record<BenchmarkQuantity, number> = { frequency: 1, entropy: 0.1, 'heat-capacity': 0.1, 'eps-inf': 0.05, 'eps-static': 0.05 };
+
+export const DEFAULT_CONVERGENCE_SHARE = 0.95;
+
+export function referenceToleranceOf(rules: { referenceTolerance?: number }, quantity: BenchmarkQuantity): number {
+  return rules.referenceTolerance ?? DEFAULT_REFERENCE_TOLERANCE[quantity];
+}
 
 /**
  * Defaults of a watch on this benchmark. `maeAbsolute` is in the benchmark's unit (cm⁻¹

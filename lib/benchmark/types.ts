@@ -35,6 +35,8 @@ export interface ScopeCalculation {
   branch: 'TO' | 'LO' | null;
   activity: string | null;
   degeneracy: number | null;
+  /** Position of the mode in the computed list (1-based), when the import gave it. */
+  modeIndex?: number | null;
 }
 
 export interface ScopeMaterial {
@@ -104,6 +106,11 @@ export interface BenchmarkInput {
   /** Dielectric constants and Born charges where stored (see ScopeDielectric). */
   dielectric?: ScopeDielectric[];
   /**
+   * Against a reference method (scope.referenceMethodId): its calculations are the reference side, in
+   * place of measurements; `methods` lists the candidates only.
+   */
+  referenceMethod?: { id: string; label: string };
+  /**
    * How many source merges the workspace has seen: a merge re-points rows to the
    * kept source (the one edit of a stored row), which changes the pairs' sources
    * without changing the row set, so the fingerprint covers this count.
@@ -141,7 +148,7 @@ export interface PairRecord {
   branch?: 'TO' | 'LO' | null;
   technique: string | null;
   temperatureK: number | null;
-  basis: 'label' | 'frequency' | 'pinned' | 'temperature' | 'material';
+  basis: 'label' | 'frequency' | 'pinned' | 'temperature' | 'material' | 'index';
   ambiguous: boolean;
   sourceIds: string[];
   /** Reason of the decision that excludes it. */
@@ -230,6 +237,34 @@ export interface QualityRecord {
   value?: number;
 }
 
+/** One candidate method against the reference method (compute.ts, referenceSummary). */
+export interface ReferenceMethodRecord {
+  methodId: string;
+  label: string;
+  /** Materials with at least one included pair. */
+  materials: number;
+  /** Materials whose largest |Δ| is within the tolerance. */
+  withinTolerance: number;
+  shareWithin: number | null;
+  n: number;
+  meanAbsolute: number | null;
+  maxAbsolute: number | null;
+  /** |Δ|/|reference|, over pairs whose reference is not zero. */
+  meanRelative: number | null;
+  maxRelative: number | null;
+}
+
+/** A benchmark against a reference method instead of experiment. */
+export interface ReferenceRecord {
+  methodId: string;
+  label: string;
+  tolerance: number;
+  share: number;
+  /** How the pairs were matched: by mode index, or by the pairing rules with activities ignored. */
+  matchedBy: { index: number; pairing: number };
+  perMethod: ReferenceMethodRecord[];
+}
+
 /** The snapshot a Revision stores (version 2 adds the fields marked optional; older ones lack them). */
 export interface BenchmarkSnapshot {
   version: 1 | 2;
@@ -261,4 +296,6 @@ export interface BenchmarkSnapshot {
   counts: { measurements: number; calculations: number; materials: number; methods: number; measuredInScope?: number };
   /** Why a computation produced nothing, for the empty state. */
   empty: string | null;
+  /** Present when the reference side is a method's calculations; `measured` values are then the reference's. */
+  reference?: ReferenceRecord;
 }

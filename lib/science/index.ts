@@ -51,3 +51,5 @@ export { qualityChecks, qualityReport, DEFAULT_QUALITY_THRESHOLDS } from './qual
 export type { QualityInput, QualityFlag, QualityThresholds, QualityNotApplied, QualityReport } from './quality';
 export { detectShift, DEFAULT_SHIFT_THRESHOLDS } from './shift';
 export type { MethodSummary, ShiftReason, ShiftThresholds } from './shift';
+export { convergencePoint, recommendedParameter, deviationDistribution } from './convergence';
+export type { ConvergenceDirection, ConvergencePoint, Recommendation, DistributionRow } from './convergence';

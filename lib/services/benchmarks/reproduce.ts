@@ -19,7 +19,10 @@ export async function reproduceRevision(workspaceId: string, benchmarkId: string
   const rows = await revisionRowSet(workspaceId, revision.id);
   if (!rows) throw new AppError('conflict', `Revision ${number} was stored without its row set and cannot be reproduced.`);
   const stored = await rowsOfRowSet(workspaceId, rows);
-  const today = await loadBenchmarkInput(workspaceId, bm, { materialIds: [...new Set(stored.measurements.map((m) => m.materialId))] });
+  // The revision's materials: those of its measurements, or against a reference method those of the reference's rows.
+  const ref = bm.scope.referenceMethodId;
+  const owners = ref === undefined ? stored.measurements : stored.calculations.filter((c) => c.methodId === ref);
+  const today = await loadBenchmarkInput(workspaceId, bm, { materialIds: [...new Set(owners.map((m) => m.materialId))] });
   const input = {
     ...today,
     ...stored,

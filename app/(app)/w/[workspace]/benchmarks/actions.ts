@@ -68,8 +68,7 @@ export const revertDecisionAction = workspaceAction('decisions:revert', revertDe
 });
 
 export const pinAction = workspaceAction('decisions:create', pinFormSchema, async (input, ctx) => {
-  await requireBenchmark(ctx.workspace.id, input.benchmarkId);
-  const { id } = await pin(ctx.workspace.id, { userId: ctx.user.id }, { ...input, calculationId: input.calculationId ?? null });
+  const { id } = await pin(ctx.workspace.id, { userId: ctx.user.id }, { ...input, calculationId: input.calculationId ?? null }, input.benchmarkId);
   revalidatePath(`/w/${ctx.workspace.slug}/benchmarks/${input.benchmarkId}`);
   return { ok: true, message: input.calculationId ? 'Pairing pinned.' : 'Marked as having no counterpart.', data: { id } };
 });

@@ -25,6 +25,10 @@ export const benchmarkFormSchema = z.object({
   materialTags: commaList,
   materialIds: list(z.string().min(1)),
   methodIds: list(z.string().min(1)),
+  /** Empty: compare with experiment; a method id: compare with that method's calculations. */
+  referenceMethodId: z.preprocess(blank, z.string().min(1).optional()),
+  referenceTolerance: optionalNumber('The reference tolerance'),
+  convergenceSharePercent: optionalNumber('The share of materials within tolerance'),
   entropyTemperatureK: optionalNumber('The comparison temperature'),
   /** "each": compare a measured series at every measured temperature (entropyTemperatureK is then ignored). */
   thermalTemperatures: z.preprocess(blank, z.enum(['one', 'each'], 'Choose one temperature or every measured one.').optional()),
@@ -66,6 +70,7 @@ export function definitionFromForm(f: BenchmarkForm): BenchmarkDefinitionInput {
       materialTags: f.materialTags,
       materialIds: f.materialIds,
       methodIds: f.methodIds,
+      ...(f.referenceMethodId ? { referenceMethodId: f.referenceMethodId } : {}),
       entropyTemperatureK: f.thermalTemperatures === 'each' ? null : f.entropyTemperatureK,
       entropyToleranceK: f.entropyToleranceK,
     },
@@ -78,6 +83,8 @@ export function definitionFromForm(f: BenchmarkForm): BenchmarkDefinitionInput {
       bandEdgesCm1: f.bandEdgesCm1.length ? f.bandEdgesCm1 : undefined,
       ranking: { minN: f.rankMinN, minCoverage: pct(f.rankMinCoveragePercent) },
       entropyBasis: f.entropyBasis,
+      ...(f.referenceMethodId && f.referenceTolerance !== undefined ? { referenceTolerance: f.referenceTolerance } : {}),
+      ...(f.referenceMethodId && f.convergenceSharePercent !== undefined ? { convergenceShare: f.convergenceSharePercent / 100 } : {}),
     },
     alertThresholds: { maeAbsolute: f.alertMaeAbsolute ?? f.alertMaeCm1, maeRelative: pct(f.alertMaeRelativePercent), nRelative: pct(f.alertNRelativePercent) },
   };

@@ -5,7 +5,7 @@ import { createBenchmarkAction, updateBenchmarkAction } from '../actions';
 import { SelectField, TextField, inputClass } from '@/components/ui/field';
 import { SubmitButton } from '@/components/ui/submit-button';
 import { FormMessage } from '@/components/ui/form-message';
-import { DEFAULT_MAE_ABSOLUTE, DEFAULT_OUTLIER_THRESHOLDS, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
+import { DEFAULT_CONVERGENCE_SHARE, DEFAULT_MAE_ABSOLUTE, DEFAULT_OUTLIER_THRESHOLDS, DEFAULT_REFERENCE_TOLERANCE, OUTLIER_RULE_KINDS, SCOPE_TECHNIQUES, type BenchmarkDefinition } from '@/lib/benchmark/schemas';
 import { techniqueName } from '@/lib/benchmark/describe';
 import { isDielectric, isThermal, QUANTITY_PLURAL, QUANTITY_UNIT } from '@/lib/benchmark/quantities';
 
@@ -32,6 +32,7 @@ export function BenchmarkForm({
   const [quantity, setQuantity] = useState(initial.scope.quantity);
   const [series, setSeries] = useState(initial.scope.entropyTemperatureK === null);
   const [ruleKind, setRuleKind] = useState(initial.rules.outlierRule.kind);
+  const [referenceId, setReferenceId] = useState(initial.scope.referenceMethodId ?? '');
   const e = state.fieldErrors ?? {};
 
   useEffect(() => {
@@ -59,6 +60,47 @@ export function BenchmarkForm({
           <option value="eps-inf">Dielectric constant ε∞ (electronic)</option>
           <option value="eps-static">Dielectric constant ε₀ (static)</option>
         </SelectField>
+        <SelectField
+          label="Compared with"
+          name="referenceMethodId"
+          value={referenceId}
+          onChange={(ev) => setReferenceId(ev.target.value)}
+          errors={e.referenceMethodId ?? e['scope.referenceMethodId']}
+          hint={
+            referenceId
+              ? 'A convergence study: the candidates are compared with this method’s calculations (for example the same functional on a much denser grid), mode by mode. Measurements, decisions and pins play no part.'
+              : undefined
+          }
+        >
+          <option value="">Experiment (measured values)</option>
+          {options.methods.map((m) => (
+            <option key={m.id} value={m.id}>
+              Reference method: {m.label}
+            </option>
+          ))}
+        </SelectField>
+        {referenceId ? (
+          <div className="grid grid-cols-2 gap-3">
+            <TextField
+              label={`Tolerance on the largest |Δ| of a material (${QUANTITY_UNIT[quantity] || 'dimensionless'})`}
+              name="referenceTolerance"
+              type="number"
+              step="any"
+              defaultValue={rules.referenceTolerance ?? ''}
+              placeholder={String(DEFAULT_REFERENCE_TOLERANCE[quantity])}
+              errors={e.referenceTolerance ?? e['rules.referenceTolerance']}
+              hint="Blank: the default for the quantity."
+            />
+            <TextField
+              label="Share of a class within tolerance to recommend a recipe (%)"
+              name="convergenceSharePercent"
+              type="number"
+              step="any"
+              defaultValue={(rules.convergenceShare ?? DEFAULT_CONVERGENCE_SHARE) * 100}
+              errors={e.convergenceSharePercent ?? e['rules.convergenceShare']}
+            />
+          </div>
+        ) : null}
         {isDielectric(quantity) ? (
           <p className="text-xs text-ink-muted">One value per material on each side, whatever its temperature; for a non-cubic crystal store the orientational average (ε_xx + ε_yy + ε_zz)/3 on both sides.</p>
         ) : null}
@@ -127,7 +169,7 @@ export function BenchmarkForm({
           {e['scope.materialIds'] ? <span className="text-xs text-bad">{e['scope.materialIds'].join(' ')}</span> : null}
         </label>
         <div>
-          <p className="text-[13px] font-medium">Methods to compare (none ticked: all)</p>
+          <p className="text-[13px] font-medium">{referenceId ? 'Candidate methods (none ticked: all but the reference)' : 'Methods to compare (none ticked: all)'}</p>
           <div className="mt-1 flex flex-wrap gap-3 text-sm">
             {options.methods.map((m) => (
               <label key={m.id} className="inline-flex items-center gap-1.5">

@@ -14,6 +14,7 @@ import { Notice } from '@/components/ui/notice';
 import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
 import { ScalingPanel } from './scaling-panel';
+import { ReferencePanel } from './reference-panel';
 import { MaterialTable } from './material-table';
 import { cautionOf } from '@/lib/benchmark/compute';
 import { isDielectric, isThermal } from '@/lib/benchmark/quantities';
@@ -56,11 +57,12 @@ export async function BenchmarkView({
   const base = `/w/${workspace.slug}/benchmarks/${bm.id}`;
   const api = `/api/workspaces/${workspace.id}/benchmarks/${bm.id}`;
   const readOnly = rev !== null && !rev.isLatest;
-  const canDecide = !readOnly && roleCan(role, 'decisions:create');
+  // Decisions and pins name measurements: a benchmark against a reference method has none.
+  const canDecide = !readOnly && bm.scope.referenceMethodId === undefined && roleCan(role, 'decisions:create');
   const canRevert = !readOnly && roleCan(role, 'decisions:revert');
   const canEdit = roleCan(role, 'benchmarks:update');
   const labels = await scopeLabels(workspace.id, bm.scope);
-  const scopeText = describeScope(bm.scope, { methods: labels.methods.map((m) => m.label), materials: labels.materials.map((m) => m.name) });
+  const scopeText = describeScope(bm.scope, { methods: labels.methods.map((m) => m.label), materials: labels.materials.map((m) => m.name), reference: labels.reference });
 
   const header = (
     <header className="space-y-2">
@@ -177,15 +179,25 @@ export async function BenchmarkView({
       ) : (
         // one query client for the plots and the comparison, so the pairs are fetched once
         <QueryProvider>
+          {snap.reference ? (
+            <Panel title={`Against the reference method ${snap.reference.label}`}>
+              <ReferencePanel reference={snap.reference} unit={snap.unit} convergenceHref={`${base}/convergence`} />
+            </Panel>
+          ) : null}
           <Panel title="Leaderboard" actions={<AddToDeck workspaceId={workspace.id} kinds={['leaderboard']} benchmarkId={bm.id} revisionNumber={rev.number} />}>
+            {snap.reference ? (
+              <p className="mb-2 text-xs text-ink-muted" data-testid="reference-note">
+                Every statistic below is the distance from the reference method {snap.reference.label}, not from experiment: where a column says measured, read reference.
+              </p>
+            ) : null}
             <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} ranking={snap.ranking} />
             <p className="mt-1 text-xs text-ink-muted" data-testid="scope-counts">
-              {(snap.counts.measuredInScope ?? snap.counts.measurements).toLocaleString('en')} measured values in scope; {excludedCount.toLocaleString('en')} pair{excludedCount === 1 ? '' : 's'} excluded by decisions (kept in the
+              {(snap.counts.measuredInScope ?? snap.counts.measurements).toLocaleString('en')} {snap.reference ? 'reference' : 'measured'} values in scope; {excludedCount.toLocaleString('en')} pair{excludedCount === 1 ? '' : 's'} excluded by decisions (kept in the
               lists, out of every statistic).
             </p>
           </Panel>
 
-          {snap.quantity === 'frequency' ? (
+          {snap.quantity === 'frequency' && !snap.reference ? (
             <Panel title="Scaling">
               <ScalingPanel methods={snap.methods} unit={snap.unit} />
             </Panel>
