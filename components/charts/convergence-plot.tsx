@@ -19,7 +19,8 @@ export interface ConvergencePlotSummary {
 /**
  * One deviation (max |Δ| or mean |Δ|) against the recipe parameter: a thin line per material,
  * the median over materials (and the 95th percentile, when given) per family member, and the
- * tolerance as a dashed rule. The y axis is symmetric-log, since deviations span decades and may be 0.
+ * tolerance as a dashed rule. The y axis is symmetric-log, since deviations span decades and may be 0; the x axis is
+ * logarithmic when every parameter value is positive.
  */
 export function convergenceSpec(points: ConvergencePlotPoint[], summary: ConvergencePlotSummary[], tolerance: number | null, xTitle: string, yTitle: string): TopLevelSpec {
   const series = summary.flatMap((s) => [
@@ -27,7 +28,9 @@ export function convergenceSpec(points: ConvergencePlotPoint[], summary: Converg
     ...(s.p95 === undefined ? [] : [{ series: '95th percentile', method: s.method, parameter: s.parameter, value: s.p95 }]),
   ]);
   const y = { field: 'value', type: 'quantitative' as const, title: yTitle, scale: { type: 'symlog' as const, constant: tolerance ?? 1 } };
-  const x = { field: 'parameter', type: 'quantitative' as const, title: xTitle, scale: { zero: false } };
+  // k-points per reciprocal atom grow with the cube of the grid and with the cell: a log axis keeps the knee readable.
+  const positive = [...points, ...summary].every((p) => p.parameter > 0);
+  const x = { field: 'parameter', type: 'quantitative' as const, title: xTitle, scale: positive ? { type: 'log' as const } : { zero: false } };
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: 'container',

@@ -21,7 +21,7 @@ export const referenceLabel = `Fam-PBEsol-k${REFERENCE_GRID}-ref`;
 export const TOLERANCE = 1;
 
 /** The CSV: for each method and material, 3 acoustic rows and the optical rows, with mode indices. */
-export function familyCsv(): string {
+export function familyCsv(source = 'inhouse-2026'): string {
   const lines = [
     'material,method,quantity,value,unit,mode_index,degeneracy,activity,source,material_formula,material_atoms_in_cell,material_tags,method_functional,method_k_grid',
   ];
@@ -33,7 +33,7 @@ export function familyCsv(): string {
       // the first optical mode carries the whole deviation, the others half of it, alternating in sign
       m.optical.forEach(([w, g], i) => rows.push([w + (i === 0 ? d : -d / 2), g, 'raman']));
       rows.forEach(([w, g, activity], i) =>
-        lines.push([m.name, label, 'frequency', w.toFixed(2), 'cm-1', i + 1, g, activity, 'inhouse-2026', 'GaAs', m.atoms, m.tag, 'PBEsol', `${k}x${k}x${k}`].join(',')),
+        lines.push([m.name, label, 'frequency', w.toFixed(2), 'cm-1', i + 1, g, activity, source, 'GaAs', m.atoms, m.tag, 'PBEsol', `${k}x${k}x${k}`].join(',')),
       );
     }
   }
