@@ -149,7 +149,7 @@ export function leaderboardLatex(snapshot: BenchmarkSnapshot, ctx: LeaderboardEx
   const basis = ranking && ranking.rankedMethods > 0 ? `Ranked on the ${ranking.commonN} pairs all ${ranking.rankedMethods} ranked methods share. ` : '';
   const caption =
     `${latexText(ctx.benchmarkName)}, revision ${ctx.revisionNumber} (sha256:${ctx.fingerprint.slice(0, 16)}). ${basis}` +
-    `Errors are calculated $-$ measured${unit ? `, in ${unit}` : ' (dimensionless)'}; MAE intervals from a bootstrap ${resampled}. Methods without a rank are listed, not ranked.`;
+    `Errors are ${snapshot.reference ? `candidate $-$ reference (${latexText(snapshot.reference.label)})` : 'calculated $-$ measured'}${unit ? `, in ${unit}` : ' (dimensionless)'}; MAE intervals from a bootstrap ${resampled}. Methods without a rank are listed, not ranked.`;
   return [
     '% Lattice Ledger leaderboard export; needs \\usepackage{booktabs}',
     '\\begin{table}',

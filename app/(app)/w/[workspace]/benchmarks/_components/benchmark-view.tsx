@@ -190,7 +190,7 @@ export async function BenchmarkView({
                 Every statistic below is the distance from the reference method {snap.reference.label}, not from experiment: where a column says measured, read reference.
               </p>
             ) : null}
-            <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} ranking={snap.ranking} />
+            <Leaderboard methods={snap.methods} unit={snap.unit} pairByKey={pairByKey} materialName={materialName} ranking={snap.ranking} reference={snap.reference?.label} />
             <p className="mt-1 text-xs text-ink-muted" data-testid="scope-counts">
               {(snap.counts.measuredInScope ?? snap.counts.measurements).toLocaleString('en')} {snap.reference ? 'reference' : 'measured'} values in scope; {excludedCount.toLocaleString('en')} pair{excludedCount === 1 ? '' : 's'} excluded by decisions (kept in the
               lists, out of every statistic).

@@ -26,6 +26,7 @@ export function Leaderboard({
   materialName,
   ranking,
   details = 'toggle',
+  reference,
 }: {
   methods: MethodResult[];
   unit: string;
@@ -34,6 +35,8 @@ export function Leaderboard({
   ranking?: RankingRecord;
   /** 'none': the ten columns only (slides). */
   details?: 'toggle' | 'none';
+  /** Against a reference method: its label (the errors are candidate − reference). */
+  reference?: string;
 }) {
   const unranked = methods.filter((m) => m.rank === null && m.unranked);
   const worstPair: Record<string, string> = {};
@@ -68,7 +71,8 @@ export function Leaderboard({
         </ul>
       ) : null}
       <p className="text-xs text-ink-faint">
-        Errors are calculated − measured{unit ? `, in ${unit}` : ' (dimensionless)'}. {intervalNote(methods)}
+        Errors are {reference ? `candidate − reference (${reference})` : 'calculated − measured'}
+        {unit ? `, in ${unit}` : ' (dimensionless)'}. {intervalNote(methods)}
       </p>
     </div>
   );
