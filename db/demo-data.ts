@@ -148,7 +148,11 @@ function gaussian(random: () => number): number {
 
 const round = (value: number, digits: number) => Number(value.toFixed(digits));
 
-export async function loadDemoScenario(tx: Executor, workspaceId: string, userId: string): Promise<{ created: boolean }> {
+/**
+ * The demo scenario in a workspace; `convergenceFamily` adds the invented k-point family of data/demo/convergence.json
+ * (the seed puts it in a workspace of its own, so the main demo's "every method" benchmarks stay as they are).
+ */
+export async function loadDemoScenario(tx: Executor, workspaceId: string, userId: string, options: { convergenceFamily?: boolean } = {}): Promise<{ created: boolean }> {
   const existing = await tx.select({ id: material.id }).from(material).where(and(eq(material.workspaceId, workspaceId), eq(material.name, 'Si'))).limit(1);
   if (existing[0]) return { created: false };
 
@@ -353,7 +357,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     for (const d of dielectric) perMaterial(d.material, 'eps-inf', d.eps_inf, spec.epsInfBias, spec.epsInfNoise, () => gaussian(dielectricRandom), '1');
     for (let i = 0; i < values.length; i += 200) await tx.insert(calculation).values(values.slice(i, i + 200));
   }
-  await loadConvergenceFamily(tx, workspaceId, userId, { materials, modes, materialIds, synthetic, seed: methodsSpec.seed });
+  if (options.convergenceFamily) await loadConvergenceFamily(tx, workspaceId, userId, { materials, modes, materialIds, synthetic, seed: methodsSpec.seed });
   return { created: true };
 }
 

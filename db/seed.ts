@@ -63,16 +63,39 @@ export async function seedDemo(): Promise<{ workspaceId: string; group: DemoGrou
   const curatorId = ids[curator >= 0 ? curator : owner];
   await db.transaction((tx) => loadDemoScenario(tx, workspace.id, curatorId));
   for (const definition of DEMO_BENCHMARKS) await ensureBenchmark(workspace.id, curatorId, definition);
+  // The convergence study in a workspace of its own, with the same members.
+  const study = await ensureWorkspace(CONVERGENCE_WORKSPACE, group, ids, owner);
+  await db.transaction((tx) => loadDemoScenario(tx, study, curatorId, { convergenceFamily: true }));
+  await ensureBenchmark(study, curatorId, CONVERGENCE_BENCHMARK);
   return { workspaceId: workspace.id, group };
+}
+
+/** The invented convergence-study workspace of the demo. */
+export const CONVERGENCE_WORKSPACE = { name: 'Halden convergence study (invented demo)', slug: 'halden-convergence' };
+
+async function ensureWorkspace(target: { name: string; slug: string }, group: DemoGroup, ids: string[], owner: number): Promise<string> {
+  let workspace = (await db.select({ id: organization.id }).from(organization).where(eq(organization.slug, target.slug)).limit(1))[0];
+  if (!workspace) {
+    const created = await getAuth().api.createOrganization({ body: { name: target.name, slug: target.slug, userId: ids[owner] } });
+    workspace = { id: created.id };
+  }
+  await ensureWorkspaceSettings(workspace.id);
+  for (const [i, m] of group.members.entries()) {
+    const existing = await db
+      .select({ id: member.id })
+      .from(member)
+      .where(and(eq(member.organizationId, workspace.id), eq(member.userId, ids[i])))
+      .limit(1);
+    if (!existing[0]) await getAuth().api.addMember({ body: { userId: ids[i], role: m.role, organizationId: workspace.id } });
+  }
+  return workspace.id;
 }
 
 export const DEMO_BENCHMARK_NAME = 'Γ-point frequencies — all methods (demo)';
 
 /** A demo benchmark whose methods are named by label (the seed resolves them to ids). */
-type DemoBenchmark = BenchmarkDefinitionInput & { methodLabels: string[]; referenceLabel?: string };
+type DemoBenchmark = BenchmarkDefinitionInput & { methodLabels?: string[]; referenceLabel?: string };
 
-/** The three invented recipes compared with experiment (data/demo/methods.json), not the convergence family. */
-const EXPERIMENT_METHODS = (JSON.parse(readFileSync(fileURLToPath(new URL('../data/demo/methods.json', import.meta.url)), 'utf8')) as { methods: Array<{ label: string }> }).methods.map((m) => m.label);
 const FAMILY = convergenceLabels();
 
 const DEMO_BENCHMARKS: DemoBenchmark[] = [
@@ -80,13 +103,11 @@ const DEMO_BENCHMARKS: DemoBenchmark[] = [
     name: DEMO_BENCHMARK_NAME,
     purpose: 'Which of the three (invented) recipes reproduces the measured zone-centre frequencies best? Invented demo benchmark.',
     scope: { quantity: 'frequency' },
-    methodLabels: EXPERIMENT_METHODS,
   },
   {
     name: 'Vibrational entropy at 298 K (demo)',
     purpose: 'Computed harmonic vibrational entropies against calorimetric standard entropies. Invented demo benchmark.',
     scope: { quantity: 'entropy', entropyTemperatureK: 298.15 },
-    methodLabels: EXPERIMENT_METHODS,
   },
   {
     name: 'Heat capacity at 298 K (demo)',
@@ -94,28 +115,27 @@ const DEMO_BENCHMARKS: DemoBenchmark[] = [
     scope: { quantity: 'heat-capacity', entropyTemperatureK: 298.15 },
     // eight crystals carry a Cp°: rank from N = 5 rather than the default 10
     rules: { ranking: { minN: 5 } },
-    methodLabels: EXPERIMENT_METHODS,
   },
   {
     name: 'Electronic dielectric constant ε∞ (demo)',
     purpose: 'Computed ε∞ against measured ε∞; both sides are invented for the demo (the measured values are textbook values moved by 5–6 %). Invented demo benchmark.',
     scope: { quantity: 'eps-inf' },
-    methodLabels: EXPERIMENT_METHODS,
   },
-  {
+];
+
+const CONVERGENCE_BENCHMARK: DemoBenchmark = {
     name: 'k-point convergence of PBEsol (demo)',
     purpose:
       'Which k-point density reproduces the dense-grid frequencies within 1 cm⁻¹? Five invented k-grids of one recipe against its invented 24³ reference; every value is synthetic. Invented demo benchmark.',
     scope: { quantity: 'frequency' },
     methodLabels: FAMILY.members,
     referenceLabel: FAMILY.reference,
-  },
-];
+  };
 
 async function ensureBenchmark(workspaceId: string, userId: string, demo: DemoBenchmark) {
-  const { methodLabels, referenceLabel, ...rest } = demo;
+  const { methodLabels = [], referenceLabel, ...rest } = demo;
   const labels = [...methodLabels, ...(referenceLabel ? [referenceLabel] : [])];
-  const found = await db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), inArray(method.label, labels)));
+  const found = labels.length ? await db.select({ id: method.id, label: method.label }).from(method).where(and(eq(method.workspaceId, workspaceId), inArray(method.label, labels))) : [];
   const idOf = new Map(found.map((m) => [m.label, m.id]));
   // A workspace seeded before a method existed keeps its benchmarks as they were.
   const methodIds = methodLabels.map((l) => idOf.get(l)).filter((id): id is string => id !== undefined);

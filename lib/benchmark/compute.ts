@@ -377,7 +377,8 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
     materialRows: materialRows(context.materials, byMethod, qualityRecords),
     ranking,
     entropyBasis,
-    caution: cautionOf(quantity),
+    // Against a reference method both sides are computed alike: the cautions about experiment do not apply.
+    caution: context.referenceMethod ? null : cautionOf(quantity),
     outlierScale,
     qualityNotApplied: notApplied,
     comparisons: comparisons(methodIds, included),

@@ -7,12 +7,14 @@
  */
 import { describe, expect, inject, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { DEMO_SLUG, demoSession } from './support/demo';
+import { demoSession } from './support/demo';
 import { familyCsv, familyLabel, FAMILY_GRIDS, independentRecommendation, referenceLabel } from '../support/convergence-family';
 
 const base = inject('baseURL');
 const session = demoSession('curator', base);
 const csv = familyCsv('demo-synthetic-2026');
+/** The demo's convergence-study workspace (db/seed.ts): the same members, its own data, so nothing here moves the main demo. */
+const DEMO_SLUG = 'halden-convergence';
 
 describe('convergence study', () => {
   it('imports a method family with its reference in one file', async () => {

@@ -111,7 +111,7 @@ describe('a benchmark against a reference method', () => {
 describe('the demo convergence family (invented)', () => {
   it('has its knee between 686 and 1,458 k-points per reciprocal atom, near the ~1,500 rule of thumb (common practice, no source)', async () => {
     const demo = await createWorkspaceWith(['curator']);
-    await db.transaction((tx) => loadDemoScenario(tx, demo.workspaceId, demo.owner.id));
+    await db.transaction((tx) => loadDemoScenario(tx, demo.workspaceId, demo.owner.id, { convergenceFamily: true }));
     const labels = convergenceLabels();
     await signInAs(demo.members.curator.email);
     const state = await createBenchmarkAction(

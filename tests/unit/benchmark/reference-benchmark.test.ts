@@ -135,3 +135,34 @@ describe('the convergence view', () => {
     expect(view.points).toHaveLength(0);
   });
 });
+
+describe('other quantities against a reference method', () => {
+  const perMaterial = (methodId: string, materialId: string, value: number, temperatureK: number | null) => row(methodId, materialId, value, null, { temperatureK, irrep: null });
+
+  it('pairs heat capacities at each reference temperature with the candidate nearest in T', () => {
+    // q-grid convergence of a harmonic Cv(T): the reference at 100, 200 and 298.15 K; the candidate 0.3, 0.1 and 0.05 J mol⁻¹ K⁻¹ off.
+    const rows = [
+      perMaterial('ref', 'si', 7.27, 100), perMaterial('ref', 'si', 15.63, 200), perMaterial('ref', 'si', 19.79, 298.15),
+      perMaterial('q2', 'si', 6.97, 100), perMaterial('q2', 'si', 15.53, 200.4), perMaterial('q2', 'si', 19.74, 298.15),
+    ];
+    const snap = computeBenchmark({ ...input(rows, ['q2'], {}, ['si']), quantity: 'heat-capacity', entropyWindow: { temperatureK: null, toleranceK: 1 } });
+    expect(snap.pairs.map((p) => [p.temperatureK, Number(p.error.toFixed(2))])).toEqual([
+      [100, -0.3],
+      [200, -0.1],
+      [298.15, -0.05],
+    ]);
+    // Tolerance 0.1 J mol⁻¹ K⁻¹ by default: the material's largest |Δ| is 0.3, so it is not within.
+    expect(snap.reference).toMatchObject({ tolerance: 0.1, perMethod: [{ materials: 1, withinTolerance: 0, n: 3 }] });
+    expect(snap.reference!.perMethod[0].maxAbsolute).toBeCloseTo(0.3, 9);
+    // Both sides are Cv: the caution about calorimetric Cp does not apply.
+    expect(snap.caution).toBeNull();
+  });
+
+  it('pairs one dielectric constant per material and method', () => {
+    const rows = [perMaterial('ref', 'si', 12.1, null), perMaterial('k4', 'si', 12.4, null), perMaterial('ref', 'ge', 16.5, null), perMaterial('k4', 'ge', 16.52, null)];
+    const snap = computeBenchmark({ ...input(rows, ['k4']), quantity: 'eps-inf' });
+    expect(snap.pairs.map((p) => Number(p.error.toFixed(2))).sort()).toEqual([0.02, 0.3]);
+    // Tolerance 0.05 by default: Ge within, Si not.
+    expect(snap.reference!.perMethod[0]).toMatchObject({ materials: 2, withinTolerance: 1, shareWithin: 0.5 });
+  });
+});

@@ -101,10 +101,10 @@ export function BenchmarkForm({
             />
           </div>
         ) : null}
-        {isDielectric(quantity) ? (
+        {isDielectric(quantity) && !referenceId ? (
           <p className="text-xs text-ink-muted">One value per material on each side, whatever its temperature; for a non-cubic crystal store the orientational average (ε_xx + ε_yy + ε_zz)/3 on both sides.</p>
         ) : null}
-        {quantity === 'heat-capacity' ? (
+        {quantity === 'heat-capacity' && !referenceId ? (
           <p className="text-xs text-ink-muted">Calorimetry measures Cp; a harmonic calculation gives Cv, which lies below it by α² B V_m T. The benchmark compares them without that correction and says so on its page.</p>
         ) : null}
         {isThermal(quantity) ? (
