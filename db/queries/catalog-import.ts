@@ -33,6 +33,9 @@ async function storedMaterials(workspaceId: string, executor: Executor = db): Pr
       crystalSystem: material.crystalSystem,
       atomsInCell: material.atomsInCell,
       externalId: material.externalId,
+      thermalExpansionPerK: material.thermalExpansionPerK,
+      bulkModulusGpa: material.bulkModulusGpa,
+      molarVolumeCm3: material.molarVolumeCm3,
       retractedAt: material.retractedAt,
       tags: sql<string | null>`(select json_group_array(tag) from (select ${materialTag.tag} as tag from ${materialTag} where ${materialTag.materialId} = ${material.id} order by ${materialTag.tag}))`,
     })
@@ -108,7 +111,7 @@ export async function loadStoredCatalog<K extends CatalogKind>(workspaceId: stri
   return (await storedSources(workspaceId)) as unknown as Array<Stored<K>>;
 }
 
-const MATERIAL_COLUMNS = ['id', 'workspace_id', 'name', 'display_name', 'formula', 'reduced_formula', 'atoms_per_formula_unit', 'element_counts', 'space_group', 'crystal_system', 'atoms_in_cell', 'external_id', 'import_id', 'created_by'] as const;
+const MATERIAL_COLUMNS = ['id', 'workspace_id', 'name', 'display_name', 'formula', 'reduced_formula', 'atoms_per_formula_unit', 'element_counts', 'space_group', 'crystal_system', 'atoms_in_cell', 'external_id', 'thermal_expansion_per_k', 'bulk_modulus_gpa', 'molar_volume_cm3', 'import_id', 'created_by'] as const;
 const TAG_COLUMNS = ['material_id', 'workspace_id', 'tag'] as const;
 const MATERIAL_CHUNK = 500;
 const TAG_CHUNK = 900;
@@ -121,7 +124,7 @@ export async function insertMaterialRows(raw: Transaction, workspaceId: string, 
     const chunk = rows.slice(start, start + MATERIAL_CHUNK);
     const args: InValue[] = [];
     for (const m of chunk) {
-      args.push(m.id, workspaceId, m.name, m.displayName, m.formula, m.reducedFormula, m.atomsPerFormulaUnit, JSON.stringify(m.elementCounts), m.spaceGroup, m.crystalSystem, m.atomsInCell, m.externalId, importId, userId);
+      args.push(m.id, workspaceId, m.name, m.displayName, m.formula, m.reducedFormula, m.atomsPerFormulaUnit, JSON.stringify(m.elementCounts), m.spaceGroup, m.crystalSystem, m.atomsInCell, m.externalId, m.thermalExpansionPerK, m.bulkModulusGpa, m.molarVolumeCm3, importId, userId);
       for (const tag of m.tags) {
         tags.push(m.id, workspaceId, tag);
         tagCount++;

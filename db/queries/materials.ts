@@ -149,6 +149,9 @@ function snapshot(m: MaterialWithTags) {
     crystalSystem: m.crystalSystem,
     atomsInCell: m.atomsInCell,
     externalId: m.externalId,
+    thermalExpansionPerK: m.thermalExpansionPerK,
+    bulkModulusGpa: m.bulkModulusGpa,
+    molarVolumeCm3: m.molarVolumeCm3,
     tags: m.tags,
     retractedAt: m.retractedAt?.toISOString() ?? null,
     retractionReason: m.retractionReason,
@@ -168,6 +171,9 @@ function columnsOf(input: MaterialInput) {
     crystalSystem: derived.crystalSystem,
     atomsInCell: input.atomsInCell ?? null,
     externalId: input.externalId ?? null,
+    thermalExpansionPerK: input.thermalExpansionPerK ?? null,
+    bulkModulusGpa: input.bulkModulusGpa ?? null,
+    molarVolumeCm3: input.molarVolumeCm3 ?? null,
   };
 }
 

@@ -25,6 +25,14 @@ export const material = sqliteTable(
     crystalSystem: text(),
     atomsInCell: integer(),
     externalId: text(),
+    /**
+     * For the Cp − Cv correction of heat-capacity benchmarks (lib/science/thermodynamics.ts cpMinusCv),
+     * used only when all three are given: volumetric thermal expansion α in K⁻¹, isothermal bulk
+     * modulus B in GPa, molar volume V_m in cm³ per mole of formula units.
+     */
+    thermalExpansionPerK: real(),
+    bulkModulusGpa: real(),
+    molarVolumeCm3: real(),
     /** The catalogue or calculation import (import_batch.id) that created the record; null when typed in. Undo of that import retracts it. */
     importId: text(),
     createdBy: text().references(() => user.id),

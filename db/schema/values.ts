@@ -64,6 +64,13 @@ const valueColumns = () => ({
   branch: text({ enum: BRANCHES }),
   degeneracy: integer(),
   activity: text({ enum: ACTIVITIES }),
+  /** Born charges: the atom the row belongs to, an element symbol with an optional number ("Ga", "O2"). */
+  site: text(),
+  /**
+   * Tensor components where the quantity has them: a Born charge's 3 × 3 tensor row-major (9 numbers,
+   * in e), or a dielectric constant's three principal values. `value` then holds the mean of the diagonal.
+   */
+  components: text({ mode: 'json' }).$type<number[]>(),
   notes: text(),
   /** Hash of the identifying fields, to report rows identical to existing ones. */
   rowHash: text().notNull(),

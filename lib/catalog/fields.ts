@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { notANumberReason, parseDecimal } from '@/lib/import/numbers';
 
 /** Form fields arrive as strings; an empty one means "not given". JSON callers may send null. */
 function blankToUndefined(value: unknown): unknown {
@@ -29,6 +30,28 @@ export const optionalInteger = (label: string, min: number, max: number) =>
 
 export const optionalPositiveNumber = (label: string) =>
   z.preprocess(blankToUndefined, z.coerce.number(`${label} must be a number.`).positive(`${label} must be greater than 0.`).optional());
+
+/**
+ * A real number: a JSON number, or text as the import files write it (decimal point, optional exponent;
+ * a decimal comma is refused with a hint). `check` returns why an otherwise valid number is refused.
+ */
+export const optionalDecimal = (label: string, check?: (n: number) => string | null) =>
+  z.preprocess(
+    blankToUndefined,
+    z
+      .union([z.number(), z.string()], `${label} must be a number.`)
+      .optional()
+      .transform((value, ctx) => {
+        if (value === undefined) return undefined;
+        const n = typeof value === 'number' ? (Number.isFinite(value) ? value : null) : parseDecimal(value);
+        const problem = n === null ? `${label} must be a number${typeof value === 'string' ? `: ${notANumberReason(value)}` : '.'}` : (check?.(n) ?? null);
+        if (problem) {
+          ctx.issues.push({ code: 'custom', message: problem, input: value });
+          return z.NEVER;
+        }
+        return n as number;
+      }),
+  );
 
 /** Checkbox / select yes-no: "on", "yes", "true", true → true; "no", "false", false → false; blank → undefined. */
 export const optionalBoolean = z.preprocess((v) => {

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { crystalSystem, parseFormula, ScienceInputError, type CrystalSystem } from '@/lib/science';
-import { optionalInteger, optionalText, requiredText } from './fields';
+import { optionalDecimal, optionalInteger, optionalText, requiredText } from './fields';
 
 export const MATERIAL_NAME_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._+()-]*$/;
 export const TAG_PATTERN = /^[a-z0-9][a-z0-9 ._+-]*$/;
@@ -26,6 +26,34 @@ function formulaIssue(formula: string): string | null {
   }
 }
 
+/** What the three thermal fields are for, said beside them wherever they are shown or edited. */
+export const CP_CORRECTION_NOTE = 'Used only for the Cp − Cv correction of heat-capacity benchmarks (Cp − Cv = α_V² B_T V_m T), and only when all three are given.';
+
+/**
+ * Bounds of the thermal fields. |α_V| of solids near room temperature stays below about 3 × 10⁻⁴ K⁻¹, so a
+ * larger value is almost always a percentage or a coefficient written in 10⁻⁶ K⁻¹. No crystal reaches
+ * 2000 GPa (diamond is about 440) or 1000 cm³ per mole of formula units.
+ */
+export const THERMAL_EXPANSION_MAX_PER_K = 1e-3;
+export const BULK_MODULUS_MAX_GPA = 2000;
+export const MOLAR_VOLUME_MAX_CM3 = 1000;
+
+const thermalExpansionField = optionalDecimal('The thermal expansion', (n) =>
+  Math.abs(n) > THERMAL_EXPANSION_MAX_PER_K
+    ? `A volumetric thermal expansion of ${n} K⁻¹ is too large for a solid (|α| ≤ 1e-3 K⁻¹; NaCl has about 1.2e-4). It looks like a percentage or a coefficient in 10⁻⁶ K⁻¹: write 31.2 × 10⁻⁶ K⁻¹ as 3.12e-5.`
+    : null,
+);
+const bulkModulusField = optionalDecimal('The bulk modulus', (n) =>
+  n <= 0 ? 'The bulk modulus must be greater than 0 GPa.' : n >= BULK_MODULUS_MAX_GPA ? `A bulk modulus of ${n} GPa is not below ${BULK_MODULUS_MAX_GPA} GPa (diamond has about 440): give it in GPa, not kbar or MPa.` : null,
+);
+const molarVolumeField = optionalDecimal('The molar volume', (n) =>
+  n <= 0
+    ? 'The molar volume must be greater than 0 cm³/mol.'
+    : n >= MOLAR_VOLUME_MAX_CM3
+      ? `A molar volume of ${n} cm³/mol is not below ${MOLAR_VOLUME_MAX_CM3} cm³/mol: give cm³ per mole of formula units (molar mass ÷ density; MgO has about 11.3).`
+      : null,
+);
+
 /** Material fields as typed in the form or sent by the API. */
 export const materialInputSchema = z.object({
   name: requiredText('A name', 64).pipe(
@@ -40,6 +68,9 @@ export const materialInputSchema = z.object({
   atomsInCell: optionalInteger('Atoms in the primitive cell', 1, 10000),
   externalId: optionalText(200),
   tags: z.preprocess(parseTags, z.array(z.string().max(40, 'A tag has at most 40 characters.').regex(TAG_PATTERN, 'Tags use letters, digits, spaces and . _ + - only.')).max(20, 'At most 20 tags.')),
+  thermalExpansionPerK: thermalExpansionField.meta({ description: 'Volumetric thermal expansion α_V in K⁻¹ (three times the linear coefficient of a cubic crystal), e.g. 3.12e-5. For the Cp − Cv correction only.' }),
+  bulkModulusGpa: bulkModulusField.meta({ description: 'Isothermal bulk modulus B_T in GPa, > 0 and < 2000. For the Cp − Cv correction only.' }),
+  molarVolumeCm3: molarVolumeField.meta({ description: 'Molar volume V_m in cm³ per mole of formula units, > 0 and < 1000. For the Cp − Cv correction only.' }),
 });
 
 export type MaterialInput = z.infer<typeof materialInputSchema>;

@@ -23,6 +23,9 @@ export const MATERIAL_IMPORT_COLUMNS: readonly ColumnDef[] = [
   col('atoms_in_cell', false, 'Atoms in the primitive cell: a whole multiple of the atoms per (reduced) formula unit.', ['atoms', 'natoms', 'n_atoms', 'atoms_in_primitive_cell', 'nsites']),
   col('external_id', false, 'Free external structure identifier (e.g. a database entry id); matches a stored material first.', ['externalid', 'structure_id', 'ext_id']),
   col('tags', false, 'Material classes separated by commas, e.g. "nitride, semiconductor".', ['tag', 'classes', 'class']),
+  col('thermal_expansion_per_K', false, 'Volumetric thermal expansion α_V in K⁻¹ (3 × the linear coefficient of a cubic crystal), e.g. 3.12e-5; |α| ≤ 1e-3. Used only for the Cp − Cv correction of heat-capacity benchmarks, with B_T and V_m (all three needed).', ['thermal_expansion', 'volumetric_thermal_expansion', 'alpha_v', 'alpha_v_per_k', 'thermal_expansion_1_k']),
+  col('bulk_modulus_GPa', false, 'Isothermal bulk modulus B_T in GPa, > 0 and < 2000. For the Cp − Cv correction only.', ['bulk_modulus', 'b_t', 'b_t_gpa', 'k_t']),
+  col('molar_volume_cm3', false, 'Molar volume V_m in cm³ per mole of formula units (molar mass ÷ density), > 0 and < 1000. For the Cp − Cv correction only.', ['molar_volume', 'molar_volume_cm3_mol', 'molar_volume_cm3_per_mol', 'v_m', 'vm']),
   col('structure', false, 'POSCAR/CONTCAR or CIF text (quoted, line breaks kept): formula, atoms in the primitive cell and space group are derived from it and fill empty cells.', ['poscar', 'cif']),
   col('prefer', false, 'Where the structure disagrees with a typed cell: typed | structure (else the file-wide choice; without one the row is refused with both values).'),
 ];

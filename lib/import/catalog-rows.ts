@@ -38,6 +38,9 @@ export interface MaterialRecord {
   atomsInCell: number | null;
   externalId: string | null;
   tags: string[];
+  thermalExpansionPerK: number | null;
+  bulkModulusGpa: number | null;
+  molarVolumeCm3: number | null;
 }
 
 export interface MethodRecord {
@@ -75,6 +78,9 @@ export const CATALOG_FIELDS: Record<CatalogKind, ReadonlyArray<readonly [column:
     ['atoms_in_cell', 'atomsInCell'],
     ['external_id', 'externalId'],
     ['tags', 'tags'],
+    ['thermal_expansion_per_K', 'thermalExpansionPerK'],
+    ['bulk_modulus_GPa', 'bulkModulusGpa'],
+    ['molar_volume_cm3', 'molarVolumeCm3'],
   ],
   methods: [
     ['label', 'label'],
@@ -189,6 +195,9 @@ function materialRow(row: number, read: CellReader, columnName: (key: string) =>
       externalId: m.externalId ?? null,
       // Stored tags have no order: compare and store them sorted.
       tags: [...m.tags].sort(),
+      thermalExpansionPerK: m.thermalExpansionPerK ?? null,
+      bulkModulusGpa: m.bulkModulusGpa ?? null,
+      molarVolumeCm3: m.molarVolumeCm3 ?? null,
     },
   };
 }

@@ -8,6 +8,7 @@ import {
   header,
   pValue,
   plain,
+  scientific,
   significant,
   significantFiguresOf,
   signed,
@@ -125,6 +126,16 @@ describe('plain, count, pValue, units and dates', () => {
   it('pValue switches to a power of ten below 10⁻⁴', () => {
     expect(pValue(0.04321)).toBe('0.0432');
     expect(pValue(0.0000321)).toBe('3.2 × 10⁻⁵');
+  });
+  it('scientific writes small and large numbers as a power of ten, the rest plainly', () => {
+    expect(scientific(3.12e-5)).toBe('3.12 × 10⁻⁵');
+    expect(scientific(-2.7e-5)).toBe('−2.7 × 10⁻⁵');
+    expect(scientific(1.2e-4, 6)).toBe('1.2 × 10⁻⁴');
+    expect(scientific(12345)).toBe('1.23 × 10⁴');
+    expect(scientific(160)).toBe('160');
+    expect(scientific(0.0123)).toBe('0.0123');
+    expect(scientific(0)).toBe('0');
+    expect(scientific(null)).toBe('—');
   });
   it('joins a number and its unit without a stray space', () => {
     expect(withUnit('3.70', 'cm⁻¹')).toBe('3.70\u00a0cm⁻¹');

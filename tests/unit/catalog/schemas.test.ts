@@ -42,6 +42,26 @@ describe('materialInputSchema', () => {
     expect(deriveMaterial({ formula: 'Al2O3', spaceGroup: undefined }).crystalSystem).toBeNull();
   });
 
+  it('reads the Cp − Cv fields from form text or JSON numbers; blank or null is "not given"', () => {
+    // MgO, handbook values from memory (tests/unit/science/heat-capacity.test.ts)
+    const form = materialInputSchema.parse({ name: 'MgO', formula: 'MgO', tags: '', thermalExpansionPerK: ' 3.12e-5 ', bulkModulusGpa: '160', molarVolumeCm3: '11.25' });
+    expect(form).toMatchObject({ thermalExpansionPerK: 3.12e-5, bulkModulusGpa: 160, molarVolumeCm3: 11.25 });
+    const json = materialInputSchema.parse({ name: 'MgO', formula: 'MgO', tags: [], thermalExpansionPerK: -2.7e-5, bulkModulusGpa: null, molarVolumeCm3: '' });
+    expect(json).toMatchObject({ thermalExpansionPerK: -2.7e-5, bulkModulusGpa: undefined, molarVolumeCm3: undefined });
+  });
+
+  it('refuses a thermal expansion that looks like a percentage or 10⁻⁶ K⁻¹, and a bulk modulus or molar volume out of range', () => {
+    const bad = errorsOf(materialInputSchema.safeParse({ name: 'x', formula: 'MgO', tags: '', thermalExpansionPerK: '31.2', bulkModulusGpa: 2500, molarVolumeCm3: '-3' }));
+    expect(bad.thermalExpansionPerK).toMatch(/too large for a solid.*percentage/);
+    expect(bad.bulkModulusGpa).toMatch(/not below 2000 GPa/);
+    expect(bad.molarVolumeCm3).toMatch(/greater than 0/);
+    expect(errorsOf(materialInputSchema.safeParse({ name: 'x', formula: 'MgO', tags: '', thermalExpansionPerK: true })).thermalExpansionPerK).toMatch(/must be a number/);
+    expect(errorsOf(materialInputSchema.safeParse({ name: 'x', formula: 'MgO', tags: '', bulkModulusGpa: Number.POSITIVE_INFINITY })).bulkModulusGpa).toMatch(/must be a number/);
+    // the bound itself: 1e-3 K⁻¹ passes, just above it does not
+    expect(materialInputSchema.safeParse({ name: 'x', formula: 'MgO', tags: '', thermalExpansionPerK: '1e-3' }).success).toBe(true);
+    expect(materialInputSchema.safeParse({ name: 'x', formula: 'MgO', tags: '', thermalExpansionPerK: '1.01e-3' }).success).toBe(false);
+  });
+
   it('parses tags from a list or comma-separated text', () => {
     expect(parseTags(['Oxide', ' halide '])).toEqual(['oxide', 'halide']);
     expect(parseTags('')).toEqual([]);

@@ -12,7 +12,7 @@ type Row<F extends (...a: never[]) => Promise<unknown>> = NonNullable<Awaited<Re
 
 const pick = (row: Record<string, unknown>, keys: readonly string[]) => Object.fromEntries(keys.map((k) => [k, row[k] ?? null]));
 
-export const MATERIAL_FIELDS = ['name', 'displayName', 'formula', 'spaceGroup', 'atomsInCell', 'externalId', 'tags'] as const;
+export const MATERIAL_FIELDS = ['name', 'displayName', 'formula', 'spaceGroup', 'atomsInCell', 'externalId', 'tags', 'thermalExpansionPerK', 'bulkModulusGpa', 'molarVolumeCm3'] as const;
 export const METHOD_FIELDS = ['label', 'functional', 'dispersion', 'pseudopotential', 'cutoffEv', 'kGrid', 'qGrid', 'smearing', 'approach', 'nonAnalyticCorrection', 'notes'] as const;
 export const SOURCE_FIELDS = [
   'kind', 'citeKey', 'doi', 'title', 'authors', 'editors', 'year', 'venue', 'volume', 'issue', 'pages', 'articleNumber',

@@ -1,6 +1,7 @@
 'use client';
 import { useMemo, useState } from 'react';
 import { crystalSystem, parseFormula } from '@/lib/science';
+import { CP_CORRECTION_NOTE } from '@/lib/catalog/material-schema';
 import { TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormMessage } from '@/components/ui/form-message';
@@ -16,6 +17,9 @@ export interface MaterialFormValues {
   atomsInCell: string;
   externalId: string;
   tags: string;
+  thermalExpansionPerK: string;
+  bulkModulusGpa: string;
+  molarVolumeCm3: string;
 }
 
 /** What the formula and space group give, shown while typing (the server re-derives it on save). */
@@ -72,6 +76,27 @@ export function MaterialForm({ workspaceId, slug, initial }: { workspaceId: stri
       <TextField label="Atoms in the primitive cell" name="atomsInCell" inputMode="numeric" defaultValue={initial.atomsInCell} errors={errors.atomsInCell} hint="3N modes at Γ." />
       <TextField label="External structure id" name="externalId" defaultValue={initial.externalId} errors={errors.externalId} hint="Free text, e.g. a database id." />
       <TextField label="Material classes (tags)" name="tags" defaultValue={initial.tags} errors={errors.tags} hint="Comma-separated, e.g. semiconductor, nitride." />
+      <fieldset className="grid gap-4 sm:col-span-2 sm:grid-cols-3">
+        <legend className="text-sm font-semibold">Thermal properties (optional)</legend>
+        <p className="text-xs text-ink-muted sm:col-span-3">{CP_CORRECTION_NOTE} Give them near 298 K.</p>
+        <TextField
+          label="Thermal expansion α_V (K⁻¹)"
+          name="thermalExpansionPerK"
+          inputMode="decimal"
+          defaultValue={initial.thermalExpansionPerK}
+          errors={errors.thermalExpansionPerK}
+          hint="Volumetric: 3 × the linear coefficient of a cubic crystal, e.g. 3.12e-5."
+        />
+        <TextField label="Bulk modulus B_T (GPa)" name="bulkModulusGpa" inputMode="decimal" defaultValue={initial.bulkModulusGpa} errors={errors.bulkModulusGpa} hint="Isothermal, e.g. 160." />
+        <TextField
+          label="Molar volume V_m (cm³/mol)"
+          name="molarVolumeCm3"
+          inputMode="decimal"
+          defaultValue={initial.molarVolumeCm3}
+          errors={errors.molarVolumeCm3}
+          hint="Per mole of formula units: molar mass ÷ density, e.g. 11.25."
+        />
+      </fieldset>
       <div className="flex items-center gap-3 sm:col-span-2">
         <Button type="submit" disabled={pending} aria-disabled={pending}>
           {pending ? 'Saving…' : editing ? 'Save material' : 'Create material'}

@@ -16,7 +16,7 @@ export default async function NewMaterialPage({ params }: { params: Promise<{ wo
       <MaterialForm
         workspaceId={ctx.workspace.id}
         slug={ctx.workspace.slug}
-        initial={{ name: '', displayName: '', formula: '', spaceGroup: '', atomsInCell: '', externalId: '', tags: '' }}
+        initial={{ name: '', displayName: '', formula: '', spaceGroup: '', atomsInCell: '', externalId: '', tags: '', thermalExpansionPerK: '', bulkModulusGpa: '', molarVolumeCm3: '' }}
       />
     </div>
   );

@@ -27,6 +27,9 @@ export default async function EditMaterialPage({ params }: { params: Promise<{ w
           atomsInCell: m.atomsInCell?.toString() ?? '',
           externalId: m.externalId ?? '',
           tags: m.tags.join(', '),
+          thermalExpansionPerK: m.thermalExpansionPerK?.toString() ?? '',
+          bulkModulusGpa: m.bulkModulusGpa?.toString() ?? '',
+          molarVolumeCm3: m.molarVolumeCm3?.toString() ?? '',
         }}
       />
     </EditRecordFrame>
