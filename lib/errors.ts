@@ -19,7 +19,7 @@ const STATUS: Record<AppErrorCode, number> = {
 
 /** Facts some kinds carry: a refused import's row errors (see lib/import/errors), a rate limit's wait. */
 interface ErrorFacts {
-  errors?: Array<{ row: number; column: string | null; reason: string; value?: string }>;
+  errors?: Array<{ row: number; column: string | null; reason: string; value?: string; methodLine?: number }>;
   errorCount?: number;
   retryAfterSeconds?: number;
 }

@@ -1,7 +1,7 @@
 import type { RowError } from '@/lib/import/errors';
 import { count } from '@/lib/format';
 
-/** Every row error with row, column and reason (the header is row 1). */
+/** Every row error with row, column and reason (the header is row 1); an error of the method table names its line. */
 export function RowErrorTable({ errors, errorCount }: { errors: RowError[]; errorCount: number }) {
   return (
     <div className="space-y-2">
@@ -21,7 +21,7 @@ export function RowErrorTable({ errors, errorCount }: { errors: RowError[]; erro
           <tbody className="divide-y divide-rule">
             {errors.map((e, i) => (
               <tr key={i}>
-                <td className="num px-2 py-1 align-top">{e.row === 0 ? 'file' : e.row}</td>
+                <td className="num px-2 py-1 align-top">{e.methodLine !== undefined ? `method line ${e.methodLine}` : e.row === 0 ? 'file' : e.row}</td>
                 <td className="px-2 py-1 align-top font-mono text-xs">{e.column ?? '—'}</td>
                 <td className="px-2 py-1">{e.reason}</td>
               </tr>

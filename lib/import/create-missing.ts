@@ -6,12 +6,15 @@
  * new record creates it; every later row naming it must carry the same catalogue values
  * in the columns it fills, else that row is an error naming the conflicting column and
  * the first row. Rows naming stored records are not compared with them.
+ * A method the wizard's method table defines (method-table.ts) is created from its line
+ * instead, and the method_ cells of the rows naming it are not read.
  * Used by the server's validation and by the wizard's preview alike.
  */
 import type { RowError } from './errors';
 import { validateCatalogRow, type MaterialRecord, type MethodRecord } from './catalog-rows';
 import type { CellReader } from './column-def';
 import { excerpt } from './errors';
+import { METHOD_CELLS, type TableMethod } from './method-table';
 
 /** The handles a calculation import resolves (validate-row's ImportReferences, of which this is a part). */
 interface ImportReferences {
@@ -29,18 +32,6 @@ const MATERIAL_CELLS: Record<string, string> = {
   external_id: 'material_external_id',
   tags: 'material_tags',
 };
-const METHOD_CELLS: Record<string, string> = {
-  functional: 'method_functional',
-  dispersion: 'method_dispersion',
-  pseudopotential: 'method_pseudopotential',
-  cutoff_eV: 'method_cutoff_eV',
-  k_grid: 'method_k_grid',
-  q_grid: 'method_q_grid',
-  smearing: 'method_smearing',
-  approach: 'method_approach',
-  lo_to_correction: 'method_lo_to',
-};
-
 interface Pending<R> {
   id: string;
   row: number;
@@ -48,9 +39,18 @@ interface Pending<R> {
   given: ReadonlySet<string>;
 }
 
+/**
+ * Methods defined by the wizard's method table: the checked lines by label (the server; null for
+ * a line with errors, which refuse the import on their own, so its rows add none), or 'deferred'
+ * (the browser's preview, which checks the table apart so that editing a line does not read the
+ * file again): there any label the workspace lacks is accepted.
+ */
+export type MethodTableSource = ReadonlyMap<string, TableMethod | null> | 'deferred';
+
 export class MissingCatalog {
   private readonly materials = new Map<string, Pending<MaterialRecord>>();
   private readonly methods = new Map<string, Pending<MethodRecord>>();
+  private readonly deferredMethods = new Map<string, string>();
   private newMaterials: Array<MaterialRecord & { id: string }> = [];
   private newMethods: Array<MethodRecord & { id: string }> = [];
 
@@ -60,6 +60,7 @@ export class MissingCatalog {
     /** Labels of retracted methods: reserved for good, so they cannot be created again. */
     private readonly reservedMethodLabels: ReadonlySet<string> = new Set(),
     private readonly newId: () => string = () => crypto.randomUUID(),
+    private readonly methodTable?: MethodTableSource,
   ) {}
 
   handlesMaterial(name: string): boolean {
@@ -75,7 +76,13 @@ export class MissingCatalog {
   }
 
   get createdMethodCount(): number {
-    return this.methods.size;
+    return this.methods.size + this.deferredMethods.size;
+  }
+
+  /** Table lines no row named (nothing to create them for). */
+  unusedTableLines(): TableMethod[] {
+    if (this.methodTable === undefined || this.methodTable === 'deferred') return [];
+    return [...this.methodTable.values()].filter((m): m is TableMethod => m !== null && !this.methods.has(m.record.label));
   }
 
   /** The records first seen since the last call, to insert before the rows that refer to them. */
@@ -116,6 +123,8 @@ export class MissingCatalog {
       fail('method', `"${excerpt(label)}" is a retracted method of this workspace: restore it first (its label stays reserved).`, label);
       return null;
     }
+    const fromTable = this.tableMethod(row, label);
+    if (fromTable !== undefined) return fromTable;
     if ((read('method_functional') ?? '').trim() === '' && !this.methods.has(label)) {
       fail('method', `Unknown method "${excerpt(label)}". To create it in this import, fill method_functional (and the other method_ columns of its recipe).`, label);
       return null;
@@ -132,6 +141,28 @@ export class MissingCatalog {
     const record = checked.record as MethodRecord;
     this.methods.set(label, { id, row, record, given: checked.given });
     this.newMethods.push({ ...record, id });
+    this.references.methods.set(label, id);
+    return id;
+  }
+
+  /** The id of a method the table defines (created at its first row), else undefined. */
+  private tableMethod(row: number, label: string): string | undefined {
+    const table = this.methodTable;
+    if (table === undefined) return undefined;
+    const line = table === 'deferred' ? null : table.get(label);
+    if (line === undefined) return undefined;
+    if (line === null) {
+      const id = this.deferredMethods.get(label) ?? this.newId();
+      this.deferredMethods.set(label, id);
+      // so that the preview's mode-set warnings name the method by its label
+      this.references.methods.set(label, id);
+      return id;
+    }
+    const known = this.methods.get(label);
+    if (known) return known.id;
+    const id = this.newId();
+    this.methods.set(label, { id, row, record: line.record, given: new Set() });
+    this.newMethods.push({ ...line.record, id });
     this.references.methods.set(label, id);
     return id;
   }

@@ -11,6 +11,8 @@ export interface RowError {
   reason: string;
   /** The offending cell text, when there is one. */
   value?: string;
+  /** Set when the problem is in a line of the wizard's method table (1-based), not in the file; `row` is then 0. */
+  methodLine?: number;
 }
 
 /** An import refused as a whole: an unprocessable AppError that carries the row errors and their total count. */

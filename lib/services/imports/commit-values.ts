@@ -13,6 +13,8 @@ import 'server-only';
 import { duplicateFile, findImportBySha, loadImportReferences, openValueImport, type ImportActor, type ImportFileFacts, type ImportOutcome } from '@/db/queries/imports';
 import { insertMaterialRows, insertMethodRows, listRetractedMethodLabels } from '@/db/queries/catalog-import';
 import { MissingCatalog } from '@/lib/import/create-missing';
+import { isImportRefusal } from '@/lib/import/errors';
+import { checkMethodTable, tableRefusal, unusedLineErrors, type MethodTableLine } from '@/lib/import/method-table';
 import { RowValidator, type PendingRow } from '@/lib/import/row-validator';
 import { StagedChunks } from './staged-rows';
 import type { ImportTable } from '@/lib/import/table';
@@ -26,14 +28,22 @@ export async function commitImport(args: {
   units?: DefaultUnits;
   /** Calculations: create missing materials and methods from the rows' catalogue columns (permissions checked by the caller). */
   createMissing?: boolean;
+  /** With createMissing: the wizard's method table, whose lines define the new methods they name (lib/import/method-table.ts). */
+  methodTable?: MethodTableLine[];
 }): Promise<ImportOutcome> {
   const { workspaceId, actor, file, table } = args;
   const first = await findImportBySha(workspaceId, file.sha256);
   if (first) throw duplicateFile(first);
   const references = await loadImportReferences(workspaceId);
   const columnName = (key: string) => table.columnName(key);
-  const missing = args.createMissing && file.kind === 'calculations' ? new MissingCatalog(references, columnName, await listRetractedMethodLabels(workspaceId)) : undefined;
+  const createMissing = args.createMissing && file.kind === 'calculations';
+  const reserved = createMissing ? await listRetractedMethodLabels(workspaceId) : new Set<string>();
+  // Checked against the stored labels before any row adds its own.
+  const lines = createMissing && args.methodTable ? checkMethodTable(args.methodTable, { stored: (label) => references.methods.has(label), reserved }) : null;
+  const missing = createMissing ? new MissingCatalog(references, columnName, reserved, undefined, lines?.methods) : undefined;
   const validator = new RowValidator({ kind: file.kind, references, units: args.units, columnName, missing }, references);
+  // The table's errors refuse the import with the rows' own (tableRefusal); meanwhile no chunk is staged.
+  const lineErrors = lines ? [...lines.errors] : [];
   // Every row is validated before the write lock is taken: a file with errors never takes it, and a good one holds
   // it only while its rows are stored. The valid chunks wait on disk (staged-rows.ts), with the catalogue records
   // a createMissing import must write before them.
@@ -41,13 +51,22 @@ export async function commitImport(args: {
   const staged = await StagedChunks.open<Staged>();
   try {
     const stage = async (rows: PendingRow[]) => {
+      if (lineErrors.length) return;
       const fresh = missing ? missing.takeNew() : null;
       if (rows.length || (fresh && (fresh.materials.length || fresh.methods.length))) await staged.push({ rows, fresh });
     };
     for await (const rows of table.batches()) {
       for (const chunk of validator.accept(rows)) await stage(chunk);
     }
-    await stage(validator.finish(table.format));
+    if (lines && missing) lineErrors.push(...unusedLineErrors(missing.unusedTableLines()));
+    let last: PendingRow[];
+    try {
+      last = validator.finish(table.format);
+    } catch (e) {
+      throw lineErrors.length && isImportRefusal(e) ? tableRefusal(lineErrors, e) : e;
+    }
+    if (lineErrors.length) throw tableRefusal(lineErrors, null);
+    await stage(last);
 
     const writer = await openValueImport(workspaceId, actor, file);
     let insertedCount = 0;

@@ -17,6 +17,7 @@ import type { ColumnMapping } from '@/lib/import/header';
 import { spool } from '@/lib/import/spool';
 import { openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
+import type { MethodTableLine } from '@/lib/import/method-table';
 
 export interface CsvImportInput {
   workspaceId: string;
@@ -32,6 +33,8 @@ export interface CsvImportInput {
   prefer?: Prefer;
   /** Calculations: create materials and methods the rows name but the workspace lacks, from the rows' catalogue columns. */
   createMissing?: boolean;
+  /** With createMissing (the wizard): the method table's lines, which define the new methods they name. */
+  methodTable?: MethodTableLine[];
   /** The file's bytes as they arrive (already limited to IMPORT_MAX_BYTES by the caller). */
   body: AsyncIterable<Uint8Array>;
   mapping?: ColumnMapping;
@@ -83,6 +86,7 @@ export async function importCsvFile(input: CsvImportInput & { kind: ImportableKi
       mapping: input.mapping,
       units: input.units,
       createMissing: input.createMissing,
+      methodTable: input.methodTable,
     });
     return recomputeAfter(input.workspaceId, input.actor, outcome);
   } finally {

@@ -5,6 +5,7 @@ import type { ImportableKind } from '@/lib/import/columns';
 import type { ColumnMapping } from '@/lib/import/header';
 import { openCsvTable } from '@/lib/import/table';
 import type { DefaultUnits } from '@/lib/import/units';
+import type { MethodTableLine } from '@/lib/import/method-table';
 import { commitImport } from './commit-values';
 
 /** Bytes read from a spooled file at a time. */
@@ -23,6 +24,7 @@ export interface SpooledValueImport {
   mapping?: ColumnMapping;
   units?: DefaultUnits;
   createMissing?: boolean;
+  methodTable?: MethodTableLine[];
 }
 
 /** Reads, validates and commits a spooled values file (commitImport): the heavy part of an import, run off the request event loop (lib/services/off-loop.ts). */
@@ -31,6 +33,7 @@ export async function commitSpooledValues(job: SpooledValueImport): Promise<Impo
   const table = await openCsvTable(stream, job.kind, job.mapping);
   return commitImport({
     createMissing: job.createMissing,
+    methodTable: job.methodTable,
     workspaceId: job.workspaceId,
     actor: job.actor,
     file: { kind: job.kind, fileName: job.fileName, sha256: job.sha256, byteCount: job.byteCount, via: job.via },

@@ -15,6 +15,8 @@ import { limitedBody } from '@/lib/stream-limit';
  * The wizard's commit: the original file bytes as the body (not a server action,
  * whose body limit is 1 MB), with the corrected mapping and units in the query.
  * The server decodes, parses and validates everything again; it is the authority.
+ * A calculations import with createMissing may carry the method table (`methodTable`, JSON lines
+ * checked by zod here and line by line in commitImport), which defines the new methods it lists.
  */
 export const POST = workspaceRoute('imports:create', z.object({ workspaceId: z.string().min(1) }), async (request, ctx) => {
   try {
@@ -39,6 +41,7 @@ async function postImport(request: Request, ctx: MemberContext): Promise<Respons
       onChange: options.data.onChange,
       prefer: options.data.prefer,
       createMissing: options.data.createMissing,
+      methodTable: options.data.methodTable,
       fileName: options.data.fileName ?? null,
       body: limitedBody(request, envValue('IMPORT_MAX_BYTES')),
       mapping: options.data.mapping,
