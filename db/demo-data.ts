@@ -71,7 +71,12 @@ const materialRow = z.object({
   space_group: optionalNumber,
   atoms_in_cell: optionalNumber,
   tags: z.string(),
+  // the Cp − Cv fields, filled for a few crystals only (data/demo/README.md, "Heat capacities")
+  thermal_expansion_per_K: optionalNumber,
+  bulk_modulus_GPa: optionalNumber,
+  molar_volume_cm3: optionalNumber,
 });
+const THERMAL_COLUMNS = ['thermal_expansion_per_K', 'bulk_modulus_GPa', 'molar_volume_cm3'];
 const modeRow = z.object({
   material: z.string(),
   irrep: z.string(),
@@ -105,6 +110,15 @@ const dielectricRow = z.object({
   modelled_on: z.string(),
   source: z.string(),
 });
+const bornRow = z.object({
+  material: z.string(),
+  cation: z.string(),
+  anion: z.string(),
+  z_e: z.string().min(1),
+  modelled_on: z.string(),
+  source: z.string(),
+});
+const BORN_NOTE = 'Invented Born effective charge (demo): a magnitude recalled from memory moved by a few per cent; not a measurement.';
 const DIELECTRIC_NOTE = 'Invented ε∞ (demo): a textbook value moved by 5–6 %; not a measurement.';
 const HEAT_CAPACITY_NOTE = 'Cp° recalled from memory of the NIST-JANAF tables, not checked against them (demo data).';
 const methodsFile = z.object({
@@ -128,6 +142,8 @@ const methodsFile = z.object({
       heatCapacityNoise: z.number(),
       epsInfBias: z.number(),
       epsInfNoise: z.number(),
+      bornBias: z.number().default(0),
+      bornNoise: z.number().default(0.02),
       overrides: z
         .array(z.object({ material: z.string(), irrep: z.string(), branch: z.string().optional(), nth: z.number().int(), valueCm1: z.number().optional(), scale: z.number().optional() }))
         .default([]),
@@ -163,6 +179,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
   const entropies = readCsv('entropies.csv', entropyRow);
   const heatCapacities = readCsv('heat-capacities.csv', heatCapacityRow);
   const dielectric = readCsv('dielectric.csv', dielectricRow);
+  const born = readCsv('born-charges.csv', bornRow);
   const methodsSpec = methodsFile.parse(JSON.parse(readFileSync(fileURLToPath(new URL('methods.json', dataDir)), 'utf8')));
 
   const sourceIds = new Map<string, string>();
@@ -192,13 +209,18 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
         spaceGroup: m.space_group,
         crystalSystem: m.space_group ? crystalSystem(m.space_group) : null,
         atomsInCell: m.atoms_in_cell,
+        thermalExpansionPerK: m.thermal_expansion_per_K,
+        bulkModulusGpa: m.bulk_modulus_GPa,
+        molarVolumeCm3: m.molar_volume_cm3,
         createdBy: userId,
       })
       .returning({ id: material.id });
     materialIds.set(m.name, { id: row.id, atomsPerFormulaUnit: parsed.atomsPerFormulaUnit });
     const tags = m.tags.split(';').map((t) => t.trim()).filter(Boolean);
     if (tags.length) await tx.insert(materialTag).values(tags.map((tag) => ({ materialId: row.id, workspaceId, tag })));
-    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after: m, reason: 'demo seed' }, tx);
+    // the audit entry lists the thermal cells only where a row fills them
+    const after = Object.fromEntries(Object.entries(m).filter(([k, v]) => v !== null || !THERMAL_COLUMNS.includes(k)));
+    await writeAudit({ workspaceId, actor, action: 'create', entityType: 'material', entityId: row.id, after, reason: 'demo seed' }, tx);
   }
 
   const need = <K, V>(map: Map<K, V>, key: K, what: string): V => {
@@ -235,7 +257,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     });
   }
   // One measured value per material (entropies, heat capacities, ε∞); `hash` is what follows material and quantity in its row hash.
-  type PerMaterial = { material: string; source: string; quantity: 'entropy' | 'heat-capacity' | 'eps-inf'; text: string; unit: string; uncertainty?: string; temperatureK?: number | null; notes?: string };
+  type PerMaterial = { material: string; source: string; quantity: 'entropy' | 'heat-capacity' | 'eps-inf' | 'born-charge'; text: string; unit: string; uncertainty?: string; temperatureK?: number | null; notes?: string; site?: string };
   const insertPerMaterial = (v: PerMaterial, hash: Array<string | number | null>) =>
     tx.insert(measurement).values({
       workspaceId,
@@ -251,6 +273,7 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
       technique: v.temperatureK === undefined ? null : 'calorimetry',
       sampleForm: v.temperatureK === undefined ? 'single-crystal' : 'powder',
       notes: v.notes ?? null,
+      site: v.site ?? null,
       rowHash: demoRowHash(['measurement', v.material, v.quantity, ...hash]),
       contributorId: userId,
     });
@@ -266,11 +289,22 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     await insertPerMaterial({ material: d.material, source: d.source, quantity: 'eps-inf', text: d.eps_inf, unit: '1', notes: DIELECTRIC_NOTE }, [d.eps_inf, '1', d.source]);
   }
 
+  // One measured charge per element of a binary, the anion's the cation's negated (neutral per formula unit).
+  for (const b of born) {
+    for (const [site, text] of [
+      [b.cation, b.z_e],
+      [b.anion, `-${b.z_e}`],
+    ]) {
+      await insertPerMaterial({ material: b.material, source: b.source, quantity: 'born-charge', text, unit: 'e', notes: BORN_NOTE, site }, [text, 'e', site, b.source]);
+    }
+  }
+
   // Methods and their synthetic calculations.
   const random = createRandom(methodsSpec.seed);
   // heat capacities draw from their own generator, so adding them moved no other synthetic value
   const heatRandom = createRandom(methodsSpec.seed + 1);
   const dielectricRandom = createRandom(methodsSpec.seed + 2);
+  const bornRandom = createRandom(methodsSpec.seed + 3);
   const synthetic = need(sourceIds, 'demo-synthetic-2026', 'source');
   for (const spec of methodsSpec.methods) {
     const [row] = await tx
@@ -355,6 +389,30 @@ export async function loadDemoScenario(tx: Executor, workspaceId: string, userId
     for (const e of entropies) perMaterial(e.material, 'entropy', e.entropy_J_per_mol_K, spec.entropyBias, spec.entropyNoise, () => gaussian(random), 'J/mol/K', e.temperature_K);
     for (const c of heatCapacities) perMaterial(c.material, 'heat-capacity', c.heat_capacity_J_per_mol_K, spec.heatCapacityBias, spec.heatCapacityNoise, () => gaussian(heatRandom), 'J/mol/K', c.temperature_K);
     for (const d of dielectric) perMaterial(d.material, 'eps-inf', d.eps_inf, spec.epsInfBias, spec.epsInfNoise, () => gaussian(dielectricRandom), '1');
+    // Born charges: an isotropic tensor per element (cubic binaries), the anion's the cation's negated, so every set is neutral.
+    for (const b of born) {
+      const z = Number((Number(b.z_e) * (1 + spec.bornBias + spec.bornNoise * gaussian(bornRandom))).toFixed(2));
+      for (const [site, charge] of [
+        [b.cation, z],
+        [b.anion, -z],
+      ] as const) {
+        const text = charge.toFixed(2);
+        values.push({
+          workspaceId,
+          materialId: need(materialIds, b.material, 'material').id,
+          methodId: row.id,
+          sourceId: synthetic,
+          quantity: 'born-charge',
+          value: charge,
+          valueText: text,
+          unit: 'e',
+          site,
+          components: [charge, 0, 0, 0, charge, 0, 0, 0, charge],
+          rowHash: demoRowHash(['calculation', b.material, spec.label, 'born-charge', site, text]),
+          contributorId: userId,
+        });
+      }
+    }
     for (let i = 0; i < values.length; i += 200) await tx.insert(calculation).values(values.slice(i, i + 200));
   }
   if (options.convergenceFamily) await loadConvergenceFamily(tx, workspaceId, userId, { materials, modes, materialIds, synthetic, seed: methodsSpec.seed });

@@ -121,6 +121,16 @@ const DEMO_BENCHMARKS: DemoBenchmark[] = [
     purpose: 'Computed ε∞ against measured ε∞; both sides are invented for the demo (the measured values are textbook values moved by 5–6 %). Invented demo benchmark.',
     scope: { quantity: 'eps-inf' },
   },
+  {
+    name: 'Born effective charges (demo)',
+    purpose: 'Computed Born charges (mean of the diagonal) against charges inferred from experiment, per site of nine cubic binaries; both sides are invented for the demo. Invented demo benchmark.',
+    scope: { quantity: 'born-charge' },
+  },
+  {
+    name: 'LO–TO splittings (demo)',
+    purpose: 'ω_LO − ω_TO of the polar modes, measured against computed, from the demo frequencies (invented). Invented demo benchmark.',
+    scope: { quantity: 'lo-to-splitting' },
+  },
 ];
 
 const CONVERGENCE_BENCHMARK: DemoBenchmark = {

@@ -86,6 +86,16 @@ export function significant(value: Maybe, figures: number): string {
   return fixed(rounded, Math.min(100, Math.max(0, n - 1 - magnitude)));
 }
 
+/** `value` as "3.12 × 10⁻⁵" to `figures` significant figures; plainly when its exponent is between −2 and 3. */
+export function scientific(value: Maybe, figures = 3): string {
+  if (missing(value)) return NO_VALUE;
+  if (value === 0) return '0';
+  const [mantissa, exponent] = value.toExponential(Math.max(0, figures - 1)).split('e');
+  const power = Number(exponent);
+  if (power >= -2 && power <= 3) return significant(value, figures);
+  return `${typeset(String(Number(mantissa)))} × 10${superscript(power)}`;
+}
+
 /**
  * Significant figures of a number as written. Leading zeros never count; trailing
  * zeros of a whole number ("1300") are taken as significant, since the writer
@@ -190,7 +200,7 @@ export const CANONICAL_UNIT_SYMBOL: Record<string, string> = {
 };
 
 /** Canonical unit codes of the quantities the importer converts. */
-const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K', 'eps-inf': '1', 'eps-static': '1' };
+const CANONICAL_UNIT_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K', 'eps-inf': '1', 'eps-static': '1', 'born-charge': 'e' };
 
 /**
  * A stored value as people should read it: the text as typed when it was typed in

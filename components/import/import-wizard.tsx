@@ -7,7 +7,8 @@ import type { ColumnMapping } from '@/lib/import/header';
 import type { PreviewRow, ReferenceLists } from '@/lib/import/preview';
 import type { RowError } from '@/lib/import/errors';
 import type { DefaultUnits } from '@/lib/import/units';
-import { wizardQuery } from '@/lib/import/wizard-options';
+import { MAX_WIZARD_QUERY_CHARS, wizardQuery } from '@/lib/import/wizard-options';
+import { checkMethodTable, compactLine, MAX_METHOD_LINES, prefillLine, type MethodTableLine } from '@/lib/import/method-table';
 import { count } from '@/lib/format';
 import { ENTROPY_UNITS, FREQUENCY_UNITS } from '@/lib/science/units';
 import { Button, buttonClass } from '@/components/ui/button';
@@ -19,6 +20,7 @@ import { FileDrop } from './file-drop';
 import { ProgressBar } from './progress-bar';
 import { RowErrorTable } from './row-error-table';
 import { DosImport } from './dos-import';
+import { MethodTableEditor, NewMethods } from './method-table';
 import { usePreviewWorker } from './use-preview-worker';
 import { UploadRefused, uploadImport, type UploadState } from './upload-import';
 
@@ -30,6 +32,8 @@ type Outcome = {
   duplicates: Array<{ row: number; reason: string }>;
   warnings?: ModeSetWarning[];
   warningCount?: number;
+  createdMaterials?: number;
+  createdMethods?: number;
 };
 type CatalogOutcome = {
   importId: string | null;
@@ -69,6 +73,8 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   const [references, setReferences] = useState<ReferenceLists | null>(null);
   const [referenceError, setReferenceError] = useState<string | null>(null);
   const [commit, setCommit] = useState<CommitState>({ status: 'idle' });
+  /** The method table's lines as edited, by label (a line not edited yet shows the file's prefill). */
+  const [tableEdits, setTableEdits] = useState<Record<string, MethodTableLine>>({});
 
   useEffect(() => {
     let live = true;
@@ -87,7 +93,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   const referenceFile = kind === 'sources' && file !== null && REFERENCE_FILE.test(file.name);
   const missingFlag = kind === 'calculations' && createMissing;
   const request = useMemo(
-    () => (kind !== 'dos' && !referenceFile && file && references ? { file, kind: tableKind, mapping, units, references, createMissing: missingFlag } : null),
+    () => (kind !== 'dos' && !referenceFile && file && references ? { file, kind: tableKind, mapping, units, references, createMissing: missingFlag, methodTable: missingFlag } : null),
     [file, kind, tableKind, mapping, units, references, referenceFile, missingFlag],
   );
   const preview = usePreviewWorker(request);
@@ -99,7 +105,30 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
   const result = done ?? ((preview.status === 'working' || preview.status === 'refused') && mapping && lastDone?.file === file ? lastDone.result : null);
   const columns = columnsOf(tableKind);
   const noUnitColumn = result !== null && !catalog && !result.mapping.unit;
-  const canCommit = done !== null && done.errorCount === 0 && commit.status !== 'sending' && commit.status !== 'done';
+  // The method table: one line per method label of the file the workspace lacks, when createMissing is chosen.
+  const missingMethods = useMemo(() => (kind === 'calculations' && result ? result.missingMethods : []), [kind, result]);
+  const tableLines = useMemo(() => (missingFlag ? missingMethods.map((m) => tableEdits[m.label] ?? prefillLine(m)) : []), [missingFlag, missingMethods, tableEdits]);
+  const tableCheck = useMemo(() => {
+    const stored = new Set(references?.methods.map((m) => m.label) ?? []);
+    return checkMethodTable(tableLines, { stored: (label) => stored.has(label) });
+  }, [tableLines, references]);
+  const tooManyMethods = missingFlag && (result?.missingMethodCount ?? 0) > MAX_METHOD_LINES;
+  const query =
+    file && (result || referenceFile)
+      ? wizardQuery({
+          kind: tableKind,
+          fileName: file.name,
+          mapping: result && !referenceFile ? result.mapping : undefined,
+          units: noUnitColumn ? units : undefined,
+          onChange: catalog && updateChanged ? 'update' : undefined,
+          prefer: kind === 'materials' && prefer ? prefer : undefined,
+          createMissing: missingFlag || undefined,
+          methodTable: tableLines.length ? tableLines.map(compactLine) : undefined,
+        })
+      : null;
+  const queryTooLong = query !== null && query.length > MAX_WIZARD_QUERY_CHARS;
+  const tableReady = tableCheck.errors.length === 0 && !tooManyMethods && !queryTooLong;
+  const canCommit = done !== null && done.errorCount === 0 && tableReady && commit.status !== 'sending' && commit.status !== 'done';
 
   const reset = (next: Partial<{ kind: WizardKind; file: File | null }>) => {
     if (next.kind) {
@@ -108,21 +137,13 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
     }
     if (next.file !== undefined) setFile(next.file);
     setMapping(undefined);
+    setTableEdits({});
     setCommit({ status: 'idle' });
   };
 
   async function send() {
-    if (!file || (!result && !referenceFile)) return;
+    if (!file || !query) return;
     setCommit({ status: 'sending' });
-    const query = wizardQuery({
-      kind: tableKind,
-      fileName: file.name,
-      mapping: result && !referenceFile ? result.mapping : undefined,
-      units: noUnitColumn ? units : undefined,
-      onChange: catalog && updateChanged ? 'update' : undefined,
-      prefer: kind === 'materials' && prefer ? prefer : undefined,
-      createMissing: missingFlag || undefined,
-    });
     setCommit(await uploadImport<Outcome>(workspaceId, query, file));
   }
 
@@ -169,7 +190,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
         {kind === 'calculations' && (
           <label className="mt-3 flex items-center gap-1.5 text-sm">
             <input type="checkbox" checked={createMissing} onChange={(e) => setCreateMissing(e.target.checked)} disabled={commit.status === 'sending'} />
-            Create missing materials and methods from the rows’ material_… and method_… columns
+            Create missing materials and methods (materials from the rows’ material_… columns; methods from a table of recipes, filled from the method_… columns)
           </label>
         )}
       </Panel>
@@ -269,6 +290,23 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                   <span className="num text-good">{count(result.validCount)} valid</span> ·{' '}
                   <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} errors</span>
                 </p>
+                <NewMethods
+                  count={result.missingMethodCount}
+                  labels={missingMethods.map((m) => m.label)}
+                  createMissing={missingFlag}
+                  onCreateMissing={() => setCreateMissing(true)}
+                  tooMany={tooManyMethods}
+                  queryTooLong={queryTooLong}
+                  disabled={commit.status === 'sending' || commit.status === 'done'}
+                >
+                  <MethodTableEditor
+                    lines={tableLines}
+                    onChange={(lines) => setTableEdits((edits) => ({ ...edits, ...Object.fromEntries(lines.map((l) => [l.label, l])) }))}
+                    errors={tableCheck.errors}
+                    missing={missingMethods}
+                    disabled={commit.status === 'sending' || commit.status === 'done'}
+                  />
+                </NewMethods>
                 {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}
                 <ModeSetWarnings warnings={result.warnings ?? []} count={result.warningCount ?? 0} />
                 <PreviewTable headers={result.headers} rows={result.preview} errors={result.errors} />
@@ -277,6 +315,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                     {commit.status === 'sending' ? 'Importing…' : `Import ${count(result.rowCount)} rows`}
                   </Button>
                   {result.errorCount > 0 && <span className="text-xs text-ink-muted">Fix the errors in the file (or the mapping) first.</span>}
+                  {result.errorCount === 0 && tableCheck.errors.length > 0 && <span className="text-xs text-ink-muted">Fix the method table first.</span>}
                 </div>
                 <CommitResult state={commit} slug={slug} />
               </div>
@@ -339,13 +378,13 @@ function PreviewTable({ headers, rows, errors }: { headers: string[]; rows: Prev
   );
 }
 
-/** Warnings about the mode sets of a calculation import: imported all the same. */
+/** Warnings about the sets of an import (mode sets, Born-charge neutrality): imported all the same. */
 function ModeSetWarnings({ warnings, count }: { warnings: ModeSetWarning[]; count: number }) {
   if (warnings.length === 0) return null;
   return (
-    <div role="note" aria-label="Mode-set warnings" data-testid="mode-set-warnings" className="rounded-md border border-rule bg-panel px-3 py-2 text-xs">
+    <div role="note" aria-label="Import warnings" data-testid="mode-set-warnings" className="rounded-md border border-rule bg-panel px-3 py-2 text-xs">
       <p className="mb-1 font-medium">
-        {count.toLocaleString('en')} mode set{count === 1 ? '' : 's'} to check (imported all the same)
+        {count.toLocaleString('en')} set{count === 1 ? '' : 's'} to check (imported all the same)
       </p>
       <ul className="list-disc space-y-1 pl-4">
         {warnings.map((w) => (
@@ -394,8 +433,16 @@ function CommitOutcome({ state, slug }: { state: CommitState; slug: string }) {
       <>
         <Notice tone="good">
           Imported {count(o.insertedCount)} of {count(o.rowCount)} rows
-          {o.duplicateCount > 0 && <> ({count(o.duplicateCount)} identical to existing rows, skipped)</>}.{' '}
+          {o.duplicateCount > 0 && <> ({count(o.duplicateCount)} identical to existing rows, skipped)</>}.
+          {(o.createdMaterials ?? 0) > 0 && <> Created {count(o.createdMaterials!)} {o.createdMaterials === 1 ? 'material' : 'materials'}.</>}
+          {(o.createdMethods ?? 0) > 0 && <> Created {count(o.createdMethods!)} {o.createdMethods === 1 ? 'method' : 'methods'}.</>}{' '}
           <Link href={`/w/${slug}/imports/${o.importId}`}>Open the import</Link>
+          {(o.createdMethods ?? 0) > 0 && (
+            <>
+              {' '}
+              · <Link href={`/w/${slug}/methods`}>Open the methods</Link>
+            </>
+          )}
         </Notice>
         <ModeSetWarnings warnings={o.warnings ?? []} count={o.warningCount ?? 0} />
       </>

@@ -30,7 +30,7 @@ import {
 } from '@/lib/benchmark/schemas';
 import type { BenchmarkInput, ScopeDecision } from '@/lib/benchmark/types';
 import { runsOf } from '@/lib/benchmark/row-set';
-import { isThermal } from '@/lib/benchmark/quantities';
+import { isThermal, rowQuantityOf } from '@/lib/benchmark/quantities';
 import { writeAudit, type Actor } from './audit';
 
 /** A benchmark with its scope, rules and thresholds parsed (defaults filled). */
@@ -228,7 +228,7 @@ function measurementScope(workspaceId: string, scope: BenchmarkScope): SQL {
   const conditions: Array<SQL | undefined> = [
     eq(measurement.workspaceId, workspaceId),
     isNull(measurement.retractedAt),
-    eq(measurement.quantity, scope.quantity),
+    eq(measurement.quantity, rowQuantityOf(scope.quantity)),
     inArray(
       measurement.materialId,
       db.select({ id: material.id }).from(material).where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
@@ -267,7 +267,7 @@ function materialsInScope(workspaceId: string, scope: BenchmarkScope) {
   const conditions: Array<SQL | undefined> = [
     eq(calculation.workspaceId, workspaceId),
     isNull(calculation.retractedAt),
-    eq(calculation.quantity, scope.quantity),
+    eq(calculation.quantity, rowQuantityOf(scope.quantity)),
     eq(calculation.methodId, scope.referenceMethodId),
     inArray(
       calculation.materialId,
@@ -307,6 +307,8 @@ const MEASUREMENT_INPUT = {
   branch: measurement.branch,
   technique: measurement.technique,
   seq: measurement.seq,
+  site: measurement.site,
+  components: measurement.components,
 };
 
 /** The columns of a calculation, in the order calculationFromRow reads them from raw rows. */
@@ -325,6 +327,8 @@ const CALCULATION_INPUT = {
   degeneracy: calculation.degeneracy,
   seq: calculation.seq,
   modeIndex: calculation.modeIndex,
+  site: calculation.site,
+  components: calculation.components,
 };
 
 type CalculationRow = BenchmarkInput['calculations'][number];
@@ -345,6 +349,8 @@ function calculationFromRow(r: unknown[]): CalculationRow {
     degeneracy: r[11] as number | null,
     seq: r[12] as number,
     modeIndex: r[13] as number | null,
+    site: r[14] as string | null,
+    components: r[15] === null ? null : (JSON.parse(r[15] as string) as number[]),
   };
 }
 
@@ -364,7 +370,7 @@ function scopeConditions(workspaceId: string, bm: BenchmarkRecord, options: { ma
   const calculationWhere: Array<SQL | undefined> = [
     eq(calculation.workspaceId, workspaceId),
     isNull(calculation.retractedAt),
-    eq(calculation.quantity, scope.quantity),
+    eq(calculation.quantity, rowQuantityOf(scope.quantity)),
     reference !== undefined ? or(inArray(calculation.methodId, methodIds), eq(calculation.methodId, reference)) : inArray(calculation.methodId, methodIds),
     inArray(calculation.materialId, scopedMaterials),
   ];
@@ -391,7 +397,16 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
   const reference = scope.referenceMethodId;
   const [materials, tags, methods, pins, decisions, settings, dielectricRows, [merges], referenceMethod] = await Promise.all([
     db
-      .select({ id: material.id, name: material.name, formula: material.formula, atomsInCell: material.atomsInCell, spaceGroup: material.spaceGroup })
+      .select({
+        id: material.id,
+        name: material.name,
+        formula: material.formula,
+        atomsInCell: material.atomsInCell,
+        spaceGroup: material.spaceGroup,
+        ...(rules.heatCapacityCorrection === 'cp-minus-cv'
+          ? { thermalExpansionPerK: material.thermalExpansionPerK, bulkModulusGpa: material.bulkModulusGpa, molarVolumeCm3: material.molarVolumeCm3 }
+          : {}),
+      })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), inArray(material.id, scopedMaterials))),
     db
@@ -426,9 +441,18 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
       ),
     db.select().from(workspaceSettings).where(eq(workspaceSettings.workspaceId, workspaceId)).limit(1),
     // Dielectric constants and Born charges, where stored, for the LST and neutrality checks.
-    scope.quantity === 'frequency'
+    rowQuantityOf(scope.quantity) === 'frequency'
       ? db
-          .select({ materialId: calculation.materialId, methodId: calculation.methodId, quantity: calculation.quantity, value: calculation.value, modeIndex: calculation.modeIndex, id: calculation.id })
+          .select({
+            materialId: calculation.materialId,
+            methodId: calculation.methodId,
+            quantity: calculation.quantity,
+            value: calculation.value,
+            modeIndex: calculation.modeIndex,
+            site: calculation.site,
+            components: calculation.components,
+            id: calculation.id,
+          })
           .from(calculation)
           .where(
             and(
@@ -457,7 +481,7 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
   const tagsByMaterial = new Map<string, string[]>();
   for (const t of tags) (tagsByMaterial.get(t.materialId) ?? tagsByMaterial.set(t.materialId, []).get(t.materialId)!).push(t.tag);
   const s = settings[0];
-  const dielectric = new Map<string, NonNullable<BenchmarkInput['dielectric']>[number] & { born: Array<{ index: number; id: string; z: number }> }>();
+  const dielectric = new Map<string, NonNullable<BenchmarkInput['dielectric']>[number] & { born: Array<{ index: number; site: string; id: string; z: number | number[] }> }>();
   // Several ε rows of one material × method: the first by id (as the material page reads them).
   for (const r of [...dielectricRows].sort((a, b) => (a.id < b.id ? -1 : 1))) {
     const key = `${r.materialId}|${r.methodId}`;
@@ -465,7 +489,7 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
     if (!d) dielectric.set(key, (d = { materialId: r.materialId, methodId: r.methodId, epsInf: null, eps0: null, bornCharges: [], born: [] }));
     if (r.quantity === 'eps-inf') d.epsInf ??= r.value;
     else if (r.quantity === 'eps-static') d.eps0 ??= r.value;
-    else d.born.push({ index: r.modeIndex ?? 0, id: r.id, z: r.value });
+    else d.born.push({ index: r.modeIndex ?? 0, site: r.site ?? '', id: r.id, z: r.components ?? r.value });
   }
   return {
     quantity: scope.quantity,
@@ -489,7 +513,7 @@ export async function loadBenchmarkContext(workspaceId: string, bm: BenchmarkRec
     ...(merges.n > 0 ? { sourceMerges: Number(merges.n) } : {}),
     dielectric: [...dielectric.values()].map(({ born, ...d }) => ({
       ...d,
-      bornCharges: born.sort((a, b) => a.index - b.index || (a.id < b.id ? -1 : 1)).map((b) => b.z),
+      bornCharges: born.sort((a, b) => a.index - b.index || a.site.localeCompare(b.site, 'en', { numeric: true }) || (a.id < b.id ? -1 : 1)).map((b) => b.z),
     })),
   };
 }

@@ -5,7 +5,7 @@ import { createDb, db, getClient, type Executor } from '@/db/client';
 import { apiToken, calculation, importBatch, material, measurement, method, source, user, type ImportBatch } from '@/db/schema';
 import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
-import { atomsPerReducedFormulaUnit } from '@/lib/science/formula';
+import { atomsPerReducedFormulaUnit, parseFormula } from '@/lib/science/formula';
 import type { ImportableKind } from '@/lib/import/columns';
 import type { ImportWarning } from '@/lib/import/mode-set-warnings';
 import type { DuplicateRow, PendingRow } from '@/lib/import/row-validator';
@@ -33,7 +33,7 @@ export interface ImportOutcome {
   duplicateCount: number;
   /** Rows skipped because an identical row exists (first MAX_REPORTED_ERRORS). */
   duplicates: DuplicateRow[];
-  /** Calculation imports: incomplete mode sets and sets without acoustic marks; imported all the same. */
+  /** Incomplete mode sets, sets without acoustic marks and Born-charge sets not quite neutral or not checkable; imported all the same. */
   warnings?: ImportWarning[];
   warningCount?: number;
   /** Calculation imports with createMissing: the materials and methods they created. */
@@ -54,11 +54,26 @@ function storedAtomsPerFormulaUnit(m: { reducedFormula: string; atomsPerFormulaU
   }
 }
 
+/** Element counts of the reduced formula, or undefined when it does not parse (the site check is then skipped). */
+function reducedElements(reducedFormula: string): Record<string, number> | undefined {
+  try {
+    return parseFormula(reducedFormula).counts;
+  } catch {
+    return undefined;
+  }
+}
+
 /** The handles an import (CSV, JSON rows or DOS) may use, for validation on the server and in the browser. */
 export async function loadImportReferences(workspaceId: string): Promise<ImportReferences & DosReferences> {
   const [materials, sources, methods] = await Promise.all([
     db
-      .select({ id: material.id, name: material.name, reducedFormula: material.reducedFormula, atomsPerFormulaUnit: material.atomsPerFormulaUnit, atomsInCell: material.atomsInCell })
+      .select({
+        id: material.id,
+        name: material.name,
+        reducedFormula: material.reducedFormula,
+        atomsPerFormulaUnit: material.atomsPerFormulaUnit,
+        atomsInCell: material.atomsInCell,
+      })
       .from(material)
       .where(and(eq(material.workspaceId, workspaceId), isNull(material.retractedAt))),
     db.select({ id: source.id, key: source.citeKey }).from(source).where(and(eq(source.workspaceId, workspaceId), isNull(source.retractedAt))),
@@ -66,7 +81,9 @@ export async function loadImportReferences(workspaceId: string): Promise<ImportR
   ]);
   return {
     // Values per formula unit are per the reduced formula's unit (GaN, not Ga2N2).
-    materials: new Map(materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: storedAtomsPerFormulaUnit(m), atomsInCell: m.atomsInCell }])),
+    materials: new Map(
+      materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: storedAtomsPerFormulaUnit(m), atomsInCell: m.atomsInCell, elements: reducedElements(m.reducedFormula) }]),
+    ),
     sources: new Map(sources.map((s) => [s.key, s.id])),
     methods: new Map(methods.map((m) => [m.label, m.id])),
   };
@@ -127,6 +144,8 @@ const COMMON_COLUMNS = [
   'branch',
   'degeneracy',
   'activity',
+  'site',
+  'components',
   'notes',
   'row_hash',
   'contributor_id',
@@ -175,6 +194,8 @@ function rowArgs(kind: ImportableKind, workspaceId: string, importId: string, co
     v.branch,
     v.degeneracy,
     v.activity,
+    v.site,
+    v.components ? JSON.stringify(v.components) : null,
     v.notes,
     p.hash,
     contributorId,

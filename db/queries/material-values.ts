@@ -22,6 +22,8 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
         irrep: measurement.irrep,
         branch: measurement.branch,
         activity: measurement.activity,
+        site: measurement.site,
+        components: measurement.components,
         technique: measurement.technique,
         sampleForm: measurement.sampleForm,
         sourceId: source.id,
@@ -45,6 +47,8 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
         degeneracy: calculation.degeneracy,
         activity: calculation.activity,
         modeIndex: calculation.modeIndex,
+        site: calculation.site,
+        components: calculation.components,
         methodId: method.id,
         methodLabel: method.label,
         sourceId: source.id,
@@ -58,17 +62,18 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
       .orderBy(asc(method.label), asc(calculation.quantity), asc(calculation.modeIndex), asc(calculation.value)),
   ]);
 
-  const methods = new Map<string, { methodId: string; methodLabel: string; modes: typeof computed; entropies: typeof computed; heatCapacities: typeof computed; dielectric: typeof computed }>();
+  const methods = new Map<string, { methodId: string; methodLabel: string; modes: typeof computed; entropies: typeof computed; heatCapacities: typeof computed; dielectric: typeof computed; born: typeof computed }>();
   for (const row of computed) {
     let group = methods.get(row.methodId);
     if (!group) {
-      group = { methodId: row.methodId, methodLabel: row.methodLabel, modes: [], entropies: [], heatCapacities: [], dielectric: [] };
+      group = { methodId: row.methodId, methodLabel: row.methodLabel, modes: [], entropies: [], heatCapacities: [], dielectric: [], born: [] };
       methods.set(row.methodId, group);
     }
     if (row.quantity === 'frequency') group.modes.push(row);
     else if (row.quantity === 'entropy') group.entropies.push(row);
     else if (row.quantity === 'heat-capacity') group.heatCapacities.push(row);
     else if (row.quantity === 'eps-inf' || row.quantity === 'eps-static') group.dielectric.push(row);
+    else if (row.quantity === 'born-charge') group.born.push(row);
   }
 
   return {
@@ -76,6 +81,7 @@ export async function getMaterialValues(workspaceId: string, materialId: string)
     entropies: measured.filter((m) => m.quantity === 'entropy'),
     heatCapacities: measured.filter((m) => m.quantity === 'heat-capacity'),
     dielectric: measured.filter((m) => m.quantity === 'eps-inf' || m.quantity === 'eps-static'),
+    born: measured.filter((m) => m.quantity === 'born-charge'),
     methods: [...methods.values()],
   };
 }

@@ -9,10 +9,12 @@ import { ACTIVITY_VALUES, BRANCH_VALUES, SAMPLE_FORM_VALUES, TECHNIQUE_VALUES } 
 // Schemas of the public REST API: they parse requests and, through z.toJSONSchema, make the OpenAPI document.
 
 const cell = z.union([z.string(), z.number(), z.null()]);
+/** The tensor column may also be sent as numbers: [9], [[3], [3], [3]] or the 3 principal values. */
+const tensorCell = z.union([z.string(), z.null(), z.array(z.number()).max(9), z.array(z.array(z.number()).length(3)).length(3)]);
 
 function rowSchema(columns: readonly ColumnDef[], title: string) {
-  const shape: Record<string, z.ZodOptional<typeof cell>> = {};
-  for (const c of columns) shape[c.key] = cell.optional().describe(`${c.required ? '(required) ' : ''}${c.description}`);
+  const shape: Record<string, z.ZodOptional<typeof cell | typeof tensorCell>> = {};
+  for (const c of columns) shape[c.key] = (c.key === 'tensor' ? tensorCell : cell).optional().describe(`${c.required ? '(required) ' : ''}${c.description}`);
   return z
     .strictObject(shape)
     .meta({ title, description: 'Cells as in the CSV template. Send numbers as strings to keep their text exactly ("1.50").' });
@@ -153,6 +155,9 @@ export const materialSchema = z
     atomsInCell: z.int().nullable(),
     externalId: nullableText,
     tags: z.array(z.string()),
+    thermalExpansionPerK: z.number().nullable().meta({ description: 'Volumetric thermal expansion α_V, K⁻¹. With the next two, for the Cp − Cv correction of heat-capacity benchmarks only.' }),
+    bulkModulusGpa: z.number().nullable().meta({ description: 'Isothermal bulk modulus B_T, GPa.' }),
+    molarVolumeCm3: z.number().nullable().meta({ description: 'Molar volume V_m, cm³ per mole of formula units.' }),
     createdAt: timestamp,
     retractedAt: timestamp.nullable(),
   })

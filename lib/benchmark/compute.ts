@@ -77,6 +77,7 @@ import type {
   ReferenceMethodRecord,
   ReferenceRecord,
   StoredStatistics,
+  TensorComparisonRecord,
 } from './types';
 
 export { MIN_PAIRS_FOR_STATISTICS };
@@ -96,9 +97,21 @@ export const ENTROPY_CAUTION =
 export const HEAT_CAPACITY_CAUTION =
   'Calorimetry measures Cp, at constant pressure; a harmonic calculation gives Cv, at constant volume. Cp − Cv = α² B V_m T (α volumetric thermal expansion, B bulk modulus, V_m molar volume) is positive and grows with T: about 1.4 % of Cp for a stiff oxide such as MgO at 298 K and about 5.5 % for NaCl. This benchmark compares the values as stored, without that correction, so expect the harmonic Cv below the measured Cp; metals also carry an electronic term the harmonic value leaves out.';
 
+/** The heat-capacity caution when the Cp − Cv rule is on (material-stage.ts). */
+export const HEAT_CAPACITY_CORRECTED_CAUTION =
+  'Calorimetry measures Cp; a harmonic calculation gives Cv. Here each computed Cv is raised by Cp − Cv = α² B V_m T from the material’s own volumetric thermal expansion α, bulk modulus B and molar volume V_m, taken as given at every temperature (they change with T, so the correction is best near the temperature they were measured at); materials without all three are left out, not compared uncorrected. Metals also carry an electronic term the harmonic value leaves out.';
+
 /** What a dielectric benchmark compares, shown beside it. */
 export const DIELECTRIC_CAUTION =
   'A measured ε∞ comes from the refractive index below the absorption edge, a measured ε₀ from capacitance or a fit to infrared reflectance, near room temperature; a computed one is for the relaxed structure at rest, and semilocal functionals tend to overestimate ε∞ because their band gap is too small. For a non-cubic crystal both sides hold the orientational average (ε_xx + ε_yy + ε_zz)/3: principal values are not compared one by one.';
+
+/** What a Born-charge benchmark compares, shown beside it. */
+export const BORN_CHARGE_CAUTION =
+  'A measured Born charge is inferred, usually from the LO–TO splitting or infrared oscillator strengths with a model of the crystal, and gives one number per element; a computed one is a tensor per atom. Both sides are compared by the mean of the diagonal (a third of the trace, the same in any axes), oriented by the sign of the measured charge, so anions and cations are compared as magnitudes and a positive error means a charge larger in magnitude; the full tensors are compared by the Frobenius norm of their difference only where both sides hold one, in the same Cartesian axes.';
+
+/** What an LO–TO splitting benchmark compares, shown beside it. */
+export const LO_TO_CAUTION =
+  'Each splitting is ω_LO − ω_TO of one polar mode, from a TO and an LO of the same species measured in one source and from the same species of the method; the k-th TO is coupled with the k-th LO of its species. A method without the non-analytic (LO–TO) correction has no LO modes at Γ and so no splitting. The error of a splitting is the difference of two errors: a method can get both frequencies wrong by the same amount and the splitting right.';
 
 export function unitOf(quantity: BenchmarkInput['quantity']): string {
   return QUANTITY_UNIT[quantity];
@@ -109,6 +122,8 @@ export function cautionOf(quantity: BenchmarkInput['quantity']): string | null {
   if (quantity === 'entropy') return ENTROPY_CAUTION;
   if (quantity === 'heat-capacity') return HEAT_CAPACITY_CAUTION;
   if (isDielectric(quantity)) return DIELECTRIC_CAUTION;
+  if (quantity === 'born-charge') return BORN_CHARGE_CAUTION;
+  if (quantity === 'lo-to-splitting') return LO_TO_CAUTION;
   return null;
 }
 
@@ -179,7 +194,8 @@ function applyDecisions(pairs: PairRecord[], decisions: BenchmarkInput['decision
   }
   for (const p of pairs) {
     const id = p.measurementIds[0];
-    const d = byMeasurement.get(id) ?? byPair.get(`${p.methodId}|${id}`);
+    // An LO–TO splitting names two measurements: excluding either excludes it.
+    const d = p.measurementIds.map((m) => byMeasurement.get(m)).find((x) => x !== undefined) ?? byPair.get(`${p.methodId}|${id}`);
     if (d) {
       p.excluded = d.reason;
       p.excludedBy = d.id;
@@ -298,7 +314,13 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
   let calculationCount = 0;
   const qualityList: QualityRecord[] = [];
   const notApplied: NonNullable<BenchmarkSnapshot['qualityNotApplied']> = [];
+  const tensorDistances = new Map<string, number>();
+  const cpCorrection = { corrected: 0, lacking: [] as string[] };
+  const materialNames = new Map(context.materials.map((m) => [m.id, m.name]));
   for (const s of ordered) {
+    if (s.cpCorrection === 'corrected') cpCorrection.corrected++;
+    else if (s.cpCorrection === 'lacking') cpCorrection.lacking.push(materialNames.get(s.materialId) ?? s.materialId);
+    for (const [key, d] of Object.entries(s.tensorDistances ?? {})) tensorDistances.set(key, d);
     for (const p of s.pairs) pairs.push({ ...p });
     for (const [methodId, n] of Object.entries(s.unpaired)) unpaired.set(methodId, (unpaired.get(methodId) ?? 0) + n);
     measuredInScope += s.measuredInScope;
@@ -343,7 +365,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
       rank: null,
     };
   });
-  const ranking = rankOnCommonGround(results, included, pairs, measuredInScope, rules.ranking);
+  const ranking = rankOnCommonGround(results, included, pairs, measuredInScope, rules.ranking, quantity === 'lo-to-splitting');
   results.sort((a, b) => (a.rank ?? Infinity) - (b.rank ?? Infinity) || b.n - a.n || a.label.localeCompare(b.label));
 
   const tagsOf = new Map(context.materials.map((m) => [m.id, m.tags.length ? m.tags : [UNTAGGED]]));
@@ -356,6 +378,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
   for (const p of includedAll) {
     for (const tag of tagsOf.get(p.materialId) ?? [UNTAGGED]) push(classGroups, `${tag}|${p.methodId}`, p);
     push(techniqueGroups, `${p.technique ?? 'not stated'}|${p.methodId}`, p);
+    if (quantity === 'lo-to-splitting') push(speciesGroups, `${p.species ?? UNLABELLED}|${p.methodId}`, p);
     if (quantity === 'frequency') {
       push(bandGroups, `${bandOf(p.measured, rules.bandEdgesCm1)}|${p.methodId}`, p);
       push(speciesGroups, `${p.species ?? UNLABELLED}|${p.methodId}`, p);
@@ -378,7 +401,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
     ranking,
     entropyBasis,
     // Against a reference method both sides are computed alike: the cautions about experiment do not apply.
-    caution: context.referenceMethod ? null : cautionOf(quantity),
+    caution: context.referenceMethod ? null : rules.heatCapacityCorrection === 'cp-minus-cv' && quantity === 'heat-capacity' ? HEAT_CAPACITY_CORRECTED_CAUTION : cautionOf(quantity),
     outlierScale,
     qualityNotApplied: notApplied,
     comparisons: comparisons(methodIds, included),
@@ -395,7 +418,23 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
     },
     empty: pairs.length === 0 ? emptyReason(context, measurementCount, calculationCount) : null,
     ...(context.referenceMethod ? { reference: referenceSummary(context, results, included, matchedBy) } : {}),
+    ...(tensorDistances.size ? { tensors: tensorSummary(results, included, tensorDistances) } : {}),
+    ...(cpCorrection.corrected || cpCorrection.lacking.length ? { cpCorrection: { corrected: cpCorrection.corrected, lacking: cpCorrection.lacking.sort() } } : {}),
   };
+}
+
+/** Born charges: per method, ‖ΔZ‖_F over its included pairs where both sides hold a full tensor (site-and-splitting-pairs.ts). */
+function tensorSummary(results: readonly MethodResult[], included: Map<string, PairRecord[]>, distances: Map<string, number>): TensorComparisonRecord[] {
+  return results.map((m) => {
+    const list = (included.get(m.methodId) ?? []).map((p) => distances.get(p.key)).filter((d): d is number => d !== undefined);
+    return {
+      methodId: m.methodId,
+      label: m.label,
+      n: list.length,
+      meanFrobenius: list.length ? list.reduce((a, b) => a + b, 0) / list.length : null,
+      maxFrobenius: list.length ? Math.max(...list) : null,
+    };
+  });
 }
 
 /** Against a reference method: per candidate, |Δ| and |Δ|/ref over its included pairs and the share of materials within the tolerance (module header). */
@@ -446,6 +485,9 @@ function emptyReason(input: FinishContext, measurements: number, calculations: n
   }
   if (measurements === 0) return `No ${what} match the scope.`;
   if (calculations === 0) return `The ${measurements} ${what} in scope have no calculation of the selected methods on the same materials.`;
+  if (input.quantity === 'born-charge') return 'No measured Born charge found a computed one of the same site (or element) of the selected methods.';
+  if (input.quantity === 'lo-to-splitting')
+    return 'No LO–TO splitting could be formed and paired: a splitting needs a measured TO and LO of the same species from one source, and the method the same species with as many TO as LO lines (a method without the non-analytic correction has no LO).';
   if (isDielectric(input.quantity)) return `No material in scope has both a measured and a computed ${QUANTITY_PLURAL[input.quantity].replace(/ values$/, '')} of the selected methods.`;
   return input.quantity === 'frequency'
     ? `No measured peak found a computed mode within the pairing window (±${Math.round(100 * input.rules.maxRelativeDeviation)} %) with a compatible activity and label.`

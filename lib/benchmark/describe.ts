@@ -20,9 +20,11 @@ export function describeScope(scope: BenchmarkScope, names: { methods: string[];
   if (scope.quantity === 'frequency') parts.push('Γ-point frequencies');
   else if (scope.quantity === 'entropy') parts.push(`vibrational entropies ${at}`);
   else if (scope.quantity === 'heat-capacity') parts.push(`heat capacities (measured Cp, computed Cv) ${at}`);
+  else if (scope.quantity === 'born-charge') parts.push('Born effective charges per site');
+  else if (scope.quantity === 'lo-to-splitting') parts.push('LO–TO splittings of polar modes');
   else parts.push(scope.quantity === 'eps-inf' ? 'electronic dielectric constants ε∞' : 'static dielectric constants ε₀');
   if (scope.techniques.length) parts.push(`measured by ${scope.techniques.map(techniqueName).join(' or ')}`);
-  if (scope.quantity === 'frequency') {
+  if (scope.quantity === 'frequency' || scope.quantity === 'lo-to-splitting') {
     const { temperatureMinK: lo, temperatureMaxK: hi } = scope;
     if (lo !== null && hi !== null) parts.push(`between ${lo} and ${hi} K`);
     else if (lo !== null) parts.push(`at ${lo} K or above`);

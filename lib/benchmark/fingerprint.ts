@@ -81,7 +81,11 @@ function addParts(h: LineHasher, parts: FingerprintParts, scope: unknown, rowLin
   for (const m of byId(parts.materials)) h.add(['T', m.id, m.name, m.formula, m.atomsInCell, m.spaceGroup, [...m.tags].sort().join(',')]);
   for (const m of byId(parts.methods)) h.add(['K', m.id, m.label, m.kGrid?.join('x'), m.qGrid?.join('x'), m.nonAnalyticCorrection === undefined ? undefined : String(m.nonAnalyticCorrection)]);
   for (const d of [...(parts.dielectric ?? [])].sort((a, b) => (`${a.materialId}|${a.methodId}` < `${b.materialId}|${b.methodId}` ? -1 : 1))) {
-    h.add(['E', d.materialId, d.methodId, d.epsInf, d.eps0, d.bornCharges.join(',')]);
+    h.add(['E', d.materialId, d.methodId, d.epsInf, d.eps0, d.bornCharges.map((z) => (typeof z === 'number' ? z : z.join(' '))).join(',')]);
+  }
+  // Only under the Cp − Cv rule, so every other benchmark keeps its fingerprint.
+  if (parts.rules.heatCapacityCorrection === 'cp-minus-cv') {
+    for (const m of byId(parts.materials)) h.add(['C', m.id, m.thermalExpansionPerK, m.bulkModulusGpa, m.molarVolumeCm3]);
   }
   for (const d of byId(parts.decisions)) h.add(['D', d.id, d.kind, d.measurementId, d.methodId, d.reason]);
   for (const p of byId(parts.pins)) h.add(['P', p.id, p.methodId, p.measurementId, p.calculationId]);

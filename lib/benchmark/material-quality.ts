@@ -1,4 +1,5 @@
-import { qualityReport, ScienceInputError, type QualityFlag, type QualityThresholds } from '@/lib/science';
+import { DEFAULT_QUALITY_THRESHOLDS, qualityReport, ScienceInputError, siteNeutrality, type QualityFlag, type QualityThresholds } from '@/lib/science';
+import { FAR_FROM_NEUTRAL_E } from '@/lib/import/born-neutrality';
 import { qualityModes } from '@/lib/benchmark/pair-rows';
 
 type Grid = [number, number, number];
@@ -70,4 +71,49 @@ export function materialQualityFlags(input: { materialId: string; atomsInCell: n
     out.push({ methodId: m.methodId, methodLabel: m.methodLabel, modeCount: m.modes.length, flags, skipped });
   }
   return out;
+}
+
+/** One measured source's or one method's Born charges of a material, with their neutrality in words. */
+export interface BornChargeSet {
+  series: string;
+  rows: Array<{ id: string; site: string | null; value: number; components: number[] | null }>;
+  neutrality: { status: 'neutral' | 'residue' | 'far' | 'unchecked'; text: string };
+}
+
+/**
+ * The material page's Born charges per series, checked for neutrality by the rule the import
+ * applies (lib/science/tensors.ts siteNeutrality; born-neutrality.ts for the thresholds).
+ */
+export function bornChargeSets(input: {
+  atomsInCell: number | null;
+  elements?: Readonly<Record<string, number>>;
+  limitE?: number;
+  series: Array<{ series: string; rows: BornChargeSet['rows'] }>;
+}): BornChargeSet[] {
+  const limit = input.limitE ?? DEFAULT_QUALITY_THRESHOLDS.bornNeutrality;
+  return input.series
+    .filter((s) => s.rows.length > 0)
+    .map((s) => {
+      const rows = [...s.rows].sort((a, b) => (a.site ?? '').localeCompare(b.site ?? '', 'en', { numeric: true }));
+      const { residue, basis } = siteNeutrality(
+        rows.filter((r) => r.site !== null).map((r) => ({ site: r.site!, charge: r.components ?? r.value })),
+        input.atomsInCell,
+        input.elements,
+      );
+      let neutrality: BornChargeSet['neutrality'];
+      if (!residue) neutrality = { status: 'unchecked', text: `Neutrality not checked: ${rows.length} site${rows.length === 1 ? '' : 's'}${input.atomsInCell ? ` of the ${input.atomsInCell} atoms of the cell` : ', and no atoms in the cell recorded'}.` };
+      else {
+        const size = Math.abs(residue.value);
+        const zero = Math.abs(residue.value) < 5e-4;
+        const where = basis === 'formula-unit' ? 'in the diagonal mean per formula unit' : zero ? 'in every component over the cell' : `in ${residue.component} over the cell`;
+        const sum = `Σ Z* = ${Number(residue.value.toFixed(3))} e ${where}`;
+        neutrality =
+          size >= FAR_FROM_NEUTRAL_E
+            ? { status: 'far', text: `${sum}: far from neutral — a site is missing or a sign is wrong.` }
+            : size > limit
+              ? { status: 'residue', text: `${sum}, beyond ±${limit} e: the acoustic sum rule was probably not imposed.` }
+              : { status: 'neutral', text: `${sum}, within ±${limit} e: neutral.` };
+      }
+      return { series: s.series, rows, neutrality };
+    });
 }

@@ -13,14 +13,21 @@
  * Entropy basis 'atom': values are divided by the atoms of the reduced formula unit
  * here, before pairing (compute.ts header).
  *
+ * Cp − Cv (rules.heatCapacityCorrection 'cp-minus-cv', heat capacities against experiment): each
+ * computed Cv of a material with α_V, B_T and V_m recorded becomes Cv + α_V² B_T V_m T at the row's
+ * own temperature (thermodynamics.ts cpMinusCv; the three properties are taken as given at every
+ * temperature), before the per-atom division; a material lacking any of the three is not paired,
+ * so corrected and uncorrected values never mix in one statistic.
+ *
  * Against a reference method (input.referenceMethod) the reference's calculations of the
  * material take the place of its measurements (reference-pairs.ts); the quality checks run on
  * the candidates only.
  */
-import { atomsPerReducedFormulaUnit, qualityReport, ScienceInputError } from '@/lib/science';
+import { atomsPerReducedFormulaUnit, cpMinusCv, qualityReport, ScienceInputError } from '@/lib/science';
 import { groupBy, pairEntropies, pairFrequencies, pairPerMaterial, qualityModes } from './pair-rows';
 import { asReference, pairReferenceFrequencies } from './reference-pairs';
-import { isDielectric, isThermal } from './quantities';
+import { pairSites, pairSplittings, type TensorDistances } from './site-and-splitting-pairs';
+import { isDielectric, isThermal, rowQuantityOf } from './quantities';
 import type { BenchmarkInput, BenchmarkSnapshot, PairRecord, QualityRecord, ScopeCalculation, ScopeMeasurement } from './types';
 
 type NotApplied = NonNullable<BenchmarkSnapshot['qualityNotApplied']>;
@@ -40,6 +47,10 @@ export interface MaterialStage {
   measuredInScope: number;
   /** Against a reference method: how many candidate methods were matched by mode index, and how many by the pairing rules. */
   matchedBy?: { index: number; pairing: number };
+  /** Born charges: ‖ΔZ‖_F by pair key where both sides hold a full tensor (site-and-splitting-pairs.ts). */
+  tensorDistances?: TensorDistances;
+  /** Heat capacities under the Cp − Cv rule: whether the material's computed values were corrected or it was left out. */
+  cpCorrection?: 'corrected' | 'lacking';
 }
 
 export function qualityOrder(a: { methodId: string; materialId: string; code: string }, b: { methodId: string; materialId: string; code: string }): number {
@@ -48,6 +59,18 @@ export function qualityOrder(a: { methodId: string; materialId: string; code: st
 
 function byId<T extends { id: string }>(a: T, b: T): number {
   return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
+}
+
+/** Computed Cv → Cp of one material (module header), or null when it lacks α, B or V_m. */
+function cvToCp(material: BenchmarkInput['materials'][number] | undefined): ((rows: ScopeCalculation[]) => ScopeCalculation[]) | null {
+  const alpha = material?.thermalExpansionPerK;
+  const bulk = material?.bulkModulusGpa;
+  const volume = material?.molarVolumeCm3;
+  if (alpha == null || bulk == null || volume == null) return null;
+  return (rows) =>
+    rows.map((r) =>
+      r.temperatureK === null ? r : { ...r, value: r.value + cpMinusCv({ volumetricExpansionPerK: alpha, bulkModulusGPa: bulk, molarVolumeCm3PerMol: volume, temperatureK: r.temperatureK }) },
+    );
 }
 
 /** Entropy values per mole of atoms instead of formula units (module header). */
@@ -66,6 +89,12 @@ function reducedAtoms(formula: string | undefined): number | undefined {
   }
 }
 
+/** A Born charge as the quality check reads it: 3 × 3 rows. */
+function asTensorRows(z: number | number[]): number[][] {
+  const t = typeof z === 'number' ? [z, 0, 0, 0, z, 0, 0, 0, z] : z;
+  return [t.slice(0, 3), t.slice(3, 6), t.slice(6, 9)];
+}
+
 function qualityOf(
   input: BenchmarkInput,
   materialId: string,
@@ -76,7 +105,7 @@ function qualityOf(
 ): { records: QualityRecord[]; notApplied: NotApplied } {
   const records: QualityRecord[] = [];
   const notApplied: NotApplied = [];
-  if (input.quantity !== 'frequency' || !material) return { records, notApplied };
+  if (rowQuantityOf(input.quantity) !== 'frequency' || !material) return { records, notApplied };
   for (const [methodId, calcs] of calcsByMethod) {
     const method = methods.get(methodId);
     if (!method) continue;
@@ -89,8 +118,8 @@ function qualityOf(
         kGrid: method.kGrid ?? undefined,
         qGrid: method.qGrid ?? undefined,
         dielectric: stored && stored.epsInf !== null && stored.eps0 !== null ? { epsInf: stored.epsInf, eps0: stored.eps0 } : undefined,
-        // One isotropic charge per atom: the diagonal tensor Z·I.
-        bornCharges: stored && stored.bornCharges.length ? stored.bornCharges.map((z) => [[z, 0, 0], [0, z, 0], [0, 0, z]]) : undefined,
+        // One charge per atom of the cell (a scalar stands for Z·I); other site lists are checked on import and on the material page.
+        bornCharges: stored && stored.bornCharges.length && stored.bornCharges.length === material.atomsInCell ? stored.bornCharges.map(asTensorRows) : undefined,
         thresholds: input.qualityThresholds,
       });
       for (const f of report.flags) records.push({ methodId, materialId, code: f.code, severity: f.severity, message: f.message, ...(f.value !== undefined ? { value: f.value } : {}) });
@@ -126,6 +155,7 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
   const window = { temperatureK: 298.15, toleranceK: 1, ...input.entropyWindow };
   const near = (t: number | null) => t !== null && (window.temperatureK === null || Math.abs(t - window.temperatureK) <= window.toleranceK);
   const atomBasis = isThermal(quantity) && (rules.entropyBasis ?? 'formula-unit') === 'atom';
+  const correctCv = quantity === 'heat-capacity' && input.referenceMethod === undefined && rules.heatCapacityCorrection === 'cp-minus-cv';
 
   const ids = [...new Set([...measurementsOf.keys(), ...calculationsOf.keys()])].sort();
   const referenceId = input.referenceMethod?.id;
@@ -139,7 +169,17 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
     let unpaired: Map<string, number>;
     let measuredInScope = measurements.length;
     let matchedBy: MaterialStage['matchedBy'];
-    if (quantity === 'frequency' && referenceRows) {
+    let tensorDistances: TensorDistances | undefined;
+    let cpCorrection: MaterialStage['cpCorrection'];
+    const calcsByMaterialMethod = () => new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
+    if (quantity === 'born-charge') {
+      ({ pairs, unpaired, tensorDistances } = pairSites(measurements, calcsByMaterialMethod(), methodIds));
+      measuredInScope = measurements.filter((m) => m.site).length;
+    } else if (quantity === 'lo-to-splitting') {
+      let measuredCouples: number;
+      ({ pairs, unpaired, measuredCouples } = pairSplittings(measurements, calcsByMaterialMethod(), methodIds, rules));
+      measuredInScope = measuredCouples;
+    } else if (quantity === 'frequency' && referenceRows) {
       const result = pairReferenceFrequencies(materialId, referenceRows, calcsByMethod, methodIds, rules, context);
       ({ pairs, unpaired, matchedBy } = result);
       measuredInScope = result.referenceModes;
@@ -151,8 +191,11 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
       ({ pairs, unpaired } = pairPerMaterial(measurements, calcsByMaterialMethod, methodIds));
     } else {
       const atoms = atomBasis ? reducedAtoms(materials.get(materialId)?.formula) : undefined;
+      const correct = correctCv ? cvToCp(materials.get(materialId)) : (rows: ScopeCalculation[]) => rows;
+      if (correct === null) cpCorrection = 'lacking';
+      else if (correctCv) cpCorrection = 'corrected';
       measurements = perAtom(measurements, atoms);
-      const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, perAtom(list, atoms)]));
+      const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, correct === null ? [] : perAtom(correct(list), atoms)]));
       measuredInScope = measurements.filter((m) => near(m.temperatureK)).length;
       ({ pairs, unpaired } = pairEntropies(measurements, calcsByMaterialMethod, methodIds, window.temperatureK, window.toleranceK));
     }
@@ -167,6 +210,8 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
       calculations: calculations.length - (referenceRows?.length ?? 0),
       measuredInScope,
       ...(matchedBy ? { matchedBy } : {}),
+      ...(tensorDistances && Object.keys(tensorDistances).length ? { tensorDistances } : {}),
+      ...(cpCorrection ? { cpCorrection } : {}),
     };
   });
 }

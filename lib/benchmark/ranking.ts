@@ -24,13 +24,17 @@ function format(value: number): string {
   return `${Math.round(100 * value)} %`;
 }
 
-/** Coverage of each method: paired measured values (any status) / measured values in scope. */
-export function coverageOf(pairs: readonly PairRecord[], measuredInScope: number): Map<string, { paired: number; coverage: number | null }> {
+/**
+ * Coverage of each method: paired measured values (any status) / measured values in scope. A derived
+ * pair (an LO–TO splitting, from a TO and an LO measurement) is one measured value, not two.
+ */
+export function coverageOf(pairs: readonly PairRecord[], measuredInScope: number, derived = false): Map<string, { paired: number; coverage: number | null }> {
   const paired = new Map<string, Set<string>>();
   for (const p of pairs) {
     let set = paired.get(p.methodId);
     if (!set) paired.set(p.methodId, (set = new Set()));
-    for (const id of p.measurementIds) set.add(id);
+    if (derived) set.add(p.measurementIds.join('+'));
+    else for (const id of p.measurementIds) set.add(id);
   }
   const out = new Map<string, { paired: number; coverage: number | null }>();
   for (const [methodId, set] of paired) out.set(methodId, { paired: set.size, coverage: measuredInScope > 0 ? Math.min(1, set.size / measuredInScope) : null });
@@ -55,8 +59,9 @@ export function rankOnCommonGround(
   allPairs: readonly PairRecord[],
   measuredInScope: number,
   rule: BenchmarkRules['ranking'],
+  derived = false,
 ): RankingRecord {
-  const coverage = coverageOf(allPairs, measuredInScope);
+  const coverage = coverageOf(allPairs, measuredInScope, derived);
   const eligible: MethodResult[] = [];
   for (const r of results) {
     const c = coverage.get(r.methodId) ?? { paired: 0, coverage: measuredInScope > 0 ? 0 : null };

@@ -38,6 +38,8 @@ export function asReference(c: ScopeCalculation): ScopeMeasurement {
     irrep: c.irrep,
     branch: c.branch,
     technique: null,
+    ...(c.site !== undefined ? { site: c.site } : {}),
+    ...(c.components !== undefined ? { components: c.components } : {}),
   };
 }
 

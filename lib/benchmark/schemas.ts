@@ -5,7 +5,7 @@
 import { z } from 'zod';
 
 /** Quantities a benchmark can compare. */
-export const BENCHMARK_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static'] as const;
+export const BENCHMARK_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static', 'born-charge', 'lo-to-splitting'] as const;
 export type BenchmarkQuantity = (typeof BENCHMARK_QUANTITIES)[number];
 /** Compared one value per material at a temperature (quantities.ts, isThermal). */
 export const THERMAL_QUANTITIES: readonly BenchmarkQuantity[] = ['entropy', 'heat-capacity'];
@@ -64,6 +64,7 @@ export const scopeSchema = z
   });
 
 export const OUTLIER_SCALES = ['absolute', 'relative'] as const;
+export const HEAT_CAPACITY_CORRECTIONS = ['none', 'cp-minus-cv'] as const;
 export const ENTROPY_BASES = ['formula-unit', 'atom'] as const;
 export type EntropyBasis = (typeof ENTROPY_BASES)[number];
 
@@ -86,7 +87,8 @@ export const outlierRuleSchema = z.object({
 /** The outlier scale a benchmark uses: the rule's, else relative for frequencies and absolute otherwise. */
 export function outlierScaleOf(rule: { scale?: (typeof OUTLIER_SCALES)[number] }, quantity: BenchmarkQuantity): (typeof OUTLIER_SCALES)[number] {
   // ε spans 2–16 across ordinary crystals: an absolute error of 0.5 means little at Si and much at NaCl
-  return rule.scale ?? (THERMAL_QUANTITIES.includes(quantity) ? 'absolute' : 'relative');
+  // Born charges cross zero between cations and anions, and LO–TO splittings can be a few cm⁻¹: relative errors mislead there
+  return rule.scale ?? (THERMAL_QUANTITIES.includes(quantity) || quantity === 'born-charge' || quantity === 'lo-to-splitting' ? 'absolute' : 'relative');
 }
 
 export const rankingRuleSchema = z.object({
@@ -118,6 +120,12 @@ export const rulesSchema = z.object({
   ranking: rankingRuleSchema.prefault({}),
   /** Entropy and heat-capacity benchmarks: compare per mole of formula units (the reduced formula) or per mole of atoms. */
   entropyBasis: z.enum(ENTROPY_BASES).default('formula-unit'),
+  /**
+   * Heat-capacity benchmarks against experiment: 'cp-minus-cv' adds α_V² B_T V_m T to each computed Cv of a material
+   * whose α, B and V_m are recorded, and leaves the materials without them out. Optional (unset = none), so stored
+   * rules and their fingerprints are unchanged.
+   */
+  heatCapacityCorrection: z.enum(HEAT_CAPACITY_CORRECTIONS).optional(),
   /** Against a reference method: a material is within tolerance when its largest |Δ| is at most this, in the benchmark's unit (unset: DEFAULT_REFERENCE_TOLERANCE). */
   referenceTolerance: z.number().positive().optional(),
   /** Against a reference method: the share of a class's materials that must be within tolerance for a recipe to be recommended (unset: 0.95). Optional, like referenceTolerance, so stored rules and their fingerprints are unchanged. */
@@ -128,9 +136,19 @@ export const rulesSchema = z.object({
  * Default convergence tolerance per quantity, in its unit: 1 cm⁻¹ for a Γ frequency (the resolution
  * of a routine Raman spectrum, so a recipe converged to it is indistinguishable in experiment),
  * 0.1 J mol⁻¹ K⁻¹ for an entropy or heat capacity (the calorimetric uncertainty near 298 K), and
- * 0.05 for a dielectric constant — common practice, no single source, from memory.
+ * 0.05 for a dielectric constant, 0.05 e for a Born charge (the spread between converged
+ * calculations of one crystal) and 1 cm⁻¹ for an LO–TO splitting (a difference of two
+ * frequencies) — common practice, no single source, from memory.
  */
-export const DEFAULT_REFERENCE_TOLERANCE: Record<BenchmarkQuantity, number> = { frequency: 1, entropy: 0.1, 'heat-capacity': 0.1, 'eps-inf': 0.05, 'eps-static': 0.05 };
+export const DEFAULT_REFERENCE_TOLERANCE: Record<BenchmarkQuantity, number> = {
+  frequency: 1,
+  entropy: 0.1,
+  'heat-capacity': 0.1,
+  'eps-inf': 0.05,
+  'eps-static': 0.05,
+  'born-charge': 0.05,
+  'lo-to-splitting': 1,
+};
 
 export const DEFAULT_CONVERGENCE_SHARE = 0.95;
 
@@ -156,10 +174,18 @@ export const alertThresholdsSchema = z.object({
  * 1–2 cm⁻¹ resolution of a routine Raman spectrum) and 0.2 J mol⁻¹ K⁻¹ (about twice the
  * ±0.1 uncertainty of the CODATA key-value entropies; the same for heat capacities, whose
  * calorimetric uncertainty near 298 K is of the same order), and 0.1 for a dielectric constant
- * (about the spread between published ε∞ of one well-studied crystal) — common practice, no
- * single source, from memory.
+ * (about the spread between published ε∞ of one well-studied crystal), 0.05 e for a Born charge and
+ * 0.5 cm⁻¹ for an LO–TO splitting (as for a frequency) — common practice, no single source, from memory.
  */
-export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = { frequency: 0.5, entropy: 0.2, 'heat-capacity': 0.2, 'eps-inf': 0.1, 'eps-static': 0.1 };
+export const DEFAULT_MAE_ABSOLUTE: Record<BenchmarkQuantity, number> = {
+  frequency: 0.5,
+  entropy: 0.2,
+  'heat-capacity': 0.2,
+  'eps-inf': 0.1,
+  'eps-static': 0.1,
+  'born-charge': 0.05,
+  'lo-to-splitting': 0.5,
+};
 
 /** The thresholds detectShift uses for a benchmark of this quantity (maeCm1 is the alias). */
 export function resolveAlertThresholds(thresholds: AlertThresholds, quantity: BenchmarkQuantity): { maeAbsolute: number; maeRelative: number; nRelative: number } {

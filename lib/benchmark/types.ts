@@ -19,6 +19,10 @@ export interface ScopeMeasurement {
   irrep: string | null;
   branch: 'TO' | 'LO' | null;
   technique: string | null;
+  /** Born charges: the atom ("Ga", "O2"); absent or null for other quantities. */
+  site?: string | null;
+  /** Born charges: the nine tensor components; dielectric constants: three principal values. */
+  components?: number[] | null;
 }
 
 export interface ScopeCalculation {
@@ -37,6 +41,8 @@ export interface ScopeCalculation {
   degeneracy: number | null;
   /** Position of the mode in the computed list (1-based), when the import gave it. */
   modeIndex?: number | null;
+  site?: string | null;
+  components?: number[] | null;
 }
 
 export interface ScopeMaterial {
@@ -47,6 +53,10 @@ export interface ScopeMaterial {
   tags: string[];
   /** International Tables number, for the LST check (non-cubic crystals skip it). */
   spaceGroup?: number | null;
+  /** For the Cp − Cv correction (rules.heatCapacityCorrection): α_V in K⁻¹, B_T in GPa, V_m in cm³ mol⁻¹. */
+  thermalExpansionPerK?: number | null;
+  bulkModulusGpa?: number | null;
+  molarVolumeCm3?: number | null;
 }
 
 export interface ScopeMethod {
@@ -60,15 +70,16 @@ export interface ScopeMethod {
 
 /**
  * Dielectric constants and Born charges stored as calculation rows of one material ×
- * method ('eps-inf', 'eps-static', 'born-charge'). Nothing imports them yet; when rows
- * exist the quality checks use them (born-charge: one isotropic charge per atom).
+ * method ('eps-inf', 'eps-static', 'born-charge'): the quality checks of frequency benchmarks use
+ * them (Lyddane–Sachs–Teller; neutrality when there is one Born charge per atom of the cell).
  */
 export interface ScopeDielectric {
   materialId: string;
   methodId: string;
   epsInf: number | null;
   eps0: number | null;
-  bornCharges: number[];
+  /** One per site, by site: the nine tensor components where stored, else the scalar (Z·I). */
+  bornCharges: Array<number | number[]>;
 }
 
 export interface ScopePin {
@@ -298,4 +309,18 @@ export interface BenchmarkSnapshot {
   empty: string | null;
   /** Present when the reference side is a method's calculations; `measured` values are then the reference's. */
   reference?: ReferenceRecord;
+  /** Born-charge benchmarks where both sides hold full tensors: the Frobenius difference per method. */
+  tensors?: TensorComparisonRecord[];
+  /** Heat-capacity benchmarks under the Cp − Cv rule: materials corrected, and those left out for want of α, B or V_m (names). */
+  cpCorrection?: { corrected: number; lacking: string[] };
+}
+
+/** ‖Z_method − Z_reference‖_F over a method's included pairs whose two sides both hold a full tensor, in e. */
+export interface TensorComparisonRecord {
+  methodId: string;
+  label: string;
+  /** Pairs with a full tensor on both sides (of the method's included pairs). */
+  n: number;
+  meanFrobenius: number | null;
+  maxFrobenius: number | null;
 }

@@ -10,7 +10,7 @@ export type ImportableKind = (typeof IMPORTABLE_KINDS)[number];
 export type TableKind = ImportableKind | CatalogKind;
 
 /** Quantities an import may carry for now (the others arrive with their own checks). */
-export const IMPORT_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static'] as const;
+export const IMPORT_QUANTITIES = ['frequency', 'entropy', 'heat-capacity', 'eps-inf', 'eps-static', 'born-charge'] as const;
 export type ImportQuantity = (typeof IMPORT_QUANTITIES)[number];
 
 export type { ColumnDef } from './column-def';
@@ -23,14 +23,21 @@ const list = (values: readonly string[]) => values.join(' | ');
 const shared = {
   material: col('material', true, 'Material name (the unique handle of a material in this workspace, e.g. "GaN-wz").', ['material_name', 'compound', 'crystal']),
   quantity: col('quantity', true, `What the value is: ${list(IMPORT_QUANTITIES)}.`, ['property']),
-  value: col('value', true, 'The number as written ("1.50" is kept as "1.50"). Frequencies > 0 for measurements; calculations may be ≤ 0 (imaginary modes are written as negative numbers). Entropies and heat capacities ≥ 0; a measured heat capacity is Cp (calorimetry), a harmonic one Cv. Dielectric constants (eps-inf = ε∞, eps-static = ε₀) ≥ 1, dimensionless, the orientational average for a non-cubic crystal.', ['frequency', 'entropy', 'val']),
-  unit: col('unit', false, `Unit of value (and uncertainty). Frequency: ${list(FREQUENCY_UNITS)}; entropy and heat capacity: ${list(ENTROPY_UNITS)}; dielectric constants: none (or 1). May be left out when a unit is chosen for the whole file.`, ['units']),
+  value: col('value', true, 'The number as written ("1.50" is kept as "1.50"). Frequencies > 0 for measurements; calculations may be ≤ 0 (imaginary modes are written as negative numbers). Entropies and heat capacities ≥ 0; a measured heat capacity is Cp (calorimetry), a harmonic one Cv. Dielectric constants (eps-inf = ε∞, eps-static = ε₀) ≥ 1, dimensionless, the orientational average for a non-cubic crystal. A Born effective charge (born-charge) in e, may be negative: the mean of the diagonal of its tensor. With a tensor the cell may be left empty.', ['frequency', 'entropy', 'val']),
+  unit: col('unit', false, `Unit of value (and uncertainty). Frequency: ${list(FREQUENCY_UNITS)}; entropy and heat capacity: ${list(ENTROPY_UNITS)}; dielectric constants: none (or 1); Born charges: e (or none). May be left out when a unit is chosen for the whole file.`, ['units']),
   temperature: col('temperature_K', false, 'Temperature in kelvin, ≥ 0. Required for entropies and heat capacities.', ['temperature', 'temp', 't_k', 'temperature_k', 't']),
   irrep: col('irrep', false, 'Irreducible-representation label, e.g. A1g, E2(high), T2g; normalised on import.', ['label', 'symmetry', 'mode_label']),
   branch: col('branch', false, `${list(BRANCHES)}; left empty when not split. Read from the irrep label when that carries it, e.g. "A1(LO)".`),
   degeneracy: col('degeneracy', false, 'Whole number ≥ 1.', ['deg']),
   activity: col('activity', false, `${list(ACTIVITIES)}.`),
   source: col('source', true, 'Cite key of a source in this workspace, e.g. "azuhata1995".', ['source_key', 'cite_key', 'citekey', 'citation', 'reference']),
+  site: col('site', false, 'Born charges: the atom, its element symbol with an optional number, e.g. "Ga", "O2". Required for born-charge rows.', ['atom', 'atom_site', 'site_label']),
+  tensor: col(
+    'tensor',
+    false,
+    'Born charge: its 3 × 3 tensor in e, nine numbers row-major (xx xy xz yx yy yz zx zy zz) separated by spaces or semicolons. Dielectric constant of a non-cubic crystal: its three principal values. The value column, if filled, must equal the mean of the diagonal.',
+    ['components', 'principal_values'],
+  ),
   notes: col('notes', false, 'Free text.', ['note', 'comment', 'comments']),
 };
 
@@ -45,6 +52,8 @@ export const MEASUREMENT_COLUMNS: readonly ColumnDef[] = [
   shared.branch,
   shared.degeneracy,
   shared.activity,
+  shared.site,
+  shared.tensor,
   col('technique', false, `${list(TECHNIQUES)}.`),
   col('laser_nm', false, 'Excitation laser wavelength in nm, > 0 (Raman).', ['laser', 'laser_wavelength', 'laser_wavelength_nm', 'wavelength_nm']),
   col('sample_form', false, `${list(SAMPLE_FORMS)}.`, ['sample']),
@@ -63,6 +72,8 @@ export const CALCULATION_COLUMNS: readonly ColumnDef[] = [
   shared.branch,
   shared.degeneracy,
   shared.activity,
+  shared.site,
+  shared.tensor,
   shared.temperature,
   shared.source,
   shared.notes,

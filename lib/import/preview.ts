@@ -3,25 +3,27 @@ import { isImportableKind, type TableKind } from './columns';
 import { isCatalogKind } from './catalog-columns';
 import { planCatalogImport, validateCatalogRow, type CatalogRow, type MaterialRecord, type MethodRecord, type SourceRow } from './catalog-rows';
 import { MissingCatalog } from './create-missing';
+import { MissingMethodLabels, type MissingMethodLabel } from './method-table';
 import { isBlankRecord } from './csv-reader';
 import { detectDelimiter, delimiterName, type Delimiter } from './delimiter';
 import { excerpt, longCellIn, MAX_REPORTED_ERRORS, type RowError, importRefusal } from './errors';
 import { autoMapColumns, resolveHeader, type ColumnMapping } from './header';
 import type { DefaultUnits } from './units';
-import { ModeSetTally, type ImportWarning } from './mode-set-warnings';
+import { MAX_REPORTED_WARNINGS, ModeSetTally, type ImportWarning } from './mode-set-warnings';
+import { BornChargeTally, neutralityFacts } from './born-neutrality';
 import { modeSetFacts, validateRow, type ImportReferences, type ValidRow } from './validate-row';
 import { storedValue } from '@/lib/format';
 
 /** Reference lists as the wizard fetches them (JSON-friendly). */
 export interface ReferenceLists {
-  materials: Array<{ name: string; id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null }>;
+  materials: Array<{ name: string; id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null; elements?: Record<string, number> }>;
   sources: Array<{ citeKey: string; id: string }>;
   methods: Array<{ label: string; id: string }>;
 }
 
 export function referencesFrom(lists: ReferenceLists): ImportReferences {
   return {
-    materials: new Map(lists.materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: m.atomsInCell ?? null }])),
+    materials: new Map(lists.materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: m.atomsInCell ?? null, elements: m.elements }])),
     sources: new Map(lists.sources.map((s) => [s.citeKey, s.id])),
     methods: new Map(lists.methods.map((m) => [m.label, m.id])),
   };
@@ -31,6 +33,8 @@ export interface PreviewRequest {
   kind: TableKind;
   /** Calculations: new materials and methods come from the rows' catalogue columns. */
   createMissing?: boolean;
+  /** With createMissing: the recipes of new methods come from the wizard's method table, checked apart (method-table.ts), not from method_ cells. */
+  methodTable?: boolean;
   mapping?: ColumnMapping;
   units?: DefaultUnits;
   references: ReferenceLists;
@@ -52,6 +56,9 @@ export interface PreviewResult {
   /** Calculation imports: incomplete mode sets and sets without acoustic marks (mode-set-warnings.ts). */
   warnings: ImportWarning[];
   warningCount: number;
+  /** Calculation imports: the method labels the workspace lacks (the first MAX_METHOD_LINES), for the method table. */
+  missingMethods: MissingMethodLabel[];
+  missingMethodCount: number;
 }
 
 export interface PreviewRow {
@@ -109,6 +116,8 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
   let mapping: ColumnMapping = {};
   const preview: PreviewResult['preview'] = [];
   const tally = new ModeSetTally();
+  const born = new BornChargeTally((key) => header?.nameByKey.get(key) ?? key);
+  const missingLabels = request.kind === 'calculations' ? new MissingMethodLabels(new Set(request.references.methods.map((m) => m.label))) : undefined;
   const addError = (e: RowError) => {
     errorCount++;
     if (errors.length < MAX_REPORTED_ERRORS) errors.push(e);
@@ -131,7 +140,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           mapping = request.mapping ?? autoMapColumns(request.kind, fields);
           header = resolveHeader(request.kind, fields, mapping);
           if (catalogKind) for (const ignored of header.ignored) addError({ row: 1, column: excerpt(ignored), reason: `"${excerpt(ignored)}" is not a column of ${catalogKind}: remove it or rename it to one of the template's columns.` });
-          if (request.createMissing && request.kind === 'calculations') missing = new MissingCatalog(references, (key) => header!.nameByKey.get(key) ?? key);
+          if (request.createMissing && request.kind === 'calculations') missing = new MissingCatalog(references, (key) => header!.nameByKey.get(key) ?? key, undefined, undefined, request.methodTable ? 'deferred' : undefined);
           recordNumber = 1;
           return;
         }
@@ -152,6 +161,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
           const rowErrors: RowError[] = [];
           const read = (key: string) => { const idx = h.indexByKey.get(key); return idx === undefined ? undefined : fields[idx]; };
           const columnName = (key: string) => h.nameByKey.get(key) ?? key;
+          missingLabels?.add(row, read);
           const structureText = catalogKind === 'materials' ? (read('structure') ?? '').trim() : '';
           if (structureText !== '') {
             // Formula, atoms and space group come from the structure's symmetry search, which runs on the server.
@@ -178,6 +188,7 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
             validCount++;
             ok = true;
             tally.add(row, valid);
+            born.add(row, valid);
             stored = storedOf(valid);
           } else {
             errorCount += Math.max(1, rowErrors.length);
@@ -212,6 +223,25 @@ export function previewCsv(text: string, request: PreviewRequest, onProgress: (f
     }
   }
   if (catalogKind) errors.sort((a, b) => a.row - b.row);
-  const { warnings, warningCount } = tally.warnings(modeSetFacts(references));
-  return { headers, delimiter, delimiterName: delimiterName(delimiter), mapping, ignored: resolved.ignored, rowCount, validCount, errorCount, errors, preview, warnings, warningCount };
+  const modeSets = tally.warnings(modeSetFacts(references));
+  const neutrality = born.problems(neutralityFacts(references));
+  for (const e of neutrality.errors) addError(e);
+  const warnings = [...modeSets.warnings, ...neutrality.warnings].sort((a, b) => a.row - b.row).slice(0, MAX_REPORTED_WARNINGS);
+  const warningCount = modeSets.warningCount + neutrality.warnings.length;
+  return {
+    headers,
+    delimiter,
+    delimiterName: delimiterName(delimiter),
+    mapping,
+    ignored: resolved.ignored,
+    rowCount,
+    validCount,
+    errorCount,
+    errors,
+    preview,
+    warnings,
+    warningCount,
+    missingMethods: missingLabels?.labels ?? [],
+    missingMethodCount: missingLabels?.count ?? 0,
+  };
 }

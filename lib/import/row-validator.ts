@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { MAX_REPORTED_ERRORS, importRefusal, type RowError } from './errors';
-import { ModeSetTally, type ImportWarning } from './mode-set-warnings';
+import { MAX_REPORTED_WARNINGS, ModeSetTally, type ImportWarning } from './mode-set-warnings';
+import { BornChargeTally, neutralityFacts } from './born-neutrality';
 import type { TableRow } from './table';
 import { modeSetFacts, validateRow, type ImportReferences, type RowContext, type ValidRow } from './validate-row';
 
@@ -38,11 +39,15 @@ export class RowValidator {
   private pending: PendingRow[] = [];
   private readonly seenInChunk = new Set<string>();
   private readonly tally = new ModeSetTally();
+  private readonly born: BornChargeTally;
+  private bornWarnings: ImportWarning[] = [];
 
   constructor(
     private readonly ctx: RowContext,
     private readonly references: ImportReferences,
-  ) {}
+  ) {
+    this.born = new BornChargeTally(ctx.columnName);
+  }
 
   /** Validates one batch of table rows; returns the chunks that are full and may be stored. */
   accept(rows: readonly TableRow[]): PendingRow[][] {
@@ -63,6 +68,7 @@ export class RowValidator {
       }
       if (this.errorCount > 0) continue;
       this.tally.add(r.row, valid);
+      this.born.add(r.row, valid);
       const hash = rowHash(valid.identity);
       if (this.seenInChunk.has(hash)) {
         this.skipDuplicate(r.row, 'Identical to an earlier row of this file; skipped.');
@@ -77,6 +83,13 @@ export class RowValidator {
 
   /** After the last batch: the refusal when any row was bad, else the rows still waiting. */
   finish(format: 'csv' | 'json'): PendingRow[] {
+    if (this.errorCount === 0) {
+      // Set-wide checks need every row of the file: they run once all are in, before anything is stored.
+      const { errors, warnings } = this.born.problems(neutralityFacts(this.references));
+      this.errorCount += errors.length;
+      this.errors.push(...errors.slice(0, Math.max(0, MAX_REPORTED_ERRORS - this.errors.length)));
+      this.bornWarnings = warnings;
+    }
     if (this.errorCount > 0) {
       const plural = this.errorCount === 1 ? 'error' : 'errors';
       throw importRefusal(`Nothing was imported: ${this.errorCount} ${plural} in ${format === 'csv' ? 'the file' : 'the rows'}.`, this.errors, this.errorCount);
@@ -90,7 +103,9 @@ export class RowValidator {
   }
 
   warnings(): { warnings: ImportWarning[]; warningCount: number } {
-    return this.tally.warnings(modeSetFacts(this.references));
+    const modes = this.tally.warnings(modeSetFacts(this.references));
+    const all = [...modes.warnings, ...this.bornWarnings].sort((a, b) => a.row - b.row);
+    return { warnings: all.slice(0, MAX_REPORTED_WARNINGS), warningCount: modes.warningCount + this.bornWarnings.length };
   }
 
   private takeChunk(): PendingRow[] {

@@ -137,6 +137,7 @@ export async function openCsvTable(chunks: AsyncIterable<Uint8Array>, kind: Tabl
 function cellText(value: unknown): string | undefined {
   if (value === null || value === undefined) return undefined;
   if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'not-a-finite-number';
+  if (Array.isArray(value)) return value.flat().map((v) => cellText(v) ?? '').join(' ');
   return String(value);
 }
 

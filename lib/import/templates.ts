@@ -64,6 +64,15 @@ const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
       source: 'inhouse-notebook-2026',
       notes: 'example row: a textbook ε∞ recalled from memory; dielectric constants have no unit (leave it empty)',
     },
+    {
+      material: 'NaCl-rs',
+      quantity: 'born-charge',
+      value: '1.1',
+      unit: 'e',
+      site: 'Na',
+      source: 'inhouse-notebook-2026',
+      notes: 'example row: a magnitude recalled from memory; a bare element site stands for every atom of that element',
+    },
   ],
   calculations: [
     {
@@ -119,12 +128,30 @@ const EXAMPLES: Record<TableKind, Array<Record<string, string>>> = {
       source: 'inhouse-pbesol-2026',
       notes: 'example row: invented ε∞ (DFPT); the orientational average for a non-cubic crystal',
     },
+    {
+      material: 'GaN-wz',
+      method: 'PBEsol-PAW-600',
+      quantity: 'eps-inf',
+      tensor: '5.35 5.35 5.60',
+      source: 'inhouse-pbesol-2026',
+      notes: 'example row: invented principal values of ε∞ (x, y, z); the value is left empty and taken as their mean',
+    },
+    {
+      material: 'GaN-wz',
+      method: 'PBEsol-PAW-600',
+      quantity: 'born-charge',
+      site: 'Ga1',
+      tensor: '2.60 0 0; 0 2.60 0; 0 0 2.74',
+      source: 'inhouse-pbesol-2026',
+      notes: 'example row: invented Born-charge tensor of one Ga atom, in e, row-major; give every atom of the cell so neutrality can be checked',
+    },
   ],
   // Catalogue examples: well-known structures (space groups and atoms per primitive cell
-  // as commonly tabulated); the external identifiers are invented and say so.
+  // as commonly tabulated); the external identifiers are invented and say so. NaCl's α_V, B_T
+  // and V_m are handbook values recalled from memory (data/templates/README.md says so).
   materials: [
     { name: 'GaN-wz', formula: 'GaN', display_name: 'GaN (wurtzite)', space_group: '186', atoms_in_cell: '4', external_id: 'example-0001 (invented)', tags: 'nitride, semiconductor' },
-    { name: 'NaCl-rs', formula: 'NaCl', display_name: 'NaCl (rocksalt)', space_group: '225', atoms_in_cell: '2', external_id: '', tags: 'halide' },
+    { name: 'NaCl-rs', formula: 'NaCl', display_name: 'NaCl (rocksalt)', space_group: '225', atoms_in_cell: '2', external_id: '', tags: 'halide', thermal_expansion_per_K: '1.2e-4', bulk_modulus_GPa: '24.0', molar_volume_cm3: '27.0' },
     { name: 'SrTiO3-cub', formula: 'SrTiO3', display_name: 'SrTiO3 (cubic perovskite)', space_group: '221', atoms_in_cell: '5', external_id: '', tags: 'oxide, perovskite' },
   ],
   methods: [

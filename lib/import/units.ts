@@ -27,11 +27,27 @@ export type DimensionlessUnit = '1';
 export const DIMENSIONLESS_UNITS: readonly DimensionlessUnit[] = ['1'];
 const DIMENSIONLESS_ALIASES: Record<string, DimensionlessUnit> = { '1': '1', '-': '1', none: '1', dimensionless: '1' };
 
-export type ImportUnit = FrequencyUnit | EntropyUnit | DimensionlessUnit;
+/** Born effective charges: in units of the elementary charge. */
+export type ChargeUnit = 'e';
+export const CHARGE_UNITS: readonly ChargeUnit[] = ['e'];
+const CHARGE_ALIASES: Record<string, ChargeUnit> = { e: 'e', '|e|': 'e', e0: 'e', 'e₀': 'e', '1': 'e', '-': 'e', none: 'e' };
+
+export type ImportUnit = FrequencyUnit | EntropyUnit | DimensionlessUnit | ChargeUnit;
 
 /** Whether a quantity carries no unit (an empty unit cell is then fine). */
 export function isDimensionless(quantity: ImportQuantity): boolean {
   return quantity === 'eps-inf' || quantity === 'eps-static';
+}
+
+/** Whether a quantity has one unit only, so an empty unit cell means it (dielectric constants, Born charges). */
+export function hasSingleUnit(quantity: ImportQuantity): boolean {
+  return isDimensionless(quantity) || quantity === 'born-charge';
+}
+
+/** The unit an empty unit cell stands for, where the quantity has one only. */
+export function singleUnitOf(quantity: ImportQuantity): ImportUnit | null {
+  if (isDimensionless(quantity)) return '1';
+  return quantity === 'born-charge' ? 'e' : null;
 }
 
 /** Units chosen for the whole file, used where a row has no unit. */
@@ -46,10 +62,12 @@ export function parseUnit(quantity: ImportQuantity, text: string): ImportUnit | 
   const key = text.trim().toLowerCase().replace(/\s+/g, ' ');
   if (quantity === 'frequency') return FREQUENCY_ALIASES[key] ?? null;
   if (isDimensionless(quantity)) return DIMENSIONLESS_ALIASES[key] ?? null;
+  if (quantity === 'born-charge') return CHARGE_ALIASES[key] ?? null;
   return ENTROPY_ALIASES[key] ?? null;
 }
 
 export function unitsOf(quantity: ImportQuantity): readonly string[] {
   if (quantity === 'frequency') return FREQUENCY_UNITS;
+  if (quantity === 'born-charge') return CHARGE_UNITS;
   return isDimensionless(quantity) ? DIMENSIONLESS_UNITS : ENTROPY_UNITS;
 }

@@ -4,7 +4,8 @@ import { IMPORT_QUANTITIES, type ImportableKind, type ImportQuantity } from './c
 import { excerpt, type RowError } from './errors';
 import type { MissingCatalog } from './create-missing';
 import { notANumberReason, parseDecimal } from './numbers';
-import { isDimensionless, parseUnit, unitsOf, type DefaultUnits, type ImportUnit } from './units';
+import { isDimensionless, parseUnit, singleUnitOf, unitsOf, type DefaultUnits, type ImportUnit } from './units';
+import { parseSite, parseTensorCell, tensorMeanMismatch } from './tensor-cells';
 import {
   ACTIVITY_VALUES,
   BRANCH_VALUES,
@@ -18,7 +19,8 @@ import {
 
 /** What a row may refer to, by the handles people write in files. */
 export interface ImportReferences {
-  materials: Map<string, { id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null }>;
+  /** `elements`: the reduced formula's element counts, where known (Born-charge sites are checked against them). */
+  materials: Map<string, { id: string; atomsPerFormulaUnit: number; atomsInCell?: number | null; elements?: Readonly<Record<string, number>> }>;
   sources: Map<string, string>;
   methods: Map<string, string>;
 }
@@ -47,6 +49,10 @@ export interface ValidRow {
   laserWavelengthNm: number | null;
   sampleForm: SampleForm | null;
   modeIndex: number | null;
+  /** Born charges: the atom ("Ga", "O2"). */
+  site: string | null;
+  /** A Born charge's nine tensor components or a dielectric constant's three principal values; value is then their diagonal mean. */
+  components: number[] | null;
   /** The identifying fields joined; equal identities are "identical rows". */
   identity: string;
 }
@@ -153,9 +159,10 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     if (unitText !== '') {
       unit = parseUnit(quantity, unitText);
       if (!unit && isDimensionless(quantity)) fail('unit', `A dielectric constant has no unit, got "${excerpt(unitText)}"; leave the unit cell empty or write 1.`, unitText);
+      else if (!unit && quantity === 'born-charge') fail('unit', `A Born charge is in units of the elementary charge e, got "${excerpt(unitText)}"; leave the unit cell empty or write e.`, unitText);
       else if (!unit) fail('unit', `Unknown ${quantity} unit "${excerpt(unitText)}"; use one of ${unitsOf(quantity).join(', ')}.`, unitText);
-    } else if (isDimensionless(quantity)) {
-      unit = '1';
+    } else if (singleUnitOf(quantity)) {
+      unit = singleUnitOf(quantity);
     } else {
       unit = ctx.units?.[quantity as keyof DefaultUnits] ?? null;
       if (!unit) fail('unit', `No unit for this ${quantity}: fill the unit column or choose a unit for the whole file.`);
@@ -163,9 +170,20 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   }
 
   const isMeasurement = ctx.kind === 'measurements';
-  const valueText = required('value');
+  const tensorText = cell('tensor');
+  let components: number[] | null = null;
+  if (tensorText !== '' && quantity) {
+    const parsed = parseTensorCell(quantity, tensorText);
+    if ('reason' in parsed) fail('tensor', parsed.reason, tensorText);
+    else components = parsed.components;
+  }
+  let valueText: string | null = cell('value') === '' && tensorText !== '' ? '' : required('value');
   let raw: number | null = null;
-  if (valueText !== null) {
+  if (valueText === '') {
+    // The value of a row given by its tensor: the mean of the diagonal.
+    raw = components ? components.reduce((sum, c, i) => sum + (components!.length === 3 || i % 4 === 0 ? c : 0), 0) / 3 : null;
+    valueText = raw === null ? null : String(Number(raw.toPrecision(10)));
+  } else if (valueText !== null) {
     raw = parseDecimal(valueText);
     if (raw === null) fail('value', notANumberReason(valueText), valueText);
     else if (quantity === 'frequency' && isMeasurement && raw <= 0) {
@@ -174,6 +192,15 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     } else if (quantity !== null && isDimensionless(quantity) && raw < 1) {
       fail('value', `A dielectric constant is ≥ 1 (got ${excerpt(valueText)}); write ε itself, not χ = ε − 1.`, valueText);
       raw = null;
+    } else if (quantity === 'born-charge') {
+      const mismatch = components ? tensorMeanMismatch(raw, valueText, components) : null;
+      if (mismatch) {
+        fail('value', mismatch, valueText);
+        raw = null;
+      } else if (Math.abs(raw) > 20) {
+        fail('value', `A Born effective charge of ${excerpt(valueText)} e is beyond ±20 e; charges are of a few e (anomalous ones reach about 7–8). Is it a sum over atoms, or another unit?`, valueText);
+        raw = null;
+      }
     } else if (quantity !== 'frequency' && raw < 0) {
       fail('value', `${quantity === 'entropy' ? 'An entropy' : 'A heat capacity'} cannot be negative (got ${excerpt(valueText)}).`, valueText);
       raw = null;
@@ -211,6 +238,20 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   const sampleForm = isMeasurement ? choice('sample_form', SAMPLE_FORM_VALUES) : null;
   const laser = isMeasurement ? number('laser_nm', (n) => (n > 0 ? null : 'A laser wavelength must be > 0 nm.')) : null;
   const modeIndex = isMeasurement ? null : wholeNumber('mode_index', 1);
+  const siteText = cell('site');
+  let site: string | null = null;
+  if (quantity === 'born-charge') {
+    if (siteText === '') fail('site', 'A Born charge needs its atom in the site column, e.g. "Ga" or "O2".');
+    else {
+      const parsed = parseSite(siteText, material?.elements);
+      if ('reason' in parsed) fail('site', parsed.reason, siteText);
+      else site = parsed.site;
+    }
+  } else if (siteText !== '' && quantity) fail('site', `Only Born charges carry a site; leave it empty for a ${quantity} row.`, siteText);
+  if (components && quantity !== 'born-charge' && valueText !== null && raw !== null && cell('value') !== '') {
+    const mismatch = tensorMeanMismatch(raw, valueText, components);
+    if (mismatch) fail('value', mismatch, valueText);
+  }
   const notes = cell('notes') || null;
   if (notes !== null && notes.includes('\u0000')) fail('notes', `Notes contain a NUL byte (character ${notes.indexOf('\u0000') + 1}); remove it.`);
 
@@ -221,7 +262,7 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   if (quantity === 'frequency') {
     value = convertFrequency(raw, unit as FrequencyUnit, 'cm-1');
     if (uncertainty) uncertaintyCanonical = convertFrequency(uncertainty.n, unit as FrequencyUnit, 'cm-1');
-  } else if (isDimensionless(quantity)) {
+  } else if (isDimensionless(quantity) || quantity === 'born-charge') {
     value = raw;
     if (uncertainty) uncertaintyCanonical = uncertainty.n;
   } else {
@@ -243,6 +284,8 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     modeIndex ?? '',
     technique ?? '',
     sampleForm ?? '',
+    // Appended only when present, so the identities (and hashes) of rows without them are unchanged.
+    ...(site !== null || components !== null ? [site ?? '', components ? components.join(' ') : ''] : []),
   ].join('\u001f');
 
   return {
@@ -267,6 +310,8 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
     laserWavelengthNm: laser ? laser.n : null,
     sampleForm,
     modeIndex,
+    site,
+    components,
     identity,
   };
 }

@@ -53,3 +53,7 @@ export { detectShift, DEFAULT_SHIFT_THRESHOLDS } from './shift';
 export type { MethodSummary, ShiftReason, ShiftThresholds } from './shift';
 export { convergencePoint, recommendedParameter, deviationDistribution } from './convergence';
 export type { ConvergenceDirection, ConvergencePoint, Recommendation, DistributionRow } from './convergence';
+export { fullTensor, diagonalMean, frobeniusDistance, chargeSum, largestComponent, siteNeutrality, TENSOR_COMPONENTS, PRINCIPAL_COMPONENTS } from './tensors';
+export type { SiteNeutrality } from './tensors';
+export { loToCouples } from './lo-to';
+export type { BranchLine, LoToCouple } from './lo-to';

@@ -9,15 +9,12 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from '@/db/client';
 import { material, measurement } from '@/db/schema';
 import { and, eq } from 'drizzle-orm';
-import { createBenchmarkAction } from '@/app/(app)/w/[workspace]/benchmarks/actions';
-import { getRevision } from '@/db/queries/revisions';
-import { whenRecomputeIdle } from '@/lib/services/benchmarks/recompute-queue';
 import { importCsvFile } from '@/lib/services/imports/csv-import';
 import { isImportRefusal, type ImportRefusalError } from '@/lib/import/errors';
 import { getMaterialValues } from '@/db/queries/material-values';
 import { loadMaterialQuality } from '@/app/(app)/w/[workspace]/materials/_components/load-material-quality';
-import { createWorkspaceWith, signInAs } from '../support/users';
-import { formData } from './benchmark-support';
+import { createWorkspaceWith } from '../support/users';
+import { createBenchmarkAsCurator } from './benchmark-form-support';
 import { bytesOf, chunksOf, seedCatalogue } from './import-fixtures';
 
 let ws: Awaited<ReturnType<typeof createWorkspaceWith>>;
@@ -26,14 +23,7 @@ function importText(text: string, kind: 'measurements' | 'calculations', fileNam
   return importCsvFile({ workspaceId: ws.workspaceId, actor: { userId: ws.owner.id, tokenId: null }, via: 'wizard', kind, fileName, body: chunksOf(bytesOf(text), 17) });
 }
 
-async function createBenchmark(fields: Record<string, string>) {
-  await signInAs(ws.members.curator.email);
-  const state = await createBenchmarkAction(undefined, formData({ workspaceId: ws.workspaceId, outlierKind: 'modified-z', repeatedMeasurements: 'separate', ...fields }));
-  expect(state.ok, state.message).toBe(true);
-  const id = (state.data as { id: string }).id;
-  await whenRecomputeIdle(ws.workspaceId, id);
-  return (await getRevision(ws.workspaceId, id))!.statistics;
-}
+const createBenchmark = async (fields: Record<string, string>) => (await createBenchmarkAsCurator(ws, fields)).snap;
 
 beforeAll(async () => {
   ws = await createWorkspaceWith(['curator']);

@@ -52,7 +52,7 @@ describe('material values', () => {
 
   it('shows nothing of a material to another workspace', async () => {
     const v = await getMaterialValues(other.workspaceId, ids.gan);
-    expect(v).toEqual({ peaks: [], entropies: [], heatCapacities: [], dielectric: [], methods: [] });
+    expect(v).toEqual({ peaks: [], entropies: [], heatCapacities: [], dielectric: [], born: [], methods: [] });
   });
 
   it('lists the materials of a method with the k-point density inputs', async () => {

@@ -7,7 +7,8 @@
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { atomsPerReducedFormulaUnit, MOLAR_GAS_CONSTANT_J_PER_MOL_K } from '@/lib/science';
+import { atomsPerReducedFormulaUnit, cpMinusCv, MOLAR_GAS_CONSTANT_J_PER_MOL_K } from '@/lib/science';
+import { materialInputSchema } from '@/lib/catalog/material-schema';
 
 function csv(file: string): Array<Record<string, string>> {
   return Papa.parse<Record<string, string>>(readFileSync(`data/demo/${file}`, 'utf8'), { header: true, skipEmptyLines: true }).data;
@@ -86,6 +87,21 @@ describe('demo data', () => {
       const limit = 3 * MOLAR_GAS_CONSTANT_J_PER_MOL_K * atomsPerReducedFormulaUnit(formulaOf.get(r.material)!) * 1.15;
       expect(cp, r.material).toBeGreaterThan(0);
       expect(cp, r.material).toBeLessThan(limit);
+    }
+  });
+
+  it('gives α_V, B_T and V_m to MgO and NaCl only (both have a Cp°), the values of the heat-capacity test, valid as a form would take them', () => {
+    const cp = new Map(csv('heat-capacities.csv').map((r) => [r.material, Number(r.heat_capacity_J_per_mol_K)]));
+    const withThermal = materials.filter((m) => m.thermal_expansion_per_K || m.bulk_modulus_GPa || m.molar_volume_cm3);
+    expect(withThermal.map((m) => m.name).sort()).toEqual(['MgO', 'NaCl']);
+    // values from memory, as tests/unit/science/heat-capacity.test.ts and data/demo/README.md say
+    const expected: Record<string, [number, number, number, number]> = { MgO: [3.12e-5, 160, 11.25, 0.014], NaCl: [1.2e-4, 24, 27, 0.055] };
+    for (const m of withThermal) {
+      const parsed = materialInputSchema.parse({ name: m.name, formula: m.formula, tags: '', thermalExpansionPerK: m.thermal_expansion_per_K, bulkModulusGpa: m.bulk_modulus_GPa, molarVolumeCm3: m.molar_volume_cm3 });
+      const [alpha, b, v, share] = expected[m.name];
+      expect([parsed.thermalExpansionPerK, parsed.bulkModulusGpa, parsed.molarVolumeCm3], m.name).toEqual([alpha, b, v]);
+      const gap = cpMinusCv({ volumetricExpansionPerK: alpha, bulkModulusGPa: b, molarVolumeCm3PerMol: v, temperatureK: 298.15 });
+      expect(gap / cp.get(m.name)!, m.name).toBeCloseTo(share, 3);
     }
   });
 

@@ -90,7 +90,12 @@ export async function materialStages(
   const dielectricOf = new Map<string, unknown[]>();
   for (const d of context.dielectric ?? []) (dielectricOf.get(d.materialId) ?? dielectricOf.set(d.materialId, []).get(d.materialId)!).push(d);
   const materialKey = (m: BenchmarkContext['materials'][number]) =>
-    hash({ m: [m.id, m.formula, m.atomsInCell, m.spaceGroup ?? null], d: [...(dielectricOf.get(m.id) ?? [])].sort((a, b) => ((a as { methodId: string }).methodId < (b as { methodId: string }).methodId ? -1 : 1)), p: pinsOf.get(m.id) ?? [] });
+    hash({
+      // α, B and V_m are read (and so keyed) only under the Cp − Cv rule
+      m: [m.id, m.formula, m.atomsInCell, m.spaceGroup ?? null, ...(m.thermalExpansionPerK !== undefined ? [m.thermalExpansionPerK, m.bulkModulusGpa, m.molarVolumeCm3] : [])],
+      d: [...(dielectricOf.get(m.id) ?? [])].sort((a, b) => ((a as { methodId: string }).methodId < (b as { methodId: string }).methodId ? -1 : 1)),
+      p: pinsOf.get(m.id) ?? [],
+    });
 
   const previous = options.full ? undefined : kept.get(cacheKey);
   const base = previous && previous.pairingKey === pairingKey ? previous : undefined;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { BENCHMARK_QUANTITIES, ENTROPY_BASES, OUTLIER_RULE_KINDS, OUTLIER_SCALES, REPEATED_MEASUREMENT_MODES, SCOPE_TECHNIQUES, type BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
+import { BENCHMARK_QUANTITIES, ENTROPY_BASES, HEAT_CAPACITY_CORRECTIONS, OUTLIER_RULE_KINDS, OUTLIER_SCALES, REPEATED_MEASUREMENT_MODES, SCOPE_TECHNIQUES, type BenchmarkDefinitionInput } from '@/lib/benchmark/schemas';
 
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 const optionalNumber = (label: string) =>
@@ -44,6 +44,7 @@ export const benchmarkFormSchema = z.object({
   rankMinN: optionalNumber('The ranking minimum N'),
   rankMinCoveragePercent: optionalNumber('The ranking minimum coverage'),
   entropyBasis: z.preprocess(blank, z.enum(ENTROPY_BASES, 'Choose a basis.').optional()),
+  heatCapacityCorrection: z.preprocess(blank, z.enum(HEAT_CAPACITY_CORRECTIONS, 'Choose whether to correct Cv to Cp.').optional()),
   repeatedMeasurements: z.enum(REPEATED_MEASUREMENT_MODES, 'Choose how repeated measurements count.'),
   bandEdgesCm1: z.preprocess(splitCommas, z.array(z.coerce.number('Band edges must be numbers.').positive('Band edges must be positive numbers.'))),
   alertMaeAbsolute: optionalNumber('The MAE alert threshold'),
@@ -83,6 +84,8 @@ export function definitionFromForm(f: BenchmarkForm): BenchmarkDefinitionInput {
       bandEdgesCm1: f.bandEdgesCm1.length ? f.bandEdgesCm1 : undefined,
       ranking: { minN: f.rankMinN, minCoverage: pct(f.rankMinCoveragePercent) },
       entropyBasis: f.entropyBasis,
+      // stored only when on, so other benchmarks' rules (and fingerprints) are unchanged
+      ...(f.quantity === 'heat-capacity' && !f.referenceMethodId && f.heatCapacityCorrection === 'cp-minus-cv' ? { heatCapacityCorrection: 'cp-minus-cv' as const } : {}),
       ...(f.referenceMethodId && f.referenceTolerance !== undefined ? { referenceTolerance: f.referenceTolerance } : {}),
       ...(f.referenceMethodId && f.convergenceSharePercent !== undefined ? { convergenceShare: f.convergenceSharePercent / 100 } : {}),
     },

@@ -59,6 +59,8 @@ export function BenchmarkForm({
           <option value="heat-capacity">Heat capacity at T (measured Cp against computed Cv)</option>
           <option value="eps-inf">Dielectric constant ε∞ (electronic)</option>
           <option value="eps-static">Dielectric constant ε₀ (static)</option>
+          <option value="born-charge">Born effective charge per site (mean of the diagonal)</option>
+          <option value="lo-to-splitting">LO–TO splitting of polar modes (from TO and LO frequencies)</option>
         </SelectField>
         <SelectField
           label="Compared with"
@@ -102,10 +104,25 @@ export function BenchmarkForm({
           </div>
         ) : null}
         {isDielectric(quantity) && !referenceId ? (
-          <p className="text-xs text-ink-muted">One value per material on each side, whatever its temperature; for a non-cubic crystal store the orientational average (ε_xx + ε_yy + ε_zz)/3 on both sides.</p>
+          <p className="text-xs text-ink-muted">One value per material on each side, whatever its temperature; for a non-cubic crystal the orientational average (ε_xx + ε_yy + ε_zz)/3 is compared, whether it was stored as such or computed from the three principal values of the tensor column.</p>
+        ) : null}
+        {quantity === 'born-charge' ? (
+          <p className="text-xs text-ink-muted">One charge per site on each side, compared by the mean of the tensor&apos;s diagonal; a site written as an element only (&quot;Ga&quot;) stands for every atom of that element. Where both sides hold the full tensor, the page also gives ‖ΔZ‖ (Frobenius).</p>
+        ) : null}
+        {quantity === 'lo-to-splitting' ? (
+          <p className="text-xs text-ink-muted">Reads the frequency rows: a TO and an LO of one species from one source make a measured splitting, and the method&apos;s TO and LO lines of that species the computed one. Give TO and LO in the branch column or the irrep label.</p>
         ) : null}
         {quantity === 'heat-capacity' && !referenceId ? (
-          <p className="text-xs text-ink-muted">Calorimetry measures Cp; a harmonic calculation gives Cv, which lies below it by α² B V_m T. The benchmark compares them without that correction and says so on its page.</p>
+          <SelectField
+            label="Cp against Cv"
+            name="heatCapacityCorrection"
+            defaultValue={rules.heatCapacityCorrection ?? 'none'}
+            errors={e.heatCapacityCorrection ?? e['rules.heatCapacityCorrection']}
+            hint="Calorimetry measures Cp; a harmonic calculation gives Cv, which lies below it by α² B V_m T. The correction uses each material's thermal expansion α, bulk modulus B and molar volume V_m (its material page); materials without all three are then left out."
+          >
+            <option value="none">Compare as stored (no correction; the page says so)</option>
+            <option value="cp-minus-cv">Add Cp − Cv = α² B V_m T to each computed Cv</option>
+          </SelectField>
         ) : null}
         {isThermal(quantity) ? (
           <div className="grid grid-cols-2 gap-3">

@@ -15,6 +15,7 @@ import { buttonClass } from '@/components/ui/button';
 import { Leaderboard } from './leaderboard';
 import { ScalingPanel } from './scaling-panel';
 import { ReferencePanel } from './reference-panel';
+import { TensorPanel } from './tensor-panel';
 import { MaterialTable } from './material-table';
 import { cautionOf } from '@/lib/benchmark/compute';
 import { isDielectric, isThermal } from '@/lib/benchmark/quantities';
@@ -166,6 +167,17 @@ export async function BenchmarkView({
               </span>
             </>
           ) : null}
+          {snap.cpCorrection ? (
+            <>
+              {' '}
+              <span data-testid="cp-correction">
+                Corrected: {snap.cpCorrection.corrected} material{snap.cpCorrection.corrected === 1 ? '' : 's'}.
+                {snap.cpCorrection.lacking.length
+                  ? ` Left out for want of α, B or V_m: ${snap.cpCorrection.lacking.slice(0, 12).join(', ')}${snap.cpCorrection.lacking.length > 12 ? ` and ${snap.cpCorrection.lacking.length - 12} more` : ''}.`
+                  : ''}
+              </span>
+            </>
+          ) : null}
         </Notice>
       ) : null}
 
@@ -196,6 +208,12 @@ export async function BenchmarkView({
               lists, out of every statistic).
             </p>
           </Panel>
+
+          {snap.tensors?.length ? (
+            <Panel title="Full Born-charge tensors">
+              <TensorPanel tensors={snap.tensors} pairsByMethod={new Map(snap.methods.map((m) => [m.methodId, m.n]))} />
+            </Panel>
+          ) : null}
 
           {snap.quantity === 'frequency' && !snap.reference ? (
             <Panel title="Scaling">

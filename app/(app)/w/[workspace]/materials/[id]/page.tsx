@@ -5,16 +5,18 @@ import { requirePageMember } from '@/lib/session';
 import { roleCan } from '@/lib/permissions';
 import { getMaterial } from '@/db/queries/materials';
 import { getMaterialValues } from '@/db/queries/material-values';
+import { materialCpCorrection } from '@/lib/services/catalog/cp-correction';
 import { buttonClass } from '@/components/ui/button';
 import { FieldList } from '@/components/ui/field-list';
 import { Panel } from '@/components/ui/panel';
 import { RetractionForm } from '../../history/_components/retraction-form';
 import { restoreMaterialAction, retractMaterialAction } from '../actions';
 import { MaterialValuesSection } from '../_components/material-values';
+import { ThermalProperties } from '../_components/thermal-properties';
 import { MaterialDiscussion, loadMaterialThreads } from '../_components/material-discussion';
 import { AddToDeck } from '@/app/(app)/w/[workspace]/decks/_components/add-to-deck';
 import { QualityFlags } from '@/components/quality/quality-flags';
-import { loadMaterialQuality } from '@/app/(app)/w/[workspace]/materials/_components/load-material-quality';
+import { loadBornChargeSets, loadMaterialQuality } from '@/app/(app)/w/[workspace]/materials/_components/load-material-quality';
 import { RecordDates, RetractedNotice } from '../../_components/record-pages';
 
 export const metadata: Metadata = { title: 'Material' };
@@ -26,10 +28,12 @@ export default async function MaterialPage({ params, searchParams }: { params: P
   const m = await getMaterial(ctx.workspace.id, id);
   if (!m) notFound();
   const values = await getMaterialValues(ctx.workspace.id, m.id);
-  const [quality, threads] = await Promise.all([
+  const [quality, threads, born] = await Promise.all([
     loadMaterialQuality(ctx.workspace.id, m, values),
     loadMaterialThreads(ctx.workspace.id, m.id, values.methods.map((x) => x.methodId)),
+    loadBornChargeSets(ctx.workspace.id, m, values),
   ]);
+  const cpCorrection = materialCpCorrection(m, values.heatCapacities);
   const can = { comment: roleCan(ctx.role, 'comments:create'), resolve: roleCan(ctx.role, 'comments:resolve'), decide: roleCan(ctx.role, 'decisions:create') };
   const slug = ctx.workspace.slug;
   const fields: Array<[string, React.ReactNode]> = [
@@ -75,7 +79,8 @@ export default async function MaterialPage({ params, searchParams }: { params: P
       <Panel title="Material">
         <FieldList fields={fields} />
       </Panel>
-      <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} selectedMethodId={selectedMethodId} />
+      <ThermalProperties material={m} correction={cpCorrection} />
+      <MaterialValuesSection slug={slug} materialId={m.id} materialName={m.name} values={values} born={born} selectedMethodId={selectedMethodId} />
       <MaterialDiscussion workspaceId={ctx.workspace.id} materialId={m.id} materialName={m.name} methods={values.methods} threads={threads} can={can} />
       <QualityFlags slug={slug} results={quality} thresholdsHref={`/w/${slug}/settings/quality`} />
       {roleCan(ctx.role, 'materials:retract') && (

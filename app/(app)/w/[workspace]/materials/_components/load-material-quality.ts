@@ -1,7 +1,8 @@
 import 'server-only';
 import type { MaterialValues } from '@/db/queries/material-values';
 import { getMethodGrids, getQualityThresholds } from '@/db/queries/settings';
-import { materialQualityFlags, type MethodQuality } from '@/lib/benchmark/material-quality';
+import { bornChargeSets, materialQualityFlags, type BornChargeSet, type MethodQuality } from '@/lib/benchmark/material-quality';
+import { parseFormula } from '@/lib/science';
 
 /** A method's ε∞ and ε₀ of the material (the first row of each by id), when both are stored. */
 function dielectricOf(rows: MaterialValues['methods'][number]['dielectric']): { epsInf: number; eps0: number } | undefined {
@@ -29,5 +30,29 @@ export async function loadMaterialQuality(workspaceId: string, material: { id: s
       modes: m.modes,
       dielectric: dielectricOf(m.dielectric),
     })),
+  });
+}
+
+/** The material's Born charges per measured source and per method, each with its neutrality (the workspace's limit). */
+export async function loadBornChargeSets(workspaceId: string, material: { atomsInCell: number | null; reducedFormula: string }, values: MaterialValues): Promise<BornChargeSet[]> {
+  const measuredBySource = new Map<string, MaterialValues['born']>();
+  for (const r of values.born) measuredBySource.set(r.citeKey, [...(measuredBySource.get(r.citeKey) ?? []), r]);
+  const methods = values.methods.filter((m) => m.born.length > 0);
+  if (measuredBySource.size === 0 && methods.length === 0) return [];
+  let elements: Record<string, number> | undefined;
+  try {
+    elements = parseFormula(material.reducedFormula).counts;
+  } catch {
+    elements = undefined;
+  }
+  const thresholds = await getQualityThresholds(workspaceId);
+  return bornChargeSets({
+    atomsInCell: material.atomsInCell,
+    elements,
+    limitE: thresholds?.bornNeutrality,
+    series: [
+      ...[...measuredBySource].map(([citeKey, rows]) => ({ series: `Measured (${citeKey})`, rows })),
+      ...methods.map((m) => ({ series: m.methodLabel, rows: m.born })),
+    ],
   });
 }

@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { IncompleteMark } from '@/components/citations/incomplete-mark';
 import type { ComputedModeRow, MaterialValues, MeasuredPeakRow } from '@/db/queries/material-values';
+import type { BornChargeSet } from '@/lib/benchmark/material-quality';
 import { StickSpectrum } from '@/components/charts/stick-spectrum';
 import { EmptyState, Panel } from '@/components/ui/panel';
 import { asEntered, count, header, plain } from '@/lib/format';
@@ -98,13 +99,71 @@ function ModesTable({ modes }: { modes: ComputedModeRow[] }) {
   );
 }
 
+const principal = (components: number[] | null) => (components ? components.map((c) => plain(c)).join(' / ') : '–');
+
+/** A Born-charge tensor as three rows of three components. */
+function TensorCell({ components }: { components: number[] | null }) {
+  if (!components) return <span className="text-ink-muted">scalar only (read as Z·I)</span>;
+  return (
+    <span className="inline-grid grid-cols-3 gap-x-2 font-mono text-xs" aria-label={`tensor ${components.join(' ')}`}>
+      {components.map((c, i) => (
+        <span key={i} className="text-right">
+          {plain(c)}
+        </span>
+      ))}
+    </span>
+  );
+}
+
+/** Born effective charges per series (measured source or method), each with the sum that neutrality needs to be zero. */
+function BornChargeTable({ sets }: { sets: BornChargeSet[] }) {
+  if (sets.length === 0) return null;
+  const tone = { neutral: 'text-ink-muted', residue: 'text-warn', far: 'text-bad', unchecked: 'text-ink-muted' } as const;
+  return (
+    <Panel title="Born effective charges">
+      <div className="grid gap-4 xl:grid-cols-2">
+        {sets.map((set) => (
+          <table key={set.series} className="w-full text-sm" data-testid="born-charges">
+            <caption className="mb-1 text-left text-xs font-semibold text-ink-muted">{set.series}</caption>
+            <thead className="text-left text-xs text-ink-muted">
+              <tr>
+                <th className={th}>Site</th>
+                <th className={thNum}>{header('Mean of diagonal', 'e')}</th>
+                <th className={th}>Tensor (xx xy xz / yx yy yz / zx zy zz)</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-rule">
+              {set.rows.map((r) => (
+                <tr key={r.id}>
+                  <td className="py-1 pr-2">{r.site ?? '–'}</td>
+                  <td className="num py-1 pr-2 text-right">{plain(r.value)}</td>
+                  <td className="py-1 pr-2">
+                    <TensorCell components={r.components} />
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+            <tfoot>
+              <tr>
+                <td colSpan={3} className={`pt-1.5 text-xs ${tone[set.neutrality.status]}`} data-testid="born-neutrality">
+                  {set.neutrality.text}
+                </td>
+              </tr>
+            </tfoot>
+          </table>
+        ))}
+      </div>
+    </Panel>
+  );
+}
+
 /** Measured and computed ε∞ and ε₀ of the material (dimensionless; the orientational average for a non-cubic crystal). */
 function DielectricTable({ slug, values }: { slug: string; values: MaterialValues }) {
   const name = (q: string) => (q === 'eps-inf' ? 'ε∞' : 'ε₀');
   const rows = [
-    ...values.dielectric.map((e) => ({ id: e.id, series: 'Measured', q: name(e.quantity), v: shown(e.value, e.valueText, e.unit, '1'), u: shown(e.uncertainty, e.uncertaintyText, e.unit, '1'), t: e.temperatureK, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+    ...values.dielectric.map((e) => ({ id: e.id, series: 'Measured', q: name(e.quantity), v: shown(e.value, e.valueText, e.unit, '1'), u: shown(e.uncertainty, e.uncertaintyText, e.unit, '1'), p: principal(e.components), t: e.temperatureK, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
     ...values.methods.flatMap((m) =>
-      m.dielectric.map((e) => ({ id: e.id, series: m.methodLabel, q: name(e.quantity), v: shown(e.value, e.valueText, e.unit, '1'), u: '–', t: e.temperatureK, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
+      m.dielectric.map((e) => ({ id: e.id, series: m.methodLabel, q: name(e.quantity), v: shown(e.value, e.valueText, e.unit, '1'), u: '–', p: principal(e.components), t: e.temperatureK, sourceId: e.sourceId, citeKey: e.citeKey, sourceGaps: e.sourceGaps })),
     ),
   ].sort((a, b) => a.q.localeCompare(b.q) || (a.series === 'Measured' ? -1 : b.series === 'Measured' ? 1 : a.series.localeCompare(b.series)));
   if (rows.length === 0) return null;
@@ -117,6 +176,7 @@ function DielectricTable({ slug, values }: { slug: string; values: MaterialValue
             <th className={th}>Constant</th>
             <th className={thNum}>Value</th>
             <th className={thNum}>±</th>
+            <th className={thNum}>Principal values</th>
             <th className={thNum}>{header('T', 'K')}</th>
             <th className="py-1 font-medium">Source</th>
           </tr>
@@ -128,6 +188,7 @@ function DielectricTable({ slug, values }: { slug: string; values: MaterialValue
               <td className="py-1 pr-2">{r.q}</td>
               <td className="num py-1 pr-2 text-right">{r.v}</td>
               <td className="num py-1 pr-2 text-right">{r.u}</td>
+              <td className="num py-1 pr-2 text-right">{r.p}</td>
               <td className="num py-1 pr-2 text-right">{r.t === null ? '–' : plain(r.t)}</td>
               <SourceCell slug={slug} row={r} />
             </tr>
@@ -195,8 +256,22 @@ function ThermalTable({ slug, values, quantity }: { slug: string; values: Materi
 }
 
 /** Measured peaks beside the selected method's computed modes, the stick spectrum of both, and entropies. */
-export function MaterialValuesSection({ slug, materialId, materialName, values, selectedMethodId }: { slug: string; materialId: string; materialName: string; values: MaterialValues; selectedMethodId?: string }) {
-  const hasAny = values.peaks.length + values.entropies.length + values.heatCapacities.length + values.dielectric.length + values.methods.length > 0;
+export function MaterialValuesSection({
+  slug,
+  materialId,
+  materialName,
+  values,
+  born = [],
+  selectedMethodId,
+}: {
+  slug: string;
+  materialId: string;
+  materialName: string;
+  values: MaterialValues;
+  born?: BornChargeSet[];
+  selectedMethodId?: string;
+}) {
+  const hasAny = values.peaks.length + values.entropies.length + values.heatCapacities.length + values.dielectric.length + values.born.length + values.methods.length > 0;
   if (!hasAny) {
     return (
       <EmptyState title="No measurements or calculations yet">
@@ -257,6 +332,7 @@ export function MaterialValuesSection({ slug, materialId, materialName, values, 
       <ThermalTable slug={slug} values={values} quantity="entropy" />
       <ThermalTable slug={slug} values={values} quantity="heat-capacity" />
       <DielectricTable slug={slug} values={values} />
+      <BornChargeTable sets={born} />
     </div>
   );
 }

@@ -9,7 +9,7 @@ import type { ValueRow } from './value-row';
 import { asEntered, CANONICAL_UNIT_SYMBOL, unitSymbol } from '@/lib/format';
 
 /** Canonical unit codes: a value typed in them is shown exactly as typed. */
-const CANONICAL_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K', 'eps-inf': '1', 'eps-static': '1' };
+const CANONICAL_CODE: Record<string, string> = { frequency: 'cm-1', entropy: 'J/mol/K', 'heat-capacity': 'J/mol/K', 'eps-inf': '1', 'eps-static': '1', 'born-charge': 'e' };
 
 const helper = createDataColumnHelper<ValueRow>();
 const dash = (v: string | number | null | undefined) => (v === null || v === undefined || v === '' ? '–' : v);

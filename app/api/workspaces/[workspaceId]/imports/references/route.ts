@@ -7,7 +7,7 @@ import { listAtomsInCell } from '@/db/queries/dos-import';
 export const GET = workspaceRoute('imports:create', z.object({ workspaceId: z.string().min(1) }), async (_request, ctx) => {
   const [refs, atomsInCell] = await Promise.all([loadImportReferences(ctx.workspace.id), listAtomsInCell(ctx.workspace.id)]);
   return Response.json({
-    materials: [...refs.materials].map(([name, m]) => ({ name, id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: atomsInCell.get(m.id) ?? null })),
+    materials: [...refs.materials].map(([name, m]) => ({ name, id: m.id, atomsPerFormulaUnit: m.atomsPerFormulaUnit, atomsInCell: atomsInCell.get(m.id) ?? null, ...(m.elements ? { elements: m.elements } : {}) })),
     sources: [...refs.sources].map(([citeKey, id]) => ({ citeKey, id })),
     methods: [...refs.methods].map(([label, id]) => ({ label, id })),
   });
