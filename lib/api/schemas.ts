@@ -231,7 +231,7 @@ const valueFields = {
   sourceId: z.string(),
   importId: z.string().nullable(),
   quantity: z.string(),
-  value: z.number().meta({ description: 'Canonical: cm⁻¹ for frequencies, J mol⁻¹ K⁻¹ per formula unit for entropies and heat capacities.' }),
+  value: z.number().meta({ description: 'Canonical: cm⁻¹ for frequencies, J mol⁻¹ K⁻¹ per formula unit for entropies and heat capacities, e for Born charges; dielectric constants are dimensionless.' }),
   valueText: z.string().meta({ description: 'The number exactly as entered, in `unit`.' }),
   unit: z.string(),
   uncertainty: z.number().nullable(),
@@ -242,6 +242,11 @@ const valueFields = {
   branch: z.enum(BRANCH_VALUES).nullable(),
   degeneracy: z.int().nullable(),
   activity: z.enum(ACTIVITY_VALUES).nullable(),
+  site: nullableText.meta({ description: 'Born charges: the atom ("Ga", "O2").' }),
+  components: z
+    .array(z.number())
+    .nullable()
+    .meta({ description: 'Born charges: the 3 × 3 tensor in e, row-major (9 numbers); dielectric constants: 3 principal values. `value` is then the mean of the diagonal.' }),
   notes: nullableText,
   createdAt: timestamp,
   retractedAt: timestamp.nullable(),

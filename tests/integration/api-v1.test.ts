@@ -270,3 +270,28 @@ describe('GET /api/v1/openapi.json', () => {
     expect(doc.components.schemas.Verdict.properties.verdict.enum).toEqual(['pass', 'fail']);
   });
 });
+
+describe('Born charges through the API', () => {
+  it('takes a tensor as nested arrays, stores its nine components with the diagonal mean, reads them back, and refuses a non-neutral cell', async () => {
+    const rows = (zN: number) => [
+      { material: 'GaN-wz', method: 'PBEsol-PAW-600', quantity: 'born-charge', site: 'Ga', tensor: [[2.6, 0, 0], [0, 2.6, 0], [0, 0, 2.74]], source: 'inhouse-2026' },
+      { material: 'GaN-wz', method: 'PBEsol-PAW-600', quantity: 'born-charge', site: 'N', tensor: [zN, 0, 0, 0, zN, 0, 0, 0, -2.74], source: 'inhouse-2026' },
+    ];
+    const post = (zN: number, fileName: string) =>
+      call(importsRoute.POST, '/imports', { method: 'POST', token: tokens.contributor, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ kind: 'calculations', fileName, rows: rows(zN) }) });
+
+    // N with +2.6 instead of −2.6 in xx and yy: diagonal means 2.64667 (Ga) + 0.82 (N) = 3.467 e per formula unit, far from neutral
+    const refused = await post(2.6, 'born-wrong.json');
+    expect(refused.status).toBe(422);
+    expect(JSON.stringify(await refused.json())).toMatch(/sum to 3\.467 e in the diagonal mean per formula unit/);
+
+    const res = await post(-2.6, 'born.json');
+    expect(res.status).toBe(201);
+    const body = await res.json();
+    const list = await call(calculationsRoute.GET, `/calculations?quantity=born-charge`, { token: tokens.reviewer });
+    const items = (await list.json()).items as Array<{ site: string; value: number; components: number[]; importId: string }>;
+    const ga = items.find((c) => c.site === 'Ga' && c.importId === body.importId)!;
+    expect(ga.components).toEqual([2.6, 0, 0, 0, 2.6, 0, 0, 0, 2.74]);
+    expect(ga.value).toBeCloseTo(7.94 / 3, 10);
+  });
+});
