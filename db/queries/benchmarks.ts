@@ -327,9 +327,10 @@ const CALCULATION_INPUT = {
   degeneracy: calculation.degeneracy,
   seq: calculation.seq,
   modeIndex: calculation.modeIndex,
-  site: calculation.site,
-  components: calculation.components,
 };
+/** The same with the tensor columns, read only for the quantities that have them (the frequency path stays as narrow as before). */
+const TENSOR_CALCULATION_INPUT = { ...CALCULATION_INPUT, site: calculation.site, components: calculation.components };
+const hasTensors = (quantity: BenchmarkRecord['scope']['quantity']) => quantity === 'born-charge' || quantity === 'eps-inf' || quantity === 'eps-static';
 
 type CalculationRow = BenchmarkInput['calculations'][number];
 
@@ -349,8 +350,7 @@ function calculationFromRow(r: unknown[]): CalculationRow {
     degeneracy: r[11] as number | null,
     seq: r[12] as number,
     modeIndex: r[13] as number | null,
-    site: r[14] as string | null,
-    components: r[15] === null ? null : (JSON.parse(r[15] as string) as number[]),
+    ...(r.length > 14 ? { site: r[14] as string | null, components: r[15] == null ? null : (JSON.parse(r[15] as string) as number[]) } : {}),
   };
 }
 
@@ -533,7 +533,7 @@ export async function loadScopeRows(
       .then((rows) => rows.map((r) => ({ ...r, seq: r.seq! }))),
     // The largest read (every computed mode in scope): raw rows mapped by hand skip Drizzle's per-column decoding.
     db
-      .select(CALCULATION_INPUT)
+      .select(hasTensors(bm.scope.quantity) ? TENSOR_CALCULATION_INPUT : CALCULATION_INPUT)
       .from(calculation)
       .where(calculationWhere)
       .values()
@@ -685,7 +685,7 @@ export async function rowsOfRowSet(workspaceId: string, rows: { measurements: nu
   const cRuns = runsOf(rows.calculations);
   for (let i = 0; i < cRuns.length; i += RUNS_PER_QUERY) {
     const found = await db
-      .select(CALCULATION_INPUT)
+      .select(TENSOR_CALCULATION_INPUT)
       .from(calculation)
       .where(and(eq(calculation.workspaceId, workspaceId), inRuns(calculation.seq, cRuns.slice(i, i + RUNS_PER_QUERY))))
       .values();
