@@ -29,6 +29,8 @@ export const singleEntrySchema = z.object({
   laser_nm: cell,
   sample_form: cell,
   mode_index: cell,
+  site: cell,
+  tensor: cell,
   source: cell,
   notes: z.string().trim().max(2000, 'At most 2,000 characters.').optional().default(''),
 });

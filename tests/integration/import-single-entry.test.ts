@@ -137,3 +137,19 @@ describe('who may undo an import', () => {
     expect((await undo(old)).state).toMatchObject({ ok: true });
   });
 });
+
+describe('single entry of a Born charge', () => {
+  it('takes a site and a tensor, the value left empty as the diagonal mean, and refuses a site that is no atom of the material', async () => {
+    await signInAs(contributor.email);
+    const entry = { workspaceId: ws.workspaceId, kind: 'calculations', material: 'GaN-wz', method: 'PBEsol-PAW-600', quantity: 'born-charge', source: 'inhouse-2026' };
+    const out = await callAction(createSingleEntryAction, { ...entry, site: 'Ga1', tensor: '2.60 0 0; 0 2.60 0; 0 0 2.74' });
+    expect(out.state).toMatchObject({ ok: true });
+    const [row] = await db.select().from(calculation).where(eq(calculation.importId, savedOf(out).importId));
+    expect(row).toMatchObject({ site: 'Ga1', components: [2.6, 0, 0, 0, 2.6, 0, 0, 0, 2.74], unit: 'e' });
+    expect(row.value).toBeCloseTo(7.94 / 3, 10);
+
+    const bad = await callAction(createSingleEntryAction, { ...entry, value: '2.6', site: 'As1' });
+    expect(bad.state).toMatchObject({ ok: false });
+    expect(JSON.stringify(bad.state)).toMatch(/As is not an element of this material \(Ga, N\)/);
+  });
+});

@@ -66,6 +66,7 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
   };
 
   const units = unitsOf(quantity);
+  const withTensor = quantity === 'born-charge' || quantity === 'eps-inf' || quantity === 'eps-static';
   return (
     <form ref={formRef} noValidate onSubmit={onSubmit} className="space-y-5" aria-label={measured ? 'Add one measurement' : 'Add one calculation'}>
       <input type="hidden" name="workspaceId" value={workspaceId} />
@@ -95,13 +96,21 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
           <option value="heat-capacity">{measured ? 'heat capacity (Cp)' : 'heat capacity (harmonic Cv)'}</option>
           <option value="eps-inf">dielectric constant ε∞</option>
           <option value="eps-static">dielectric constant ε₀</option>
+          <option value="born-charge">Born effective charge (one site)</option>
         </SelectField>
         <TextField label="Source (cite key)" name="source" list="entry-sources" autoComplete="off" required errors={errors.source} hint="e.g. azuhata1995; add a source first if it is new." />
       </fieldset>
 
       <fieldset className="grid gap-4 sm:grid-cols-3">
         <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">Value</legend>
-        <TextField label="Value" name="value" inputMode="decimal" required errors={errors.value} hint={measured ? 'As written in the source; kept exactly ("1.50" stays 1.50).' : 'Imaginary modes as negative numbers.'} />
+        <TextField
+          label="Value"
+          name="value"
+          inputMode="decimal"
+          required={!withTensor}
+          errors={errors.value}
+          hint={withTensor ? 'May be left empty when the tensor is given: it is then the mean of the diagonal.' : measured ? 'As written in the source; kept exactly ("1.50" stays 1.50).' : 'Imaginary modes as negative numbers.'}
+        />
         <SelectField key={quantity} label="Unit" name="unit" defaultValue={units[0]} errors={errors.unit}>
           {units.map((u) => (
             <option key={u} value={u}>
@@ -111,6 +120,22 @@ export function SingleEntryForm({ workspaceId, slug, kind, choices, initialMater
         </SelectField>
         {measured ? <TextField label="Uncertainty (same unit)" name="uncertainty" inputMode="decimal" errors={errors.uncertainty} /> : <TextField label="Mode index" name="mode_index" inputMode="numeric" errors={errors.mode_index} hint="Its place in the computed list, 1 = lowest." />}
       </fieldset>
+
+      {withTensor && (
+        <fieldset className="grid gap-4 sm:grid-cols-3">
+          <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-muted">{quantity === 'born-charge' ? 'Site and tensor' : 'Principal values'}</legend>
+          {quantity === 'born-charge' && <TextField label="Site" name="site" autoComplete="off" required errors={errors.site} hint='The atom: element symbol, optional number ("Ga", "O2").' />}
+          <div className="sm:col-span-2">
+            <TextField
+              label={quantity === 'born-charge' ? 'Tensor (e)' : 'Principal values'}
+              name="tensor"
+              autoComplete="off"
+              errors={errors.tensor}
+              hint={quantity === 'born-charge' ? 'Optional: nine numbers row-major, e.g. 2.60 0 0; 0 2.60 0; 0 0 2.74. One entry holds one atom: the material page checks neutrality once every atom of the cell is in.' : 'Optional, for a non-cubic crystal: three numbers ≥ 1.'}
+            />
+          </div>
+        </fieldset>
+      )}
 
       {quantity === 'frequency' && (
         <fieldset className="grid gap-4 sm:grid-cols-4">
