@@ -102,7 +102,7 @@ export function DosImport({ workspaceId, slug, references }: { workspaceId: stri
           <div className="space-y-4">
             <p className="text-sm">
               <span className="num font-medium">{count(result.rowCount)}</span> rows · <span className="num">{result.blocks.length}</span> densities of states ·{' '}
-              <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} errors</span>
+              <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} {result.errorCount === 1 ? 'error' : 'errors'}</span>
               {result.ignored.length > 0 && <span className="text-ink-muted"> · ignored columns: {result.ignored.map((h) => `“${h}”`).join(', ')}</span>}
             </p>
             {result.errorCount > 0 && <RowErrorTable errors={result.errors} errorCount={result.errorCount} />}

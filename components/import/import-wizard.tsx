@@ -288,7 +288,7 @@ export function ImportWizard({ workspaceId, slug }: { workspaceId: string; slug:
                 <p className="text-sm">
                   <span className="num font-medium">{count(result.rowCount)}</span> rows ·{' '}
                   <span className="num text-good">{count(result.validCount)} valid</span> ·{' '}
-                  <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} errors</span>
+                  <span className={`num ${result.errorCount ? 'text-bad' : 'text-ink-muted'}`}>{count(result.errorCount)} {result.errorCount === 1 ? 'error' : 'errors'}</span>
                 </p>
                 <NewMethods
                   count={result.missingMethodCount}

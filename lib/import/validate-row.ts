@@ -182,7 +182,9 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   if (valueText === '') {
     // The value of a row given by its tensor: the mean of the diagonal.
     raw = components ? components.reduce((sum, c, i) => sum + (components!.length === 3 || i % 4 === 0 ? c : 0), 0) / 3 : null;
-    valueText = raw === null ? null : String(Number(raw.toPrecision(10)));
+    // Written with two decimals more than the tensor's cells (2.60, 2.60, 2.74 → 2.6467); the value itself stays exact.
+    const decimals = Math.max(0, ...tensorText.split(/[\s;,[\]()]+/).map((t) => /\.(\d+)/.exec(t.replace(/[eE].*$/, ''))?.[1].length ?? 0));
+    valueText = raw === null ? null : String(Number(raw.toFixed(Math.min(12, decimals + 2))));
   } else if (valueText !== null) {
     raw = parseDecimal(valueText);
     if (raw === null) fail('value', notANumberReason(valueText), valueText);

@@ -25,6 +25,8 @@ describe('Born-charge rows', () => {
     const result = previewCsv(text, { kind: 'calculations', references });
     expect(result.errors).toEqual([]);
     expect(result).toMatchObject({ rowCount: 4, validCount: 4, errorCount: 0, warningCount: 0 });
+    // the derived value is written with two decimals more than the tensor's cells; the typed 2.65 stays as typed
+    expect(result.preview.map((p) => p.stored?.value)).toEqual(['2.6467\u00a0e', '2.65\u00a0e', '−2.6467\u00a0e', '−2.6467\u00a0e']);
   });
 
   it('warns on a small residue (sum rule not imposed) and names the component, importing all the same', () => {
