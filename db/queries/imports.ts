@@ -5,7 +5,7 @@ import { createDb, db, getClient, type Executor } from '@/db/client';
 import { apiToken, calculation, importBatch, material, measurement, method, source, user, type ImportBatch } from '@/db/schema';
 import { listAudit, writeAudit } from '@/db/queries/audit';
 import { AppError } from '@/lib/errors';
-import { atomsPerReducedFormulaUnit, parseFormula } from '@/lib/science/formula';
+import { atomsPerReducedFormulaUnit, elementCountsOrUndefined } from '@/lib/science/formula';
 import type { ImportableKind } from '@/lib/import/columns';
 import type { ImportWarning } from '@/lib/import/mode-set-warnings';
 import type { DuplicateRow, PendingRow } from '@/lib/import/row-validator';
@@ -54,15 +54,6 @@ function storedAtomsPerFormulaUnit(m: { reducedFormula: string; atomsPerFormulaU
   }
 }
 
-/** Element counts of the reduced formula, or undefined when it does not parse (the site check is then skipped). */
-function reducedElements(reducedFormula: string): Record<string, number> | undefined {
-  try {
-    return parseFormula(reducedFormula).counts;
-  } catch {
-    return undefined;
-  }
-}
-
 /** The handles an import (CSV, JSON rows or DOS) may use, for validation on the server and in the browser. */
 export async function loadImportReferences(workspaceId: string): Promise<ImportReferences & DosReferences> {
   const [materials, sources, methods] = await Promise.all([
@@ -82,7 +73,7 @@ export async function loadImportReferences(workspaceId: string): Promise<ImportR
   return {
     // Values per formula unit are per the reduced formula's unit (GaN, not Ga2N2).
     materials: new Map(
-      materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: storedAtomsPerFormulaUnit(m), atomsInCell: m.atomsInCell, elements: reducedElements(m.reducedFormula) }]),
+      materials.map((m) => [m.name, { id: m.id, atomsPerFormulaUnit: storedAtomsPerFormulaUnit(m), atomsInCell: m.atomsInCell, elements: elementCountsOrUndefined(m.reducedFormula) }]),
     ),
     sources: new Map(sources.map((s) => [s.key, s.id])),
     methods: new Map(methods.map((m) => [m.label, m.id])),

@@ -118,9 +118,9 @@ export function unitOf(quantity: BenchmarkInput['quantity']): string {
 }
 
 /** The caution a benchmark of this quantity carries on its page (null: none). */
-export function cautionOf(quantity: BenchmarkInput['quantity']): string | null {
+export function cautionOf(quantity: BenchmarkInput['quantity'], rules?: Pick<BenchmarkRules, 'heatCapacityCorrection'>): string | null {
   if (quantity === 'entropy') return ENTROPY_CAUTION;
-  if (quantity === 'heat-capacity') return HEAT_CAPACITY_CAUTION;
+  if (quantity === 'heat-capacity') return rules?.heatCapacityCorrection === 'cp-minus-cv' ? HEAT_CAPACITY_CORRECTED_CAUTION : HEAT_CAPACITY_CAUTION;
   if (isDielectric(quantity)) return DIELECTRIC_CAUTION;
   if (quantity === 'born-charge') return BORN_CHARGE_CAUTION;
   if (quantity === 'lo-to-splitting') return LO_TO_CAUTION;
@@ -401,7 +401,7 @@ export function finishBenchmark(context: FinishContext, stages: readonly Materia
     ranking,
     entropyBasis,
     // Against a reference method both sides are computed alike: the cautions about experiment do not apply.
-    caution: context.referenceMethod ? null : rules.heatCapacityCorrection === 'cp-minus-cv' && quantity === 'heat-capacity' ? HEAT_CAPACITY_CORRECTED_CAUTION : cautionOf(quantity),
+    caution: context.referenceMethod ? null : cautionOf(quantity, rules),
     outlierScale,
     qualityNotApplied: notApplied,
     comparisons: comparisons(methodIds, included),

@@ -1,5 +1,5 @@
 import { DEFAULT_QUALITY_THRESHOLDS, qualityReport, ScienceInputError, siteNeutrality, type QualityFlag, type QualityThresholds } from '@/lib/science';
-import { FAR_FROM_NEUTRAL_E } from '@/lib/import/born-neutrality';
+import { neutralityVerdict } from '@/lib/import/born-neutrality';
 import { qualityModes } from '@/lib/benchmark/pair-rows';
 
 type Grid = [number, number, number];
@@ -103,16 +103,16 @@ export function bornChargeSets(input: {
       let neutrality: BornChargeSet['neutrality'];
       if (!residue) neutrality = { status: 'unchecked', text: `Neutrality not checked: ${rows.length} site${rows.length === 1 ? '' : 's'}${input.atomsInCell ? ` of the ${input.atomsInCell} atoms of the cell` : ', and no atoms in the cell recorded'}.` };
       else {
-        const size = Math.abs(residue.value);
         const zero = Math.abs(residue.value) < 5e-4;
         const where = basis === 'formula-unit' ? 'in the diagonal mean per formula unit' : zero ? 'in every component over the cell' : `in ${residue.component} over the cell`;
         const sum = `Σ Z* = ${Number(residue.value.toFixed(3))} e ${where}`;
-        neutrality =
-          size >= FAR_FROM_NEUTRAL_E
-            ? { status: 'far', text: `${sum}: far from neutral — a site is missing or a sign is wrong.` }
-            : size > limit
-              ? { status: 'residue', text: `${sum}, beyond ±${limit} e: the acoustic sum rule was probably not imposed.` }
-              : { status: 'neutral', text: `${sum}, within ±${limit} e: neutral.` };
+        const status = neutralityVerdict(residue.value, limit);
+        const text = {
+          far: `${sum}: far from neutral — a site is missing or a sign is wrong.`,
+          residue: `${sum}, beyond ±${limit} e: the acoustic sum rule was probably not imposed.`,
+          neutral: `${sum}, within ±${limit} e: neutral.`,
+        }[status];
+        neutrality = { status, text };
       }
       return { series: s.series, rows, neutrality };
     });

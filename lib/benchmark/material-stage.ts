@@ -23,7 +23,7 @@
  * material take the place of its measurements (reference-pairs.ts); the quality checks run on
  * the candidates only.
  */
-import { atomsPerReducedFormulaUnit, cpMinusCv, qualityReport, ScienceInputError } from '@/lib/science';
+import { atomsPerReducedFormulaUnit, cpMinusCvOf, fullTensor, qualityReport, ScienceInputError } from '@/lib/science';
 import { groupBy, pairEntropies, pairFrequencies, pairPerMaterial, qualityModes } from './pair-rows';
 import { asReference, pairReferenceFrequencies } from './reference-pairs';
 import { pairSites, pairSplittings, type TensorDistances } from './site-and-splitting-pairs';
@@ -63,14 +63,8 @@ function byId<T extends { id: string }>(a: T, b: T): number {
 
 /** Computed Cv → Cp of one material (module header), or null when it lacks α, B or V_m. */
 function cvToCp(material: BenchmarkInput['materials'][number] | undefined): ((rows: ScopeCalculation[]) => ScopeCalculation[]) | null {
-  const alpha = material?.thermalExpansionPerK;
-  const bulk = material?.bulkModulusGpa;
-  const volume = material?.molarVolumeCm3;
-  if (alpha == null || bulk == null || volume == null) return null;
-  return (rows) =>
-    rows.map((r) =>
-      r.temperatureK === null ? r : { ...r, value: r.value + cpMinusCv({ volumetricExpansionPerK: alpha, bulkModulusGPa: bulk, molarVolumeCm3PerMol: volume, temperatureK: r.temperatureK }) },
-    );
+  if (!material || material.thermalExpansionPerK == null || material.bulkModulusGpa == null || material.molarVolumeCm3 == null) return null;
+  return (rows) => rows.map((r) => (r.temperatureK === null ? r : { ...r, value: r.value + cpMinusCvOf(material, r.temperatureK)! }));
 }
 
 /** Entropy values per mole of atoms instead of formula units (module header). */
@@ -91,7 +85,7 @@ function reducedAtoms(formula: string | undefined): number | undefined {
 
 /** A Born charge as the quality check reads it: 3 × 3 rows. */
 function asTensorRows(z: number | number[]): number[][] {
-  const t = typeof z === 'number' ? [z, 0, 0, 0, z, 0, 0, 0, z] : z;
+  const t = fullTensor(z);
   return [t.slice(0, 3), t.slice(3, 6), t.slice(6, 9)];
 }
 
@@ -171,7 +165,8 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
     let matchedBy: MaterialStage['matchedBy'];
     let tensorDistances: TensorDistances | undefined;
     let cpCorrection: MaterialStage['cpCorrection'];
-    const calcsByMaterialMethod = () => new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
+    const calcsByMaterialMethod = (transform: (rows: ScopeCalculation[]) => ScopeCalculation[] = (rows) => rows) =>
+      new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, transform(list)]));
     if (quantity === 'born-charge') {
       ({ pairs, unpaired, tensorDistances } = pairSites(measurements, calcsByMaterialMethod(), methodIds));
       measuredInScope = measurements.filter((m) => m.site).length;
@@ -184,20 +179,17 @@ export function pairMaterials(input: BenchmarkInput): MaterialStage[] {
       ({ pairs, unpaired, matchedBy } = result);
       measuredInScope = result.referenceModes;
     } else if (quantity === 'frequency') {
-      const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
-      ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod, methodIds, pinsOf.get(materialId) ?? [], rules, context));
+      ({ pairs, unpaired } = pairFrequencies(measurements, calcsByMaterialMethod(), methodIds, pinsOf.get(materialId) ?? [], rules, context));
     } else if (isDielectric(quantity)) {
-      const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, list]));
-      ({ pairs, unpaired } = pairPerMaterial(measurements, calcsByMaterialMethod, methodIds));
+      ({ pairs, unpaired } = pairPerMaterial(measurements, calcsByMaterialMethod(), methodIds));
     } else {
       const atoms = atomBasis ? reducedAtoms(materials.get(materialId)?.formula) : undefined;
       const correct = correctCv ? cvToCp(materials.get(materialId)) : (rows: ScopeCalculation[]) => rows;
       if (correct === null) cpCorrection = 'lacking';
       else if (correctCv) cpCorrection = 'corrected';
       measurements = perAtom(measurements, atoms);
-      const calcsByMaterialMethod = new Map([...calcsByMethod].map(([methodId, list]) => [`${materialId}|${methodId}`, correct === null ? [] : perAtom(correct(list), atoms)]));
       measuredInScope = measurements.filter((m) => near(m.temperatureK)).length;
-      ({ pairs, unpaired } = pairEntropies(measurements, calcsByMaterialMethod, methodIds, window.temperatureK, window.toleranceK));
+      ({ pairs, unpaired } = pairEntropies(measurements, calcsByMaterialMethod((list) => (correct === null ? [] : perAtom(correct(list), atoms))), methodIds, window.temperatureK, window.toleranceK));
     }
     const { records, notApplied } = qualityOf(input, materialId, calcsByMethod, methods, materials.get(materialId), dielectric);
     return {

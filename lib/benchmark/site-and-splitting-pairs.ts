@@ -23,13 +23,10 @@
  * each computed couple used once. The pair's measured value is ω_LO − ω_TO of the measurement,
  * its calculated value the same of the method, and it names both measurements and both modes.
  */
-import { collapseDegenerateModes, diagonalMean, frobeniusDistance, irrepSpecies, loToCouples, ScienceInputError, type BranchLine, type LoToCouple } from '@/lib/science';
-import { computedMode, groupBy, newPair, pairKey } from './pair-rows';
+import { collapseDegenerateModes, diagonalMean, frobeniusDistance, isBareSite, loToCouples, siteElement, type BranchLine, type LoToCouple } from '@/lib/science';
+import { computedMode, groupBy, labelParts, newPair, pairKey } from './pair-rows';
 import type { BenchmarkRules } from './schemas';
 import type { PairRecord, ScopeCalculation, ScopeMeasurement } from './types';
-
-const elementOf = (site: string) => /^[A-Z][a-z]?/.exec(site)?.[0] ?? site;
-const isBare = (site: string) => /^[A-Z][a-z]?$/.test(site);
 
 /** ‖ΔZ‖_F of a pair, by pair key, where both sides hold one full tensor. */
 export type TensorDistances = Record<string, number>;
@@ -47,10 +44,10 @@ export function pairSites(
     for (const methodId of methodIds) {
       const calcs = (calculationsByMaterialMethod.get(`${m.materialId}|${methodId}`) ?? []).filter((c) => c.site);
       let members = calcs.filter((c) => c.site === m.site);
-      if (members.length === 0 && isBare(m.site)) members = calcs.filter((c) => elementOf(c.site!) === m.site);
+      if (members.length === 0 && isBareSite(m.site)) members = calcs.filter((c) => siteElement(c.site!) === m.site);
       if (members.length === 0) {
-        const ofElement = calcs.filter((c) => elementOf(c.site!) === elementOf(m.site!));
-        if (ofElement.length === 1 && isBare(ofElement[0].site!)) members = ofElement;
+        const ofElement = calcs.filter((c) => siteElement(c.site!) === siteElement(m.site!));
+        if (ofElement.length === 1 && isBareSite(ofElement[0].site!)) members = ofElement;
       }
       if (members.length === 0) {
         unpaired.set(methodId, (unpaired.get(methodId) ?? 0) + 1);
@@ -74,20 +71,10 @@ export function pairSites(
   return { pairs, unpaired, tensorDistances };
 }
 
-function speciesOf(label: string | null): string | null {
-  if (!label) return null;
-  try {
-    return irrepSpecies(label);
-  } catch (error) {
-    if (error instanceof ScienceInputError) return null;
-    throw error;
-  }
-}
-
 function measuredLines(rows: readonly ScopeMeasurement[]): BranchLine[] {
   const lines: BranchLine[] = [];
   for (const m of rows) {
-    const species = speciesOf(m.irrep);
+    const species = labelParts(m.irrep, null).species;
     if (!species || !m.branch) continue;
     lines.push({ id: m.id, frequencyCm1: m.value, species, branch: m.branch, ...(m.uncertainty !== null ? { uncertaintyCm1: m.uncertainty } : {}) });
   }

@@ -23,6 +23,12 @@ import type { ValidRow } from './validate-row';
 /** A residue of at least this (e, in one component) refuses the import. */
 export const FAR_FROM_NEUTRAL_E = 1;
 
+/** How far a residue is from neutral: 'far' refuses an import, 'residue' warns (module header). */
+export function neutralityVerdict(residueE: number, limitE: number = DEFAULT_QUALITY_THRESHOLDS.bornNeutrality): 'neutral' | 'residue' | 'far' {
+  const size = Math.abs(residueE);
+  return size >= FAR_FROM_NEUTRAL_E ? 'far' : size > limitE ? 'residue' : 'neutral';
+}
+
 interface SetTally {
   row: number;
   materialId: string;
@@ -86,13 +92,14 @@ export class BornChargeTally {
         continue;
       }
       const where = basis === 'formula-unit' ? 'in the diagonal mean' : `in the ${residue.component} component`;
-      if (Math.abs(residue.value) >= FAR_FROM_NEUTRAL_E) {
+      const verdict = neutralityVerdict(residue.value, this.limitE);
+      if (verdict === 'far') {
         errors.push({
           row: set.row,
           column: this.columnName('tensor'),
           reason: `The Born charges of ${material} (${by}) sum to ${fmt(residue.value)} e ${where} ${how}; neutrality needs 0. A site is missing, a sign is wrong or a row belongs to another material.`,
         });
-      } else if (Math.abs(residue.value) > this.limitE) {
+      } else if (verdict === 'residue') {
         warnings.push({
           ...at,
           message: `${by} on ${material}: the Born charges sum to ${fmt(residue.value)} e ${where} ${how}, beyond ±${this.limitE} e; the acoustic sum rule was probably not imposed. Imported all the same (the charges may still be useful); the benchmarks' neutrality check flags the set.`,

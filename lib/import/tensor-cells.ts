@@ -11,13 +11,20 @@ import type { ImportQuantity } from './columns';
 /** The largest |component| a Born charge may have (anomalous charges reach about 7–8 e). */
 const MAX_BORN_COMPONENT = 20;
 
-export function parseTensorCell(quantity: ImportQuantity, text: string): { components: number[] } | { reason: string } {
-  const expected = quantity === 'born-charge' ? TENSOR_COMPONENTS : quantity === 'eps-inf' || quantity === 'eps-static' ? PRINCIPAL_COMPONENTS : null;
-  if (expected === null) return { reason: `Only Born charges (9 components) and dielectric constants (3 principal values) carry a tensor; leave it empty for a ${quantity} row.` };
-  const parts = text
+/** Decimals written after the point of a number's text ("2.60" → 2, "3.1e-5" → 1). */
+const decimalsOf = (text: string) => /\.(\d+)/.exec(text.replace(/[eE].*$/, ''))?.[1].length ?? 0;
+
+/** The number texts of a tensor cell. */
+const partsOf = (text: string) =>
+  text
     .replace(/[[\]()]/g, ' ')
     .split(/[\s;,]+/)
     .filter((p) => p !== '');
+
+export function parseTensorCell(quantity: ImportQuantity, text: string): { components: number[] } | { reason: string } {
+  const expected = quantity === 'born-charge' ? TENSOR_COMPONENTS : quantity === 'eps-inf' || quantity === 'eps-static' ? PRINCIPAL_COMPONENTS : null;
+  if (expected === null) return { reason: `Only Born charges (9 components) and dielectric constants (3 principal values) carry a tensor; leave it empty for a ${quantity} row.` };
+  const parts = partsOf(text);
   const what = expected === TENSOR_COMPONENTS ? 'A Born-charge tensor needs 9 numbers (3 × 3, row-major: xx xy xz yx yy yz zx zy zz)' : 'A dielectric tensor is given by its 3 principal values';
   if (parts.length !== expected) return { reason: `${what}; got ${parts.length}.` };
   const components: number[] = [];
@@ -37,12 +44,22 @@ export function parseTensorCell(quantity: ImportQuantity, text: string): { compo
 }
 
 /**
+ * The value of a row given only by its tensor: the mean of the diagonal, exact, written with two
+ * decimals more than the tensor's cells (2.60, 2.60, 2.74 → "2.6467").
+ */
+export function valueOfTensor(components: readonly number[], tensorText: string): { value: number; text: string } {
+  const value = diagonalMean(components);
+  const decimals = Math.max(0, ...partsOf(tensorText).map(decimalsOf));
+  return { value, text: String(Number(value.toFixed(Math.min(12, decimals + 2)))) };
+}
+
+/**
  * Why a written value disagrees with the mean of its tensor's diagonal, or null: the two may
  * differ by half a unit of the value's last written decimal (2.65 for a mean of 2.6467).
  */
 export function tensorMeanMismatch(value: number, valueText: string, components: readonly number[]): string | null {
   const mean = diagonalMean(components);
-  const decimals = /\.(\d+)/.exec(valueText.replace(/[eE].*$/, ''))?.[1].length ?? 0;
+  const decimals = decimalsOf(valueText);
   const slack = 0.5 * 10 ** -decimals + 1e-9 * Math.max(1, Math.abs(mean));
   if (Math.abs(value - mean) <= slack) return null;
   return `The value ${excerpt(valueText)} is not the mean of the tensor's diagonal (${Number(mean.toPrecision(6))}); correct one of them, or leave the value empty.`;

@@ -5,7 +5,7 @@ import { excerpt, type RowError } from './errors';
 import type { MissingCatalog } from './create-missing';
 import { notANumberReason, parseDecimal } from './numbers';
 import { isDimensionless, parseUnit, singleUnitOf, unitsOf, type DefaultUnits, type ImportUnit } from './units';
-import { parseSite, parseTensorCell, tensorMeanMismatch } from './tensor-cells';
+import { parseSite, parseTensorCell, tensorMeanMismatch, valueOfTensor } from './tensor-cells';
 import {
   ACTIVITY_VALUES,
   BRANCH_VALUES,
@@ -180,11 +180,9 @@ export function validateRow(row: number, read: CellReader, ctx: RowContext, erro
   let valueText: string | null = cell('value') === '' && tensorText !== '' ? '' : required('value');
   let raw: number | null = null;
   if (valueText === '') {
-    // The value of a row given by its tensor: the mean of the diagonal.
-    raw = components ? components.reduce((sum, c, i) => sum + (components!.length === 3 || i % 4 === 0 ? c : 0), 0) / 3 : null;
-    // Written with two decimals more than the tensor's cells (2.60, 2.60, 2.74 → 2.6467); the value itself stays exact.
-    const decimals = Math.max(0, ...tensorText.split(/[\s;,[\]()]+/).map((t) => /\.(\d+)/.exec(t.replace(/[eE].*$/, ''))?.[1].length ?? 0));
-    valueText = raw === null ? null : String(Number(raw.toFixed(Math.min(12, decimals + 2))));
+    const derived = components ? valueOfTensor(components, tensorText) : null;
+    raw = derived?.value ?? null;
+    valueText = derived?.text ?? null;
   } else if (valueText !== null) {
     raw = parseDecimal(valueText);
     if (raw === null) fail('value', notANumberReason(valueText), valueText);

@@ -167,6 +167,16 @@ export function atomsPerReducedFormulaUnit(formula: string): number {
   return parseFormula(formula).atomsPerReducedFormulaUnit;
 }
 
+/** Element counts of a formula, or undefined when it does not parse (for checks that are skipped then, not refused). */
+export function elementCountsOrUndefined(formula: string): Record<string, number> | undefined {
+  try {
+    return parseFormula(formula).counts;
+  } catch (error) {
+    if (error instanceof ScienceInputError) return undefined;
+    throw error;
+  }
+}
+
 /**
  * Formula units Z in a cell of `atomsInCell` atoms, or null when the count contradicts
  * the formula: a cell holds a whole number Z ≥ 1 of (reduced) formula units (common

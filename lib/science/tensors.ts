@@ -76,6 +76,11 @@ export function largestComponent(sum: readonly number[]): { value: number; compo
   return { value: sum[at], component: `${axes[Math.floor(at / 3)]}${axes[at % 3]}` };
 }
 
+/** The element of a site ("Ga1" → "Ga"). */
+export const siteElement = (site: string): string => /^[A-Z][a-z]?/.exec(site)?.[0] ?? site;
+/** Whether a site is an element symbol alone ("Ga"), standing for every atom of that element. */
+export const isBareSite = (site: string): boolean => /^[A-Z][a-z]?$/.test(site);
+
 /** The residue of a set of Born charges, and how it was summed; null when the set cannot be checked. */
 export interface SiteNeutrality {
   residue: { value: number; component: string } | null;
@@ -97,7 +102,7 @@ export function siteNeutrality(
 ): SiteNeutrality {
   if (sites.length === 0) return { residue: null, basis: null };
   if (atomsInCell && sites.length === atomsInCell) return { residue: largestComponent(chargeSum(sites.map((s) => s.charge))), basis: 'cell' };
-  const bare = sites.every((s) => /^[A-Z][a-z]?$/.test(s.site));
+  const bare = sites.every((s) => isBareSite(s.site));
   if (bare && elements && Object.keys(elements).length === sites.length && sites.every((s) => s.site in elements)) {
     const value = sites.reduce((sum, s) => sum + elements[s.site] * (typeof s.charge === 'number' ? s.charge : diagonalMean(s.charge)), 0);
     return { residue: { value, component: 'diagonal mean' }, basis: 'formula-unit' };

@@ -167,3 +167,17 @@ export function cpMinusCv(input: CpMinusCvInput): number {
   const alpha = input.volumetricExpansionPerK;
   return alpha * alpha * (input.bulkModulusGPa * 1e9) * (input.molarVolumeCm3PerMol * 1e-6) * input.temperatureK;
 }
+
+/** A material's recorded α_V (K⁻¹), B_T (GPa) and V_m (cm³ mol⁻¹), any of them possibly missing. */
+export interface ThermalProperties {
+  thermalExpansionPerK?: number | null;
+  bulkModulusGpa?: number | null;
+  molarVolumeCm3?: number | null;
+}
+
+/** cpMinusCv of a material at T, or null when it lacks any of the three properties. */
+export function cpMinusCvOf(material: ThermalProperties, temperatureK: number): number | null {
+  const { thermalExpansionPerK: alpha, bulkModulusGpa: bulk, molarVolumeCm3: volume } = material;
+  if (alpha == null || bulk == null || volume == null) return null;
+  return cpMinusCv({ volumetricExpansionPerK: alpha, bulkModulusGPa: bulk, molarVolumeCm3PerMol: volume, temperatureK });
+}

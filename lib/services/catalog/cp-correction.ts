@@ -3,7 +3,7 @@ import 'server-only';
  * The material page's Cp − Cv line: the gap α_V² B_T V_m T (lib/science cpMinusCv) at 298.15 K from the
  * material's three thermal fields, and its share of a measured Cp near that temperature when there is one.
  */
-import { cpMinusCv, ScienceInputError } from '@/lib/science';
+import { cpMinusCvOf, ScienceInputError } from '@/lib/science';
 
 export const CP_CORRECTION_TEMPERATURE_K = 298.15;
 /** A measured Cp this close to 298.15 K is compared with the gap computed at 298.15 K. */
@@ -35,12 +35,7 @@ export function materialCpCorrection(material: Record<ThermalField, number | nul
   let gap: number | null = null;
   if (missing.length === 0) {
     try {
-      gap = cpMinusCv({
-        volumetricExpansionPerK: material.thermalExpansionPerK!,
-        bulkModulusGPa: material.bulkModulusGpa!,
-        molarVolumeCm3PerMol: material.molarVolumeCm3!,
-        temperatureK,
-      });
+      gap = cpMinusCvOf(material, temperatureK);
     } catch (e) {
       // Stored through the validated paths only; a value that slipped past them shows no gap rather than breaking the page.
       if (!(e instanceof ScienceInputError)) throw e;

@@ -144,7 +144,7 @@ export async function BenchmarkView({
   const q = `revision=${rev.number}`;
   const comparison = comparisonFromSearch(search, methodList.map((m) => m.methodId));
   // older revisions stored no caution: the quantity's own
-  const caution = snap.reference ? null : (snap.caution ?? cautionOf(snap.quantity));
+  const caution = snap.reference ? null : (snap.caution ?? cautionOf(snap.quantity, snap.rules));
   const qualityLineList = qualityLines(snap.quality, (id) => methodLabel.get(id) ?? id, materialName);
 
   return (

@@ -1,8 +1,12 @@
 import 'server-only';
+import { cache } from 'react';
 import type { MaterialValues } from '@/db/queries/material-values';
 import { getMethodGrids, getQualityThresholds } from '@/db/queries/settings';
+
+/** One read of the workspace's thresholds per request, for the quality flags and the Born-charge sets alike. */
+const thresholdsOf = cache(getQualityThresholds);
 import { bornChargeSets, materialQualityFlags, type BornChargeSet, type MethodQuality } from '@/lib/benchmark/material-quality';
-import { parseFormula } from '@/lib/science';
+import { elementCountsOrUndefined } from '@/lib/science';
 
 /** A method's ε∞ and ε₀ of the material (the first row of each by id), when both are stored. */
 function dielectricOf(rows: MaterialValues['methods'][number]['dielectric']): { epsInf: number; eps0: number } | undefined {
@@ -16,7 +20,7 @@ function dielectricOf(rows: MaterialValues['methods'][number]['dielectric']): { 
 export async function loadMaterialQuality(workspaceId: string, material: { id: string; atomsInCell: number | null; spaceGroup: number | null }, values: MaterialValues): Promise<MethodQuality[]> {
   const methods = values.methods.filter((m) => m.modes.length > 0);
   if (methods.length === 0) return [];
-  const [thresholds, grids] = await Promise.all([getQualityThresholds(workspaceId), getMethodGrids(workspaceId, methods.map((m) => m.methodId))]);
+  const [thresholds, grids] = await Promise.all([thresholdsOf(workspaceId), getMethodGrids(workspaceId, methods.map((m) => m.methodId))]);
   return materialQualityFlags({
     materialId: material.id,
     atomsInCell: material.atomsInCell,
@@ -39,16 +43,10 @@ export async function loadBornChargeSets(workspaceId: string, material: { atomsI
   for (const r of values.born) measuredBySource.set(r.citeKey, [...(measuredBySource.get(r.citeKey) ?? []), r]);
   const methods = values.methods.filter((m) => m.born.length > 0);
   if (measuredBySource.size === 0 && methods.length === 0) return [];
-  let elements: Record<string, number> | undefined;
-  try {
-    elements = parseFormula(material.reducedFormula).counts;
-  } catch {
-    elements = undefined;
-  }
-  const thresholds = await getQualityThresholds(workspaceId);
+  const thresholds = await thresholdsOf(workspaceId);
   return bornChargeSets({
     atomsInCell: material.atomsInCell,
-    elements,
+    elements: elementCountsOrUndefined(material.reducedFormula),
     limitE: thresholds?.bornNeutrality,
     series: [
       ...[...measuredBySource].map(([citeKey, rows]) => ({ series: `Measured (${citeKey})`, rows })),
