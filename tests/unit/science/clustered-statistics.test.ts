@@ -114,7 +114,10 @@ describe('out-of-sample RMSE after scaling', () => {
           const pairs = rows.map((r) => ({ measured: r.measured, calculated: r.measured * r.factor }));
           const s = errorStatistics(pairs, { bootstrapSamples: 0, clusters: rows.map((r) => r.cluster) });
           if (s.rmseAfterScalingOutOfSample === undefined) return;
-          expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling! * (1 - 1e-9));
+          // An exact fit (every factor equal) leaves both RMSEs at rounding noise, ~1e-13 of values near 1e3: allow
+          // that noise on the scale of the data as well as a relative slack, else the property fails on noise.
+          const noise = 1e-12 * Math.max(...pairs.map((p) => Math.abs(p.calculated)));
+          expect(s.rmseAfterScalingOutOfSample).toBeGreaterThanOrEqual(s.rmseAfterScaling! * (1 - 1e-9) - noise);
         },
       ),
       { numRuns: 100 },
